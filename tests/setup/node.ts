@@ -1,0 +1,11 @@
+// Node test setup: an unexpected console.error is a failing test, not noise.
+import { afterEach, vi } from 'vitest';
+
+const originalError = console.error;
+afterEach(() => {
+  vi.restoreAllMocks();
+});
+console.error = (...args: unknown[]) => {
+  originalError(...args);
+  throw new Error(`console.error was called: ${String(args[0])}. Mock it if this is expected.`);
+};

@@ -1,0 +1,30 @@
+import { defineConfig } from 'vitest/config';
+
+// Two projects: pure/server code runs in node, React components in jsdom.
+// Server tests talk to the real test database that `npm test` starts (DATABASE_URL).
+export default defineConfig({
+  test: {
+    projects: [
+      {
+        test: {
+          name: 'node',
+          environment: 'node',
+          include: ['tests/shared/**/*.test.ts', 'tests/server/**/*.test.ts'],
+          setupFiles: ['tests/setup/node.ts'],
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+          // Server tests share one database; run files one after another.
+          fileParallelism: false,
+        },
+      },
+      {
+        test: {
+          name: 'dom',
+          environment: 'jsdom',
+          include: ['tests/src/**/*.test.tsx'],
+          setupFiles: ['tests/setup/dom.ts'],
+        },
+      },
+    ],
+  },
+});
