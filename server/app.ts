@@ -1,0 +1,121 @@
+/**
+ * Builds the Express app; index.ts alone listens. Tests call createApp() with a test database.
+ */
+import { ExpressAuth } from '@auth/express';
+import express, { type Express } from 'express';
+import rateLimit from 'express-rate-limit';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import { createAuthConfig } from './auth/auth-config';
+import { createUserResolver } from './auth/current-user';
+import type { DbHandle } from './db/client';
+import type { Env } from './env';
+import { buildOpenApiDocument, createRegistry } from './http/openapi';
+import type { RouteContext } from './http/route';
+import { NotFoundError, TooManyRequestsError } from './lib/errors';
+import type { Mailer } from './mail/mailer';
+import { errorHandler } from './middleware/error-handler';
+import { registerAccountRoutes } from './routes/account.routes';
+import { registerAdminRoutes } from './routes/admin.routes';
+import { registerCalcRoutes } from './routes/calc.routes';
+import { createAccountsService } from './services/accounts.service';
+
+export interface AppDeps {
+  env: Env;
+  db: DbHandle;
+  mailer: Mailer;
+  /** Requests per window for sign-in, sign-up and reset, per client address. */
+  authRateLimit?: { limit: number; windowMs: number };
+  calcRateLimit?: { limit: number; windowMs: number };
+}
+
+const API_BASE = '/api/v1';
+
+export function createApp(deps: AppDeps): Express {
+  const { env, mailer } = deps;
+  const db = deps.db.db;
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          workerSrc: ["'self'", 'blob:'],
+          connectSrc: ["'self'"],
+          fontSrc: ["'self'", 'data:'],
+          objectSrc: ["'none'"],
+          upgradeInsecureRequests: null,
+        },
+      },
+    }),
+  );
+
+  const limited = (o: { limit: number; windowMs: number }, message: string) =>
+    rateLimit({
+      ...o,
+      standardHeaders: 'draft-8',
+      legacyHeaders: false,
+      handler: (_req, _res, next) => next(new TooManyRequestsError(message)),
+    });
+  const authLimiter = limited(
+    deps.authRateLimit ?? { limit: 60, windowMs: 10 * 60_000 },
+    'Too many sign-in attempts from this address. Wait ten minutes, then try again.',
+  );
+  const calcLimiter = limited(deps.calcRateLimit ?? { limit: 300, windowMs: 60_000 }, 'Too many calculator requests. Wait a minute, then try again.');
+
+  const authConfig = createAuthConfig({
+    db,
+    mailer,
+    secret: env.AUTH_SECRET,
+    appUrl: env.APP_URL,
+    sessionMaxAgeSeconds: env.SESSION_MAX_AGE_SECONDS,
+    maxFailures: env.SIGN_IN_MAX_FAILURES,
+    windowMinutes: env.SIGN_IN_WINDOW_MINUTES,
+    mailFrom: env.MAIL_FROM,
+  });
+  // Auth.js must be mounted at '/auth' exactly on Express 5 (stack.md gotcha 7).
+  app.use(['/auth/callback', '/auth/signin'], authLimiter);
+  app.use('/auth', express.urlencoded({ extended: false }), express.json(), ExpressAuth(authConfig));
+
+  app.get('/api/health', async (_req, res) => {
+    const database = await deps.db.pool
+      .query('select 1')
+      .then(() => 'ok' as const)
+      .catch(() => 'unreachable' as const);
+    const smtp = (await mailer.verify()) ? ('ok' as const) : ('unreachable' as const);
+    const status = database === 'ok' && smtp === 'ok' ? 'ok' : 'degraded';
+    res.status(status === 'ok' ? 200 : 503).json({ status, database, smtp, time: new Date().toISOString() });
+  });
+
+  const router = express.Router();
+  router.use(express.json({ limit: '2mb' }));
+  router.use(['/account', '/invitations'], authLimiter);
+  router.use('/calc', calcLimiter);
+  const registry = createRegistry();
+  const ctx: RouteContext = { router, registry, basePath: API_BASE, resolveUser: createUserResolver(db, env.AUTH_SECRET) };
+  const accounts = createAccountsService({ db, mailer, appUrl: env.APP_URL });
+  registerAccountRoutes(ctx, accounts);
+  registerAdminRoutes(ctx, db, accounts);
+  registerCalcRoutes(ctx);
+
+  const openApi = buildOpenApiDocument(registry);
+  router.get('/openapi.json', (_req, res) => {
+    res.json(openApi);
+  });
+  router.use((req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${API_BASE}${req.path}. See ${API_BASE}/openapi.json for the routes.`)));
+  app.use(API_BASE, router);
+  app.use('/api', (req, _res, next) => next(new NotFoundError(`No API route ${req.method} /api${req.path}. The API lives under ${API_BASE}.`)));
+
+  const dist = path.resolve(import.meta.dirname, '../dist');
+  if (env.SERVE_CLIENT && existsSync(path.join(dist, 'index.html'))) {
+    app.use(express.static(dist, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html')));
+  }
+  app.use(errorHandler);
+  return app;
+}

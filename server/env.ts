@@ -1,0 +1,55 @@
+/**
+ * Configuration from the environment, validated at boot: a wrong or missing value stops
+ * the server with a message naming the variable.
+ */
+import { z } from 'zod';
+
+const port = (name: string, fallback: number) =>
+  z.coerce
+    .number({ error: `${name} must be a port number` })
+    .int({ error: `${name} must be a whole number` })
+    .min(0, { error: `${name} must be between 0 and 65535` })
+    .max(65535, { error: `${name} must be between 0 and 65535` })
+    .default(fallback);
+
+export const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  PORT: port('PORT', 3000),
+  HOST: z.string().default('127.0.0.1'),
+  DATABASE_URL: z
+    .string({ error: 'DATABASE_URL is required, e.g. postgres://app@127.0.0.1:54329/brackline' })
+    .regex(/^postgres(ql)?:\/\//, { error: 'DATABASE_URL must start with postgres://' }),
+  SMTP_URL: z
+    .string()
+    .regex(/^smtps?:\/\//, { error: 'SMTP_URL must start with smtp:// or smtps://' })
+    .default('smtp://127.0.0.1:2525'),
+  SMTP_FAKE_PORT: port('SMTP_FAKE_PORT', 2525),
+  MAIL_FROM: z.string().default('Brackline <no-reply@brackline.test>'),
+  AUTH_SECRET: z
+    .string({ error: 'AUTH_SECRET is required (at least 32 characters)' })
+    .min(32, { error: 'AUTH_SECRET must be at least 32 characters long' }),
+  /** Public base URL used in e-mailed links. */
+  APP_URL: z.string().url({ error: 'APP_URL must be a URL such as http://127.0.0.1:3000' }).default('http://127.0.0.1:3000'),
+  SESSION_MAX_AGE_SECONDS: z.coerce.number().int().positive().default(8 * 3600),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  /** Sign-in attempts per e-mail address within the throttle window before refusing. */
+  SIGN_IN_MAX_FAILURES: z.coerce.number().int().positive().default(5),
+  SIGN_IN_WINDOW_MINUTES: z.coerce.number().int().positive().default(15),
+  /** Serve the built client from dist/ (npm start); off in API tests. */
+  SERVE_CLIENT: z
+    .enum(['true', 'false'])
+    .default('true')
+    .transform((v) => v === 'true'),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+/** Parses `source` (process.env by default) or throws one error naming every bad variable. */
+export function loadEnv(source: Record<string, string | undefined> = process.env): Env {
+  const parsed = envSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.') || '(env)'}: ${i.message}`);
+    throw new Error(`Configuration is not valid:\n${lines.join('\n')}`);
+  }
+  return parsed.data;
+}
