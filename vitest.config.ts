@@ -19,6 +19,17 @@ export default defineConfig({
       },
       {
         test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['tests/e2e/**/*.e2e.ts'],
+          globalSetup: ['tests/e2e/global-setup.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+          fileParallelism: false,
+        },
+      },
+      {
+        test: {
           name: 'dom',
           environment: 'jsdom',
           include: ['tests/src/**/*.test.tsx'],

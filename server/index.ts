@@ -11,7 +11,7 @@ import { logger } from './lib/logger';
 import { createMailer } from './mail/mailer';
 
 async function main() {
-  let env;
+  let env: ReturnType<typeof loadEnv>;
   try {
     env = loadEnv();
   } catch (err) {

@@ -109,6 +109,8 @@ export function defineRoute<
     summary: spec.summary,
     tags: spec.tags,
     ...('public' in spec.access ? {} : { security: [{ session: [] }] }),
+    // Which roles may call it: documented for API users and read by the access-control tests.
+    ...('roles' in spec.access && spec.access.roles !== 'any' ? { 'x-roles': [...spec.access.roles] } : {}),
     request: {
       ...(spec.body
         ? { body: { content: { [spec.bodyContentType ?? 'application/json']: { schema: spec.body } }, required: true } }

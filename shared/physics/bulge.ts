@@ -132,13 +132,15 @@ export interface Bulge {
  * Source: (a) published: Yankovsky & Chapman 1997 (abstract), science.md §1.5–§1.6.
  */
 export function bulge(inflow: MouthInflow): Bulge {
+  const offshoreExtent = bulgeOffshoreExtent(inflow);
+  const hb = bottomAttachmentDepth(inflow);
   const vi = inflowVelocity(inflow.discharge, inflow.mouthWidth, inflow.mouthDepth);
   const c0 = Math.sqrt(inflow.reducedGravity * inflow.mouthDepth);
   return {
     inflowVelocity: vi,
     mouthDeformationRadius: c0 / requireRotation(inflow.coriolis),
     froudeNumber: vi / c0,
-    offshoreExtent: bulgeOffshoreExtent(inflow),
-    bottomAttachmentDepth: bottomAttachmentDepth(inflow),
+    offshoreExtent,
+    bottomAttachmentDepth: hb,
   };
 }

@@ -1,0 +1,41 @@
+#!/usr/bin/env bash
+# npm start: install what is missing, start PostgreSQL, migrate, load the demo data,
+# start the local fakes and serve the app on one loopback port.
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
+export PORT="${PORT:-3000}"
+export SMTP_FAKE_PORT="${SMTP_FAKE_PORT:-2525}"
+export SMTP_URL="${SMTP_URL:-smtp://127.0.0.1:$SMTP_FAKE_PORT}"
+export APP_URL="${APP_URL:-http://127.0.0.1:$PORT}"
+export NODE_ENV="${NODE_ENV:-development}"
+
+if port_in_use "$PORT"; then
+  fail "Port $PORT is already in use: Brackline (or another program) is running there. Open http://127.0.0.1:$PORT, stop the other program, or choose another port: PORT=3100 npm start"
+fi
+if port_in_use "$SMTP_FAKE_PORT"; then
+  fail "Port $SMTP_FAKE_PORT (the local e-mail fake) is in use: is Brackline already running? Stop it, or choose another port: SMTP_FAKE_PORT=2526 npm start"
+fi
+
+ensure_node_modules
+bash scripts/pg.sh up brackline
+export DATABASE_URL="${DATABASE_URL:-$(db_url brackline)}"
+ensure_auth_secret
+npx tsx server/db/migrate.ts
+npx tsx server/db/seed.ts
+
+# Build the client when there is no build or the sources are newer than it.
+if [ ! -f dist/index.html ] || [ -n "$(find src shared index.html vite.config.ts tailwind.config.ts -newer dist/index.html -print -quit)" ]; then
+  say "Building the client…"
+  npx vite build --logLevel warn
+fi
+
+cat <<MSG
+
+[brackline] Demo accounts (password: brackline-demo-2026)
+  grower@brackline.test      grower with held and candidate leases
+  adviser@brackline.test     extension adviser
+  regulator@brackline.test   shellfish authority, Fennick Coast jurisdiction
+  admin@brackline.test       administrator (people, outbox, audit log)
+[brackline] Ctrl-C stops the app; npm run db:stop stops PostgreSQL.
+MSG
+exec npx tsx server/index.ts

@@ -1,0 +1,26 @@
+/**
+ * The cautions of product.md §7, shown wherever results appear. The wording never calls a
+ * site safe: the tool predicts; the shellfish authority decides.
+ */
+export const CAUTION_TEXT = [
+  'Brackline gives screening-level estimates from simplified physics. It does not replace the shellfish control authority\'s classification, closures or sampling, nor a site-specific hydrodynamic study.',
+  'Wind, tides, ambient currents, stratification and other rivers change where a plume goes.',
+  'Follow local regulations and the authority\'s notices before harvesting.',
+] as const;
+
+export function Cautions({ compact = false }: { compact?: boolean }) {
+  return (
+    <aside aria-label="Cautions" className="rounded-md border border-sand-400 bg-sand-100 px-4 py-3 text-sm text-shell-900 print:border-black">
+      <p className="font-semibold">Read before you rely on these results</p>
+      {compact ? (
+        <p className="mt-1">{CAUTION_TEXT[0]} {CAUTION_TEXT[2]}</p>
+      ) : (
+        <ul className="mt-1 list-disc space-y-1 pl-5">
+          {CAUTION_TEXT.map((line) => (
+            <li key={line}>{line}</li>
+          ))}
+        </ul>
+      )}
+    </aside>
+  );
+}

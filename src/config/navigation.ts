@@ -1,0 +1,38 @@
+import type { Role } from '#shared/schemas/roles';
+
+export interface NavItem {
+  to: string;
+  label: string;
+}
+
+/**
+ * What each role sees in the top band. Pages join this list as they are built;
+ * the server still checks every call, so the list is a convenience, not a guard.
+ */
+export const NAVIGATION: Record<Role, NavItem[]> = {
+  grower: [
+    { to: '/', label: 'Overview' },
+    { to: '/plume-calculator', label: 'Plume calculator' },
+  ],
+  adviser: [
+    { to: '/', label: 'Overview' },
+    { to: '/plume-calculator', label: 'Plume calculator' },
+  ],
+  regulator: [
+    { to: '/', label: 'Overview' },
+    { to: '/plume-calculator', label: 'Plume calculator' },
+  ],
+  admin: [
+    { to: '/', label: 'Overview' },
+    { to: '/admin/people', label: 'People' },
+    { to: '/admin/outbox', label: 'Outbox' },
+    { to: '/admin/audit', label: 'Audit log' },
+  ],
+};
+
+export const ROLE_LABEL: Record<Role, string> = {
+  grower: 'Grower',
+  adviser: 'Adviser',
+  regulator: 'Regulator',
+  admin: 'Administrator',
+};

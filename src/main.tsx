@@ -1,0 +1,14 @@
+import '@fontsource/merriweather-sans/400.css';
+import '@fontsource/merriweather-sans/700.css';
+import './index.css';
+import { StrictMode } from 'react';
+import { createRoot } from 'react-dom/client';
+import { AppProvider } from './app/provider';
+
+const root = document.getElementById('root');
+if (!root) throw new Error('index.html has no #root element');
+createRoot(root).render(
+  <StrictMode>
+    <AppProvider />
+  </StrictMode>,
+);

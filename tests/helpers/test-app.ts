@@ -1,0 +1,98 @@
+/**
+ * A real app on the real test database (TEST_DATABASE_URL, started by npm test), with the
+ * SMTP fake on a free loopback port. supertest drives it over real HTTP.
+ */
+import { sql } from 'drizzle-orm';
+import type { Express } from 'express';
+import request from 'supertest';
+import { createApp, type AppDeps } from '../../server/app';
+import { createDb, type DbHandle } from '../../server/db/client';
+import { runMigrations } from '../../server/db/migrate';
+import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
+import { loadEnv } from '../../server/env';
+import { type SmtpFake, startSmtpFake } from '../../server/fakes/smtp-fake';
+import { createMailer, type Mailer } from '../../server/mail/mailer';
+
+export { DEMO_PASSWORD };
+
+export interface TestApp {
+  app: Express;
+  db: DbHandle;
+  smtp: SmtpFake;
+  mailer: Mailer;
+  close(): Promise<void>;
+}
+
+export function testDatabaseUrl(): string {
+  const url = process.env.TEST_DATABASE_URL;
+  if (!url) throw new Error('TEST_DATABASE_URL is not set: run the API tests through `npm test`, which starts the test database.');
+  return url;
+}
+
+export async function createTestApp(overrides: Partial<Omit<AppDeps, 'env' | 'db' | 'mailer'>> & { envOverrides?: Record<string, string> } = {}): Promise<TestApp> {
+  const url = testDatabaseUrl();
+  await runMigrations(url);
+  const db = createDb(url, 5);
+  await seedDemo(db.db);
+  const smtp = await startSmtpFake(db.db, 0);
+  const env = loadEnv({
+    NODE_ENV: 'test',
+    DATABASE_URL: url,
+    AUTH_SECRET: 'test-secret-test-secret-test-secret-0123',
+    SMTP_URL: `smtp://127.0.0.1:${smtp.port}`,
+    SERVE_CLIENT: 'false',
+    ...overrides.envOverrides,
+  });
+  const mailer = createMailer(env.SMTP_URL, env.MAIL_FROM);
+  const { envOverrides: _ignored, ...deps } = overrides;
+  const app = createApp({
+    env,
+    db,
+    mailer,
+    authRateLimit: { limit: 10_000, windowMs: 60_000 },
+    ...deps,
+  });
+  return {
+    app,
+    db,
+    smtp,
+    mailer,
+    async close() {
+      mailer.close();
+      await smtp.stop();
+      await db.pool.end();
+    },
+  };
+}
+
+/** Signs in through Auth.js's own routes and returns an agent that carries the session cookie. */
+export async function signIn(app: Express, email: string, password = DEMO_PASSWORD) {
+  const agent = request.agent(app);
+  const csrf = await agent.get('/auth/csrf').expect(200);
+  const res = await agent
+    .post('/auth/callback/credentials')
+    .set('X-Auth-Return-Redirect', '1')
+    .type('form')
+    .send({ csrfToken: csrf.body.csrfToken, email, password });
+  const url = new URL(res.body.url, 'http://x');
+  return { agent, error: url.searchParams.get('error'), code: url.searchParams.get('code'), status: res.status };
+}
+
+/** Empties tables that tests fill, keeping the demo accounts. */
+export async function clearMail(db: DbHandle): Promise<void> {
+  await db.db.execute(sql`delete from outbox_messages`);
+}
+
+/** Waits for the SMTP fake to store a message for `to`. */
+export async function waitForMail(db: DbHandle, to: string, timeoutMs = 5_000): Promise<{ subject: string | null; text: string | null }> {
+  const started = Date.now();
+  while (Date.now() - started < timeoutMs) {
+    const rows = await db.pool.query(
+      'select subject, text_body as text from outbox_messages where envelope_to @> $1::jsonb order by received_at desc limit 1',
+      [JSON.stringify([to])],
+    );
+    if (rows.rows.length) return rows.rows[0];
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`No e-mail to ${to} arrived within ${timeoutMs} ms`);
+}
