@@ -1,4 +1,42 @@
-import type { RouteContext } from '../http/route';
+/**
+ * The science engine as a stateless calculator API: open without sign-in, rate-limited,
+ * SI units, unknown fields refused. The same shared functions run in the browser for previews.
+ */
+import { coriolisParameter } from '#shared/physics/coriolis';
+import { computePlume } from '#shared/physics/compute-plume';
+import { seawaterDensity } from '#shared/physics/eos80';
+import { PlumeRequestSchema, PlumeResponseSchema } from '#shared/schemas/plume';
+import { WaterRequestSchema, WaterResponseSchema } from '#shared/schemas/water';
+import { defineRoute, type RouteContext } from '../http/route';
+import { registerHydrologyCalcRoutes } from './calc-hydrology.routes';
 
-/** The science engine's calculator API (filled in when the engine lands). */
-export function registerCalcRoutes(_ctx: RouteContext): void {}
+export function registerCalcRoutes(ctx: RouteContext): void {
+  defineRoute(ctx, {
+    method: 'post',
+    path: '/calc/water',
+    summary: 'Density of water (UNESCO EOS-80) and, with a latitude, the Coriolis parameter',
+    tags: ['calculator'],
+    access: { public: true },
+    body: WaterRequestSchema,
+    response: WaterResponseSchema,
+    errors: [429],
+    handler: ({ body }) => ({
+      density: seawaterDensity(body.salinity, body.temperature, body.pressureDbar ?? 0),
+      ...(body.latitude !== undefined ? { coriolis: coriolisParameter(body.latitude) } : {}),
+    }),
+  });
+
+  defineRoute(ctx, {
+    method: 'post',
+    path: '/calc/plume',
+    summary: 'Rotating river plume for one river and one flow: regime, bulge, coastal current, reach',
+    tags: ['calculator'],
+    access: { public: true },
+    body: PlumeRequestSchema,
+    response: PlumeResponseSchema,
+    errors: [429],
+    handler: ({ body }) => computePlume(body),
+  });
+
+  registerHydrologyCalcRoutes(ctx);
+}

@@ -156,11 +156,9 @@ export function computePlume(input: PlumeInput): PlumeResult {
 
   const warnings: string[] = [];
   const assumptions: string[] = [
-    'Steady, hydrostatic flow; away from the mouth the current is in geostrophic balance.',
     'The plume is a surface layer over deep sea water at rest: no wind, tides or ambient currents.',
     'No mixing with sea water on the way: the density difference stays constant (dilution in the exposure fields is a separate parameter).',
-    'Straight coast and a constant Coriolis parameter.',
-    'The coastal current flows downcoast only, never upcoast.',
+    'Straight coast.',
     'Speeds and widths are scalings with order-one coefficients: treat them as ±50 %.',
   ];
 
@@ -235,6 +233,10 @@ export function computePlume(input: PlumeInput): PlumeResult {
   const slope = shelfSlope > 0 ? slopeCurrent(alongshoreDischarge, gp, coriolis, shelfSlope) : undefined;
   const noseSpeed = slope ? slope.noseSpeed : current.wallNoseSpeed;
 
+  assumptions.push(
+    'Steady, hydrostatic flow; away from the mouth the current is in geostrophic balance with a constant Coriolis parameter.',
+    'The coastal current flows downcoast only, never upcoast.',
+  );
   if (Math.abs(input.latitude) < LOW_LATITUDE_WARNING_DEGREES) {
     warnings.push(
       `Latitude ${fmt(input.latitude)}° is within ${LOW_LATITUDE_WARNING_DEGREES}° of the equator: widths and the bulge ` +
@@ -340,8 +342,8 @@ function resolveBuoyancy(
     seaTemperature: input.seaTemperature as number,
   });
   assumptions.push(
-    `Densities from the UNESCO EOS-80 equation of state at the surface: river ${fmt(pair.riverDensity)} kg/m³, ` +
-      `sea ${fmt(pair.seaDensity)} kg/m³; the river water leaves the mouth undiluted.`,
+    `Densities from the UNESCO EOS-80 equation of state at the surface: river ${pair.riverDensity.toFixed(2)} kg/m³, ` +
+      `sea ${pair.seaDensity.toFixed(2)} kg/m³; the river water leaves the mouth undiluted.`,
   );
   return pair;
 }

@@ -70,11 +70,13 @@ export function freshwaterFractionFromSalinity(
     );
   }
   if (options.clamp) {
-    requireInRange('salinity', salinity, -Infinity, Infinity, '(practical salinity)');
+    if (typeof salinity !== 'number' || !Number.isFinite(salinity)) {
+      throw new RangeError(`salinity must be a finite practical salinity (got ${String(salinity)})`);
+    }
     const phi = (seaSalinity - salinity) / (seaSalinity - riverSalinity);
     return Math.min(1, Math.max(0, phi));
   }
-  requireInRange('salinity', salinity, riverSalinity, seaSalinity, '(practical salinity, between riverSalinity and seaSalinity)');
+  requireInRange('salinity', salinity, riverSalinity, seaSalinity, '(practical salinity, from riverSalinity to seaSalinity)');
   return (seaSalinity - salinity) / (seaSalinity - riverSalinity);
 }
 

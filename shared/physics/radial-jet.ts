@@ -46,7 +46,7 @@ export interface RadialSpread {
  * @param input - { discharge [m³ s⁻¹] > 0, reducedGravity [m s⁻²] > 0, time [s] > 0, frontFroude [–] }
  * @returns radius [m], front speed [m s⁻¹], mean front speed [m s⁻¹], thickness [m]
  * @example
- * radialSpread({ discharge: 900, reducedGravity: 0.19, time: 86400 }).radius; // ≈ 3.8e4
+ * radialSpread({ discharge: 900, reducedGravity: 0.19, time: 86400 }).radius; // ≈ 1.88e4
  * Source: (c) derived: box model with Fr_f = 1 (common practice for gravity-current fronts),
  * documented in this module; product.md §4.3 asks for a flagged radial-jet estimate.
  */

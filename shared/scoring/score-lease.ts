@@ -463,14 +463,14 @@ function buildReasons(
   const terms = numbers.drivingPathway === 'indicator' ? numbers.indicator : numbers.salinity;
   const pathway = numbers.drivingPathway === 'indicator' ? 'faecal indicator' : 'salinity';
   reasons.push(
-    `Score ${score.toFixed(2)} of 1 (${pathway}: exposure ${numbers.exposureFraction.toFixed(2)} × severity ${terms.severity.toFixed(2)} × duration ${terms.duration.toFixed(2)}); ${RATING_WORDS[rating]} is ${ratingRange(rating, numbers.settings.cutPoints)}.`,
+    `Score ${fixed2(score)} of 1 (${pathway}: exposure ${fixed2(numbers.exposureFraction)} × severity ${fixed2(terms.severity)} × duration ${fixed2(terms.duration)}); ${RATING_WORDS[rating]} is ${ratingRange(rating, numbers.settings.cutPoints)}.`,
   );
   return reasons;
 }
 
 /** @private */
 function ratingRange(rating: Rating, cut: ScoreCutPoints): string {
-  const f = (value: number) => value.toFixed(2);
+  const f = fixed2;
   switch (rating) {
     case 'low':
       return `under ${f(cut.moderate)}`;
@@ -481,6 +481,11 @@ function ratingRange(rating: Rating, cut: ScoreCutPoints): string {
     case 'severe':
       return `${f(cut.severe)} or more`;
   }
+}
+
+/** @private two decimals, halves rounded up despite binary representation (0.465 → "0.47"). */
+function fixed2(value: number): string {
+  return (Math.round(value * 100 + 1e-9) / 100).toFixed(2);
 }
 
 /** @private */

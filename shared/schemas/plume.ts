@@ -1,0 +1,110 @@
+/**
+ * @module shared/schemas/plume
+ * Request and response of the plume calculator. A request gives either the four water
+ * properties (riverSalinity, riverTemperature, seaSalinity, seaTemperature) or reducedGravity.
+ */
+
+import { z } from 'zod';
+import { numberField, strictObjectError } from './physical-fields';
+import { latitudeField, salinityField, temperatureField } from './water';
+
+const WATER_FIELDS = ['riverSalinity', 'riverTemperature', 'seaSalinity', 'seaTemperature'] as const;
+const EITHER_OR =
+  'give either the four water properties (riverSalinity, riverTemperature, seaSalinity, seaTemperature) or reducedGravity';
+
+/** Body of a plume request. Unknown fields are refused. */
+export const PlumeRequestSchema = z
+  .strictObject(
+    {
+      latitude: latitudeField(),
+      discharge: numberField('discharge', 'm³/s', 'River discharge', { min: 0, exclusiveMin: true }),
+      riverSalinity: salinityField('riverSalinity').optional(),
+      riverTemperature: temperatureField('riverTemperature').optional(),
+      seaSalinity: salinityField('seaSalinity').optional(),
+      seaTemperature: temperatureField('seaTemperature').optional(),
+      mouthWidth: numberField('mouthWidth', 'm', 'Width of the river mouth', { min: 0, exclusiveMin: true }),
+      mouthDepth: numberField('mouthDepth', 'm', 'Depth of the river mouth (inflow depth)', {
+        min: 0,
+        exclusiveMin: true,
+      }),
+      shelfSlope: numberField('shelfSlope', '', 'Bottom slope off the mouth, depth change per distance', {
+        min: 0,
+        max: 0.5,
+      }).optional(),
+      alongshoreShare: numberField(
+        'alongshoreShare',
+        '',
+        'Share of the discharge carried on into the coastal current (default 0.6)',
+        { min: 0.3, max: 1 },
+      ).optional(),
+      floodDurationHours: numberField('floodDurationHours', 'h', 'Flood duration, for the reach along the coast', {
+        min: 0,
+        exclusiveMin: true,
+      }).optional(),
+      reducedGravity: numberField(
+        'reducedGravity',
+        'm/s²',
+        'Reduced gravity g′, given instead of the four water properties',
+        { min: 0, exclusiveMin: true },
+      ).optional(),
+    },
+    strictObjectError('plume request'),
+  )
+  .superRefine((body, ctx) => {
+    const given = WATER_FIELDS.filter((key) => body[key] !== undefined);
+    if (body.reducedGravity !== undefined) {
+      if (given.length > 0) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['reducedGravity'],
+          message: `${EITHER_OR}, not both (got reducedGravity and ${given.join(', ')})`,
+        });
+      }
+      return;
+    }
+    const missing = WATER_FIELDS.filter((key) => body[key] === undefined);
+    if (missing.length > 0) {
+      ctx.addIssue({
+        code: 'custom',
+        path: given.length > 0 ? [missing[0]] : ['reducedGravity'],
+        message: `${EITHER_OR} (missing: ${missing.join(', ')})`,
+      });
+    }
+  });
+
+/** A parsed plume request. */
+export type PlumeRequest = z.infer<typeof PlumeRequestSchema>;
+
+/** Regimes reported by the plume calculator. */
+export const PlumeRegimeSchema = z
+  .enum(['surface-advected', 'intermediate', 'bottom-advected', 'equatorial-jet'])
+  .describe('Plume regime after Yankovsky & Chapman (1997), or the equatorial fallback');
+
+/** Side of the outflow (looking seaward) to which the plume turns. */
+export const TurningSideSchema = z
+  .enum(['right', 'left', 'none'])
+  .describe('Side of the outflow, looking seaward, to which the plume turns');
+
+/** Response of the plume calculator. These names must exist; extra fields are allowed. */
+export const PlumeResponseSchema = z.looseObject({
+  coriolis: z.number().describe('Coriolis parameter f, negative in the southern hemisphere (s⁻¹)'),
+  reducedGravity: z.number().describe('Reduced gravity g′ (m s⁻²)'),
+  regime: PlumeRegimeSchema,
+  depth: z.number().describe('Coastal-current depth at the coast H0 (m)'),
+  width: z.number().describe('Coastal-current width W0 (m)'),
+  meanSpeed: z.number().describe('Mean speed of the coastal current U0 (m s⁻¹)'),
+  noseSpeed: z.number().describe('Advance speed of the current’s nose, c_p on a slope or c_w (m s⁻¹)'),
+  slopeWidth: z.number().optional().describe('Width over the sloping shelf W_p (m)'),
+  bulgeOffshoreExtent: z.number().describe('Offshore distance of the bulge front y_s (m)'),
+  bottomAttachmentDepth: z.number().describe('Bottom-attachment depth h_b (m)'),
+  reach: z.number().optional().describe('Distance along the coast reached by the end of the flood (m)'),
+  turnsTo: TurningSideSchema,
+  deformationRadius: z.number().nullable().optional().describe('Internal deformation radius (m); null on the equator'),
+  kelvinNumber: z.number().optional().describe('Kelvin number of the mouth (–)'),
+  froudeNumber: z.number().optional().describe('Froude number of the mouth (–)'),
+  warnings: z.array(z.string()).describe('Plain-English list of the model assumptions these inputs break'),
+  assumptions: z.array(z.string()).optional().describe('Plain-English list of the assumptions behind every number'),
+});
+
+/** A plume response. */
+export type PlumeResponse = z.infer<typeof PlumeResponseSchema>;
