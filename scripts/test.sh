@@ -18,12 +18,12 @@ export E2E_DATABASE_URL="$(db_url brackline_e2e)"
 mkdir -p "$BRACKLINE_DATA/results"
 rm -f "$BRACKLINE_DATA/results/"*.json
 
-say "Typecheck"
-npx tsc --noEmit -p tsconfig.json
-say "Lint"
-npm run --silent lint
-
 status=0
+say "Typecheck"
+npx tsc --noEmit -p tsconfig.json || status=1
+say "Lint"
+npm run --silent lint || status=1
+
 say "Unit, API and component tests"
 npx vitest run --project node --project dom --reporter=default --reporter=json --outputFile.json="$BRACKLINE_DATA/results/unit.json" || status=1
 
@@ -34,4 +34,5 @@ say "Browser tests (Debian chromium)"
 npx vitest run --project e2e --reporter=default --reporter=json --outputFile.json="$BRACKLINE_DATA/results/e2e.json" || status=1
 
 node scripts/summarise-results.mjs "$BRACKLINE_DATA/results" || status=1
+[ $status = 0 ] || say "FAILED: see the typecheck, lint or test output above"
 exit $status

@@ -34,7 +34,6 @@ export interface SourceNote {
  * // => '(c) common practice / derived: science.md §4.5'
  */
 export function formatSourceNote(note: SourceNote): string {
-  const prefix =
-    note.label === 'a' ? '(a) published' : note.label === 'b' ? '(b) from memory' : '(c) common practice / derived';
+  const prefix = note.label === 'a' ? '(a) published' : note.label === 'b' ? '(b) from memory' : '(c) common practice / derived';
   return `${prefix}: ${note.citation}`;
 }

@@ -110,10 +110,8 @@ const DURATION_SOURCE: SourceNote = {
     'science.md §4.5 duration and exposure metrics: consecutive days below an acute threshold (risk rises steeply once days exceed about 2–7) and cumulative salinity deficit-days below the chronic threshold',
 };
 
-const WARM_WATER_NOTE =
-  'Tolerance shortens sharply above about 25 °C (science.md §4.5, (c)); the durations here are for cool water.';
-const LIFE_STAGE_NOTE =
-  'Gametes < embryos < larvae < spat < adults in tolerance (science.md §4, (a)); the thresholds are for adults.';
+const WARM_WATER_NOTE = 'Tolerance shortens sharply above about 25 °C (science.md §4.5, (c)); the durations here are for cool water.';
+const LIFE_STAGE_NOTE = 'Gametes < embryos < larvae < spat < adults in tolerance (science.md §4, (a)); the thresholds are for adults.';
 
 type TableRow = Omit<SpeciesTolerance, 'overridden' | 'durationSource'>;
 
@@ -211,8 +209,7 @@ const ROWS: readonly TableRow[] = [
     optimumMax: null,
     source: {
       label: 'c',
-      citation:
-        'science.md §4.1 suggested thresholds: chronic S < 20 for more than 7 days; acute S < 12–15 for more than 3 days',
+      citation: 'science.md §4.1 suggested thresholds: chronic S < 20 for more than 7 days; acute S < 12–15 for more than 3 days',
     },
     optimumSource: { label: 'b', citation: 'science.md §4.1 adults, from memory: a stenohaline oyster best above about 25' },
     evidence: [
@@ -555,9 +552,7 @@ export function validateTolerance(tolerance: SpeciesTolerance): void {
     );
   }
   if (tolerance.optimumMin !== null && tolerance.optimumMax !== null && tolerance.optimumMin >= tolerance.optimumMax) {
-    throw new Error(
-      `optimumMin must be below optimumMax (${tolerance.optimumMax} psu); got ${tolerance.optimumMin}`,
-    );
+    throw new Error(`optimumMin must be below optimumMax (${tolerance.optimumMax} psu); got ${tolerance.optimumMin}`);
   }
 }
 

@@ -50,7 +50,7 @@ export const NSSP_P90_Z = 1.28;
  * @param values - counts per 100 mL, each > 0; at least two
  * @returns the estimated 90th percentile, same units
  * @example
- * estimatedP90([10, 100]); // => 10^(1.5 + 1.28 × 0.7071) ≈ 254.4
+ * estimatedP90([10, 100]); // => 10^(1.5 + 1.28 × 0.7071) ≈ 254.15
  */
 export function estimatedP90(values: readonly number[]): number {
   checkPositiveCounts('values', values, 2);
@@ -210,7 +210,13 @@ export function classifyNssp(input: NsspSrsInput | NsspApcInput): NsspResult {
       `${fmt(fraction * 100)} % of samples are above ${criteria.approved.p90} ${criteria.unit}; the approved limit is 10 %.`,
     ];
     const meets = gmOk && shareOk;
-    return { category: meets ? 'approved' : 'not-approved', meetsApprovedCriteria: meets, meetsRestrictedCriteria: null, criteria, reasons };
+    return {
+      category: meets ? 'approved' : 'not-approved',
+      meetsApprovedCriteria: meets,
+      meetsRestrictedCriteria: null,
+      criteria,
+      reasons,
+    };
   }
   const strategy = input.strategy ?? 'srs-5-tube';
   const criteria = NSSP_CRITERIA[strategy];
@@ -314,7 +320,10 @@ export const EU_CLASS_CRITERIA: readonly EuClassCriteria[] = Object.freeze([
     maximum: 700,
     use: 'direct human consumption',
     source: { label: 'a', citation: 'Regulation (EU) 2019/627 Art. 53; wording in Reg. (EU) 2015/2285 Art. 1(3)' },
-    maximumSource: { label: 'b', citation: 'Regulation (EU) 2019/627 Art. 53, remaining 20 % ≤ 700 (text cut off in excerpt; standard value)' },
+    maximumSource: {
+      label: 'b',
+      citation: 'Regulation (EU) 2019/627 Art. 53, remaining 20 % ≤ 700 (text cut off in excerpt; standard value)',
+    },
   },
   {
     euClass: 'B',
@@ -500,7 +509,9 @@ function sampleSd(values: readonly number[]): number {
 /** @private */
 function checkPositiveCounts(name: string, values: readonly number[], minLength: number): void {
   if (!Array.isArray(values) || values.length < minLength) {
-    throw new Error(`${name} must be an array of at least ${minLength} positive counts; got ${Array.isArray(values) ? values.length : typeof values}`);
+    throw new Error(
+      `${name} must be an array of at least ${minLength} positive counts; got ${Array.isArray(values) ? values.length : typeof values}`,
+    );
   }
   for (const value of values) {
     if (!Number.isFinite(value) || value <= 0) {

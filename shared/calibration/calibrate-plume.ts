@@ -118,10 +118,10 @@ export function predictPlumeObservation(
  */
 export function calibratePlume(input: CalibratePlumeInput): PlumeCalibration {
   const { settings } = input;
-  if (!(Number.isFinite(settings.seaSalinity) && Number.isFinite(settings.riverSalinity) && settings.seaSalinity > settings.riverSalinity)) {
-    throw new Error(
-      `settings.seaSalinity must be above settings.riverSalinity; got ${settings.seaSalinity} and ${settings.riverSalinity}`,
-    );
+  if (
+    !(Number.isFinite(settings.seaSalinity) && Number.isFinite(settings.riverSalinity) && settings.seaSalinity > settings.riverSalinity)
+  ) {
+    throw new Error(`settings.seaSalinity must be above settings.riverSalinity; got ${settings.seaSalinity} and ${settings.riverSalinity}`);
   }
   input.observations.forEach((observation, i) => {
     if (!(Number.isFinite(observation.along) && observation.along >= 0)) {
@@ -136,8 +136,7 @@ export function calibratePlume(input: CalibratePlumeInput): PlumeCalibration {
   });
   const fit = fitParameters({
     observations: input.observations,
-    predict: (p, observation) =>
-      predictPlumeObservation({ mixingLength: p.mixingLength, t90Hours: p.t90Hours }, settings, observation),
+    predict: (p, observation) => predictPlumeObservation({ mixingLength: p.mixingLength, t90Hours: p.t90Hours }, settings, observation),
     parameters: [
       { name: 'mixingLength', ...input.mixingLength, scale: 'log' },
       { name: 't90Hours', ...input.t90Hours, scale: 'log' },

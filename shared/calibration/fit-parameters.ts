@@ -152,11 +152,7 @@ export const INDICATOR_FLOOR = 1e-3;
  * observationResidual({ value: 2, censored: 'below' }, 1.2, 'indicator'); // => 0
  * observationResidual({ value: 100 }, 1000, 'indicator'); // => 1
  */
-export function observationResidual(
-  observed: ObservedValue,
-  predicted: number,
-  variable: 'salinity' | 'indicator',
-): number {
+export function observationResidual(observed: ObservedValue, predicted: number, variable: 'salinity' | 'indicator'): number {
   const p = variable === 'indicator' ? Math.log10(Math.max(predicted, INDICATOR_FLOOR)) : predicted;
   const o = variable === 'indicator' ? Math.log10(observed.value) : observed.value;
   if (observed.censored === 'below') return p <= o ? 0 : p - o;
@@ -187,9 +183,7 @@ export function compareObservations(
     throw new Error('observations and predictions must be arrays');
   }
   if (observations.length !== predictions.length) {
-    throw new Error(
-      `predictions must have one entry per observation (${observations.length}); got ${predictions.length}`,
-    );
+    throw new Error(`predictions must have one entry per observation (${observations.length}); got ${predictions.length}`);
   }
   observations.forEach(validateObservation);
   const salinity = variableSkill(observations, predictions, 'salinity');
@@ -240,8 +234,7 @@ export function fitParameters<Obs extends CalibrationObservation>(input: FitPara
     return params;
   };
   let evaluations = 0;
-  const predictAll = (params: Record<string, number>): Prediction[] =>
-    observations.map((observation) => predict(params, observation));
+  const predictAll = (params: Record<string, number>): Prediction[] => observations.map((observation) => predict(params, observation));
   const objective = (u: readonly number[]): number => {
     evaluations += 1;
     const value = weightedSse(observations, predictAll(toParams(u)), weights);
@@ -410,11 +403,7 @@ function fromUnit(spec: FitParameterSpec, u: number): number {
 }
 
 /** @private */
-function weightedSse(
-  observations: readonly CalibrationObservation[],
-  predictions: readonly Prediction[],
-  weights: FitWeights,
-): number {
+function weightedSse(observations: readonly CalibrationObservation[], predictions: readonly Prediction[], weights: FitWeights): number {
   let total = 0;
   for (let i = 0; i < observations.length; i++) {
     for (const variable of ['salinity', 'indicator'] as const) {

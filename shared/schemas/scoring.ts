@@ -127,7 +127,10 @@ export const scoringSettingsSchema = z
       .max(1e6, { error: 'indicatorFullSeverityRatio must be above 1 and at most 1e6' })
       .describe('Indicator-to-threshold ratio at which indicator severity reaches 1 (default 10)')
       .optional(),
-    indicatorReferenceDays: days('indicatorReferenceDays', 'Flood days at which the indicator duration term reaches 1 (default 7)').optional(),
+    indicatorReferenceDays: days(
+      'indicatorReferenceDays',
+      'Flood days at which the indicator duration term reaches 1 (default 7)',
+    ).optional(),
     bandLayout: z
       .enum(['nested', 'disjoint'], { error: "bandLayout must be 'nested' or 'disjoint'" })
       .describe('Whether plume bands nest (each from the coast out) or are disjoint rings (default nested)')

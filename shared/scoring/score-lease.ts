@@ -199,8 +199,7 @@ export function scoreLease(input: ScoreLeaseInput): LeaseScore {
   const salinitySeverity = salinitySeverityOf(input.lowestSalinity, tolerance, settings.severityFloor);
   const salinityDuration = Math.min(1, days / tolerance.chronicDurationDays);
   const indicatorSeverity = indicatorSeverityOf(input.highestIndicator, threshold, settings);
-  const indicatorDuration =
-    indicatorSeverity > 0 ? Math.min(1, scenario.floodDurationDays / settings.indicatorReferenceDays) : 0;
+  const indicatorDuration = indicatorSeverity > 0 ? Math.min(1, scenario.floodDurationDays / settings.indicatorReferenceDays) : 0;
   const salinity: PathwayTerms = {
     severity: salinitySeverity,
     duration: salinityDuration,
@@ -234,9 +233,7 @@ export function scoreLease(input: ScoreLeaseInput): LeaseScore {
     settings,
   };
 
-  const reasons = reachesLease
-    ? buildReasons(input, numbers, rating, score, threshold)
-    : [NO_REACH_REASON];
+  const reasons = reachesLease ? buildReasons(input, numbers, rating, score, threshold) : [NO_REACH_REASON];
   return { rating, ratingWord: RATING_WORDS[rating], score, reasons, numbers };
 }
 
@@ -419,13 +416,7 @@ function scenarioPhrase(scenario: LeaseScenario): string {
 }
 
 /** @private */
-function buildReasons(
-  input: ScoreLeaseInput,
-  numbers: ScoreNumbers,
-  rating: Rating,
-  score: number,
-  threshold: number,
-): string[] {
+function buildReasons(input: ScoreLeaseInput, numbers: ScoreNumbers, rating: Rating, score: number, threshold: number): string[] {
   const { tolerance, scenario } = input;
   const reasons: string[] = [];
   const share = formatPercent(numbers.exposureFraction);

@@ -131,7 +131,9 @@ describe('compareObservations', () => {
     [[{ salinity: { value: 60 } }], [{ salinity: 1 }], /observations\[0\].salinity.value must be a salinity in psu from 0 to 45/],
     [[{ indicator: { value: 0 } }], [{ indicator: 1 }], /observations\[0\].indicator.value must be a count per 100 mL above 0/],
   ] as const)('rejects bad input %#', (observations, predictions, message) => {
-    expect(() => compareObservations(observations as CalibrationObservation[], predictions as Prediction[])).toThrow(message);
+    expect(() => compareObservations(observations as unknown as CalibrationObservation[], predictions as unknown as Prediction[])).toThrow(
+      message,
+    );
   });
 });
 

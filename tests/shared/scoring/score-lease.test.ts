@@ -136,7 +136,8 @@ describe('scoreLease: one example per rating step (all numbers (c) hand-computed
 
   it('gives the no-reach reason and a Low rating when no band touches the lease', () => {
     // product brief: "The modelled plume does not reach this lease at this flow" (c)
-    for (const bandFractions of [{}, { 'fresh-core': 0, 'plume-edge': 0 }]) {
+    const cases: Record<string, number>[] = [{}, { 'fresh-core': 0, 'plume-edge': 0 }];
+    for (const bandFractions of cases) {
       const result = scoreLease(base({ bandFractions, lowestSalinity: 30 }));
       expect(result.rating).toBe('low');
       expect(result.ratingWord).toBe('Low');
@@ -163,9 +164,7 @@ describe('scoreLease: one example per rating step (all numbers (c) hand-computed
     expect(result.rating).toBe('low');
     expect(result.reasons[0]).toContain('staying at or above the 12 that Pacific oysters');
     // (c): threshold 2000 → 1400 is under it; the reason drops "(the approved-area standard)"
-    const indicator = scoreLease(
-      base({ bandFractions: { a: 0.8 }, highestIndicator: 1400, indicatorThreshold: 2000 }),
-    );
+    const indicator = scoreLease(base({ bandFractions: { a: 0.8 }, highestIndicator: 1400, indicatorThreshold: 2000 }));
     expect(indicator.rating).toBe('low');
     expect(indicator.reasons[0]).toBe(
       'Faecal indicator over the lease peaks at 1400 per 100 mL at the 1-in-10-year flood (900 m³/s), at or under the screening threshold of 2000 per 100 mL.',
@@ -194,7 +193,10 @@ describe('scoreLease: one example per rating step (all numbers (c) hand-computed
     [{ highestIndicator: -3 }, /highestIndicator must be a count per 100 mL, 0 or more, or null; got -3/],
     [{ daysBelowTolerance: -1 }, /daysBelowTolerance must be a number of days from 0 to 365; got -1/],
     [{ indicatorThreshold: 0 }, /indicatorThreshold must be a count per 100 mL above 0; got 0/],
-    [{ scenario: { aep: 0, discharge: 1, floodDurationDays: 1 } }, /scenario.aep must be an annual exceedance probability in \(0, 1\], or null; got 0/],
+    [
+      { scenario: { aep: 0, discharge: 1, floodDurationDays: 1 } },
+      /scenario.aep must be an annual exceedance probability in \(0, 1\], or null; got 0/,
+    ],
     [{ scenario: { aep: 0.1, discharge: -1, floodDurationDays: 1 } }, /scenario.discharge must be a flow in m³\/s, 0 or more; got -1/],
     [{ scenario: { aep: 0.1, discharge: 1, floodDurationDays: 0 } }, /scenario.floodDurationDays must be in \(0, 365\] days; got 0/],
     [{ settings: { cutPoints: { moderate: 0.5 } } }, /cutPoints must rise: moderate < high < severe; got 0.5, 0.3, 0.6/],
