@@ -6,8 +6,11 @@
 import { EARTH_ANGULAR_VELOCITY, EQUATORIAL_CUTOFF_DEGREES } from './constants';
 import { requireInRange } from './check-argument';
 
+/** The turning sides in a fixed order (for schemas). */
+export const TURNING_SIDES = ['right', 'left', 'none'] as const;
+
 /** Side of the outflow, looking seaward out of the mouth, on which the plume's coastal current runs. */
-export type TurningSide = 'right' | 'left' | 'none';
+export type TurningSide = (typeof TURNING_SIDES)[number];
 
 /**
  * Coriolis parameter f = 2 Ω sin(latitude). Positive in the northern hemisphere, negative in

@@ -197,15 +197,7 @@ export function plumeOffshoreExtent(plume: FieldPlume, along: number): number {
  */
 export function fieldAt(plume: FieldPlume, params: ExposureParameters, along: number, offshore: number): FieldValue {
   requireNonNegative('offshore', offshore, 'm');
-  const phi0 = coastFraction(plume, params, along);
-  const extent = plumeOffshoreExtent(plume, along);
-  const ratio = extent > 0 ? offshore / extent : 1;
-  const phi = ratio < 1 ? phi0 * (1 - ratio * ratio) : 0;
-  return {
-    freshwaterFraction: phi,
-    salinity: (1 - phi) * params.seaSalinity + phi * params.riverSalinity,
-    indicator: phi * params.riverIndicator * Math.exp(-params.decayRate * travelTime(plume, params, along)),
-  };
+  return valueAt(rowFactors(plume, params, along), params, offshore);
 }
 
 /** A threshold for {@link offshoreDistanceWhere}: exactly one of the three forms. */
@@ -316,11 +308,12 @@ export function sampleField(plume: FieldPlume, params: ExposureParameters, optio
   const salinity: number[][] = [];
   const indicator: number[][] = [];
   for (const si of along) {
+    const row = rowFactors(plume, params, si);
     const rowPhi: number[] = [];
     const rowS: number[] = [];
     const rowC: number[] = [];
     for (const xj of across) {
-      const value = fieldAt(plume, params, si, xj);
+      const value = valueAt(row, params, xj);
       rowPhi.push(value.freshwaterFraction);
       rowS.push(value.salinity);
       rowC.push(value.indicator);
@@ -363,6 +356,34 @@ export function bandProfile(
 ): BandPoint[] {
   const along = grid('alongSteps', alongSteps, alongExtent ?? defaultAlongExtent(plume, params));
   return along.map((si) => ({ s: si, offshore: offshoreDistanceWhere(plume, params, si, threshold) }));
+}
+
+/** @private Quantities that depend on s only: φ_coast(s), X(s) and the surviving indicator fraction. */
+interface RowFactors {
+  readonly coast: number;
+  readonly extent: number;
+  readonly survival: number;
+}
+
+/** @private Computes the s-only factors once per alongshore position. */
+function rowFactors(plume: FieldPlume, params: ExposureParameters, along: number): RowFactors {
+  const coast = coastFraction(plume, params, along);
+  return {
+    coast,
+    extent: plumeOffshoreExtent(plume, along),
+    survival: Math.exp(-params.decayRate * travelTime(plume, params, along)),
+  };
+}
+
+/** @private φ, S and C at offshore distance x from the row factors. */
+function valueAt(row: RowFactors, params: ExposureParameters, offshore: number): FieldValue {
+  const ratio = row.extent > 0 ? offshore / row.extent : 1;
+  const phi = ratio < 1 ? row.coast * (1 - ratio * ratio) : 0;
+  return {
+    freshwaterFraction: phi,
+    salinity: (1 - phi) * params.seaSalinity + phi * params.riverSalinity,
+    indicator: phi * params.riverIndicator * row.survival,
+  };
 }
 
 /** @private φ_coast(s) = φ0 exp(−s/L), 0 beyond the reach. */

@@ -7,16 +7,11 @@
 import { EQUATORIAL_CUTOFF_DEGREES } from './constants';
 import { requireInRange, requirePositive } from './check-argument';
 
-/** Regime of a river plume. */
-export type PlumeRegime = 'surface-advected' | 'intermediate' | 'bottom-advected' | 'equatorial-jet';
-
 /** The regimes in a fixed order (for schemas and tables). */
-export const PLUME_REGIMES: readonly PlumeRegime[] = [
-  'surface-advected',
-  'intermediate',
-  'bottom-advected',
-  'equatorial-jet',
-];
+export const PLUME_REGIMES = ['surface-advected', 'intermediate', 'bottom-advected', 'equatorial-jet'] as const;
+
+/** Regime of a river plume. */
+export type PlumeRegime = (typeof PLUME_REGIMES)[number];
 
 /** Inputs of {@link classifyPlumeRegime}. */
 export interface RegimeInput {

@@ -72,3 +72,18 @@ export function strictObjectError(what: string) {
         : `${what} must be a JSON object`,
   };
 }
+
+/**
+ * Makes a field optional while keeping its description (a plain `.optional()` wrapper
+ * would not carry the description of the inner schema).
+ *
+ * @param schema - a described field schema
+ * @returns the optional schema with the same description
+ * @example
+ * optionalField(numberField('pressureDbar', 'dbar', 'Sea pressure', { min: 0, max: 11000 }));
+ * Source: (c) common practice.
+ */
+export function optionalField<T extends z.ZodType>(schema: T) {
+  const wrapped = schema.optional();
+  return schema.description === undefined ? wrapped : wrapped.describe(schema.description);
+}

@@ -5,7 +5,9 @@
  */
 
 import { z } from 'zod';
-import { numberField, strictObjectError } from './physical-fields';
+import { TURNING_SIDES } from '../physics/coriolis';
+import { PLUME_REGIMES } from '../physics/plume-regime';
+import { numberField, optionalField, strictObjectError } from './physical-fields';
 import { latitudeField, salinityField, temperatureField } from './water';
 
 const WATER_FIELDS = ['riverSalinity', 'riverTemperature', 'seaSalinity', 'seaTemperature'] as const;
@@ -18,35 +20,39 @@ export const PlumeRequestSchema = z
     {
       latitude: latitudeField(),
       discharge: numberField('discharge', 'm³/s', 'River discharge', { min: 0, exclusiveMin: true }),
-      riverSalinity: salinityField('riverSalinity').optional(),
-      riverTemperature: temperatureField('riverTemperature').optional(),
-      seaSalinity: salinityField('seaSalinity').optional(),
-      seaTemperature: temperatureField('seaTemperature').optional(),
+      riverSalinity: optionalField(salinityField('riverSalinity')),
+      riverTemperature: optionalField(temperatureField('riverTemperature')),
+      seaSalinity: optionalField(salinityField('seaSalinity')),
+      seaTemperature: optionalField(temperatureField('seaTemperature')),
       mouthWidth: numberField('mouthWidth', 'm', 'Width of the river mouth', { min: 0, exclusiveMin: true }),
       mouthDepth: numberField('mouthDepth', 'm', 'Depth of the river mouth (inflow depth)', {
         min: 0,
         exclusiveMin: true,
       }),
-      shelfSlope: numberField('shelfSlope', '', 'Bottom slope off the mouth, depth change per distance', {
-        min: 0,
-        max: 0.5,
-      }).optional(),
-      alongshoreShare: numberField(
-        'alongshoreShare',
-        '',
-        'Share of the discharge carried on into the coastal current (default 0.6)',
-        { min: 0.3, max: 1 },
-      ).optional(),
-      floodDurationHours: numberField('floodDurationHours', 'h', 'Flood duration, for the reach along the coast', {
-        min: 0,
-        exclusiveMin: true,
-      }).optional(),
-      reducedGravity: numberField(
-        'reducedGravity',
-        'm/s²',
-        'Reduced gravity g′, given instead of the four water properties',
-        { min: 0, exclusiveMin: true },
-      ).optional(),
+      shelfSlope: optionalField(
+        numberField('shelfSlope', '', 'Bottom slope off the mouth, depth change per distance (0 = unknown)', {
+          min: 0,
+          max: 0.5,
+        }),
+      ),
+      alongshoreShare: optionalField(
+        numberField('alongshoreShare', '', 'Share of the discharge carried on into the coastal current (default 0.6)', {
+          min: 0.3,
+          max: 1,
+        }),
+      ),
+      floodDurationHours: optionalField(
+        numberField('floodDurationHours', 'h', 'Flood duration, for the reach along the coast', {
+          min: 0,
+          exclusiveMin: true,
+        }),
+      ),
+      reducedGravity: optionalField(
+        numberField('reducedGravity', 'm/s²', 'Reduced gravity g′, given instead of the four water properties', {
+          min: 0,
+          exclusiveMin: true,
+        }),
+      ),
     },
     strictObjectError('plume request'),
   )
@@ -77,12 +83,12 @@ export type PlumeRequest = z.infer<typeof PlumeRequestSchema>;
 
 /** Regimes reported by the plume calculator. */
 export const PlumeRegimeSchema = z
-  .enum(['surface-advected', 'intermediate', 'bottom-advected', 'equatorial-jet'])
+  .enum(PLUME_REGIMES)
   .describe('Plume regime after Yankovsky & Chapman (1997), or the equatorial fallback');
 
 /** Side of the outflow (looking seaward) to which the plume turns. */
 export const TurningSideSchema = z
-  .enum(['right', 'left', 'none'])
+  .enum(TURNING_SIDES)
   .describe('Side of the outflow, looking seaward, to which the plume turns');
 
 /** Response of the plume calculator. These names must exist; extra fields are allowed. */

@@ -5,7 +5,7 @@
  */
 
 import { z } from 'zod';
-import { numberField, strictObjectError } from './physical-fields';
+import { numberField, optionalField, strictObjectError } from './physical-fields';
 
 /** Practical salinity field, 0…42 (EOS-80 range, science.md §2.1). */
 export const salinityField = (name: string) =>
@@ -24,11 +24,10 @@ export const WaterRequestSchema = z.strictObject(
   {
     salinity: salinityField('salinity'),
     temperature: temperatureField('temperature'),
-    pressureDbar: numberField('pressureDbar', 'dbar', 'Sea pressure (0 at the surface)', {
-      min: 0,
-      max: 11000,
-    }).optional(),
-    latitude: latitudeField().optional(),
+    pressureDbar: optionalField(
+      numberField('pressureDbar', 'dbar', 'Sea pressure (0 at the surface)', { min: 0, max: 11000 }),
+    ),
+    latitude: optionalField(latitudeField()),
   },
   strictObjectError('water request'),
 );

@@ -21,11 +21,11 @@ describe('reducedGravity', () => {
   });
 
   it.each([
-    { args: [-1] as const, message: /densityDifference must be a finite number of at least 0/ },
-    { args: [1, 0] as const, message: /referenceDensity must be a finite number greater than 0/ },
-    { args: [1, 1025, -9.81] as const, message: /gravity must be a finite number greater than 0/ },
-  ])('rejects $args', ({ args, message }) => {
-    expect(() => reducedGravity(...(args as [number, number?, number?]))).toThrow(message);
+    { call: () => reducedGravity(-1), message: /densityDifference must be a finite number of at least 0/ },
+    { call: () => reducedGravity(1, 0), message: /referenceDensity must be a finite number greater than 0/ },
+    { call: () => reducedGravity(1, 1025, -9.81), message: /gravity must be a finite number greater than 0/ },
+  ])('rejects: $message', ({ call, message }) => {
+    expect(call).toThrow(message);
   });
 });
 
