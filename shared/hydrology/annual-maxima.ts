@@ -115,16 +115,31 @@ export function annualMaxima(readings: readonly FlowReading[], options: AnnualMa
   if (!Number.isInteger(minDays) || minDays < 1 || minDays > 366) {
     throw new RangeError(`minDaysForComplete must be a whole number of days from 1 to 366 (got ${String(minDays)})`);
   }
-  const years = new Map<number, { best: FlowReading; days: Set<string> }>();
+  // Count distinct dates per water year; a date-ordered record (the parser's output) needs no set.
+  let ordered = true;
+  for (let i = 1; i < readings.length && ordered; i++) ordered = readings[i].date >= readings[i - 1].date;
+  const years = new Map<number, { best: FlowReading; days: number; lastDate: string; seen: Set<string> | null }>();
+  let lastDate = '';
+  let lastYear = 0;
   for (const r of readings) {
     const d = r.date;
-    const wy = waterYearFromParts(Number(d.slice(0, 4)), Number(d.slice(5, 7)), Number(d.slice(8, 10)), start);
+    const wy = d === lastDate ? lastYear : waterYearFromParts(Number(d.slice(0, 4)), Number(d.slice(5, 7)), Number(d.slice(8, 10)), start);
+    lastDate = d;
+    lastYear = wy;
     const entry = years.get(wy);
     if (!entry) {
-      years.set(wy, { best: r, days: new Set([r.date]) });
+      years.set(wy, { best: r, days: 1, lastDate: d, seen: ordered ? null : new Set([d]) });
       continue;
     }
-    entry.days.add(r.date);
+    if (entry.seen) {
+      if (!entry.seen.has(d)) {
+        entry.seen.add(d);
+        entry.days++;
+      }
+    } else if (d !== entry.lastDate) {
+      entry.days++;
+      entry.lastDate = d;
+    }
     if (r.discharge > entry.best.discharge || (r.discharge === entry.best.discharge && r.time < entry.best.time)) {
       entry.best = r;
     }
@@ -138,9 +153,9 @@ export function annualMaxima(readings: readonly FlowReading[], options: AnnualMa
         discharge: best.discharge,
         date: best.date,
         time: best.time,
-        daysOfData: days.size,
+        daysOfData: days,
         daysInYear,
-        complete: days.size >= minDays,
+        complete: days >= minDays,
       };
     });
 }

@@ -29,11 +29,7 @@ export type QuantileMethod = 'hazen' | 'type7';
  * The American Statistician 50(4), 361–365, types 5 (Hazen) and 7; the choice is (c) common
  * practice.
  */
-export function empiricalQuantile(
-  sortedAscending: readonly number[],
-  p: number,
-  method: QuantileMethod = 'hazen',
-): number {
+export function empiricalQuantile(sortedAscending: readonly number[], p: number, method: QuantileMethod = 'hazen'): number {
   const n = sortedAscending.length;
   if (n === 0) throw new RangeError('sortedAscending must hold at least one value (got an empty array)');
   if (typeof p !== 'number' || !(p >= 0 && p <= 1)) {

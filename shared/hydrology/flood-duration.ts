@@ -104,11 +104,7 @@ export function floodEvents(readings: readonly FlowReading[], threshold: number)
     }
     const first = i;
     let peak = first;
-    while (
-      i + 1 < readings.length &&
-      readings[i + 1].discharge > threshold &&
-      ms[i + 1] - ms[i] <= 1.5 * step
-    ) {
+    while (i + 1 < readings.length && readings[i + 1].discharge > threshold && ms[i + 1] - ms[i] <= 1.5 * step) {
       i++;
       if (readings[i].discharge > readings[peak].discharge) peak = i;
     }
@@ -142,10 +138,7 @@ export function floodEvents(readings: readonly FlowReading[], threshold: number)
  * Source: (c) common practice: the duration above half the peak is a usual width measure of a
  * flood hydrograph; the median over annual peaks is our choice.
  */
-export function typicalDurationForPeak(
-  readings: readonly FlowReading[],
-  options: TypicalDurationOptions = {},
-): TypicalPeakDuration {
+export function typicalDurationForPeak(readings: readonly FlowReading[], options: TypicalDurationOptions = {}): TypicalPeakDuration {
   const fraction = options.fraction ?? 0.5;
   if (typeof fraction !== 'number' || !(fraction > 0 && fraction < 1)) {
     throw new RangeError(`fraction must be between 0 and 1, both excluded (got ${String(fraction)})`);

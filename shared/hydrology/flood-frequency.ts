@@ -122,8 +122,9 @@ export interface FloodFrequencyResult {
  * record (< 10 peaks), low outliers (kept in the fits: no censoring is done), large skew
  * (|G| > 1), a very heavy GEV tail (k < −0.5), and peaks above a fit's 0.5 % AEP flood.
  *
- * Timing: with 100 peaks, the fit without bootstrap takes about 1 ms, and each 100 bootstrap
- * resamples add about 1–2 ms.
+ * Timing (measured on a busy 2-core machine): with 100 peaks the fit without bootstrap takes
+ * about 3 ms, most of it the Multiple Grubbs–Beck test; each 100 bootstrap resamples add
+ * 2–5 ms. Set bootstrapResamples to 0 for the fastest fit.
  *
  * @param input - see {@link FloodFrequencyInput}
  * @returns see {@link FloodFrequencyResult}; quantiles are in the units of the peaks
@@ -152,11 +153,15 @@ export function fitFloodFrequency(input: FloodFrequencyInput): FloodFrequencyRes
   }
   const aeps = input.aep ?? DEFAULT_AEPS;
   requireFiniteArray('aep', aeps, 1);
-  aeps.forEach((a, i) => requireOpenProbability(`aep[${i}]`, a));
+  aeps.forEach((a, i) => {
+    requireOpenProbability(`aep[${i}]`, a);
+  });
   if (input.regionalSkew !== undefined) requireBetween('regionalSkew', input.regionalSkew, -3, 3);
   const years = input.waterYears;
   if (years !== undefined && (!Array.isArray(years) || years.length !== peaks.length)) {
-    throw new RangeError(`waterYears must have one year per peak (${peaks.length}; got ${Array.isArray(years) ? years.length : typeof years})`);
+    throw new RangeError(
+      `waterYears must have one year per peak (${peaks.length}; got ${Array.isArray(years) ? years.length : typeof years})`,
+    );
   }
   const confidence = requireOpenProbability('confidence', input.confidence ?? DEFAULT_CONFIDENCE);
   const seed = input.seed ?? 1;
@@ -171,8 +176,7 @@ export function fitFloodFrequency(input: FloodFrequencyInput): FloodFrequencyRes
   // Log-Pearson III, Bulletin 17B.
   const lp3Fit = fitLogPearson3(peaks, {
     regionalSkew: input.regionalSkew,
-    regionalSkewMse:
-      input.regionalSkew !== undefined ? (input.regionalSkewMse ?? BULLETIN_17B_MAP_SKEW_MSE) : input.regionalSkewMse,
+    regionalSkewMse: input.regionalSkew !== undefined ? (input.regionalSkewMse ?? BULLETIN_17B_MAP_SKEW_MSE) : input.regionalSkewMse,
     roundSkew: input.roundSkew ?? false,
   });
   const lp3Params = { mean: lp3Fit.mean, stdDev: lp3Fit.stdDev, skew: clampSkew(lp3Fit.skewUsed) };
@@ -192,7 +196,7 @@ export function fitFloodFrequency(input: FloodFrequencyInput): FloodFrequencyRes
   const withLimits = (discharges: number[], limits: { lower: number; upper: number }[] | null): FloodQuantile[] =>
     aeps.map((aep, j) => {
       const q: FloodQuantile = { aep, returnPeriod: 1 / aep, discharge: discharges[j] };
-      if (limits && limits[j]) {
+      if (limits?.[j]) {
         q.lower = limits[j].lower;
         q.upper = limits[j].upper;
       }
@@ -220,8 +224,7 @@ export function fitFloodFrequency(input: FloodFrequencyInput): FloodFrequencyRes
 
   // Warnings.
   const warnings: string[] = [];
-  const name = (index: number): string =>
-    years ? `${formatFlow(peaks[index])} (water year ${years[index]})` : formatFlow(peaks[index]);
+  const name = (index: number): string => (years ? `${formatFlow(peaks[index])} (water year ${years[index]})` : formatFlow(peaks[index]));
   if (n < SHORT_RECORD_YEARS) {
     warnings.push(
       `Short record: only ${n} annual peaks. With fewer than ${SHORT_RECORD_YEARS} years, estimates of rare floods ` +

@@ -80,7 +80,7 @@ export function gevTau3OfShape(k: number): number {
  * @throws RangeError if t3 is outside (−1, 1)
  * @example
  * gevShapeExact(0.4); // => −0.32944
- * gevShapeExact(0.5636); // => −0.5345 (Guadalupe 1935–2002)
+ * gevShapeExact(0.5636); // => −0.5349 (Guadalupe 1935–2002)
  * Source: (c) derived: numerical inversion of the exact relation of science.md §7.3.
  */
 export function gevShapeExact(t3: number): number {
@@ -100,11 +100,15 @@ export function gevShapeExact(t3: number): number {
   return 0.5 * (lo + hi);
 }
 
+/** How to find k from τ3: 'auto' (approximation inside −0.2…0.5, exact outside), or always one. */
+export type GevShapeMethod = 'auto' | 'approximation' | 'exact';
+
 /**
- * The GEV shape from τ3: Hosking's approximation for −0.2 ≤ τ3 ≤ 0.5, the exact relation
- * solved numerically outside that range.
+ * The GEV shape from τ3: by default Hosking's approximation for −0.2 ≤ τ3 ≤ 0.5 and the exact
+ * relation solved numerically outside that range.
  *
  * @param t3 - L-skewness τ3, −1 < τ3 < 1
+ * @param method - 'auto' (default), 'approximation' or 'exact'
  * @returns { shape: k, method }
  * @throws RangeError if t3 is outside (−1, 1)
  * @example
@@ -113,10 +117,16 @@ export function gevShapeExact(t3: number): number {
  * Source: (b) from memory: Hosking et al. (1985) inside the range; (c) exact solution outside
  * it (science.md §7.3).
  */
-export function gevShapeFromTau3(t3: number): { shape: number; method: 'approximation' | 'exact' } {
+export function gevShapeFromTau3(t3: number, method: GevShapeMethod = 'auto'): { shape: number; method: 'approximation' | 'exact' } {
   requireTau3(t3);
+  if (method !== 'auto' && method !== 'approximation' && method !== 'exact') {
+    throw new RangeError(`method must be 'auto', 'approximation' or 'exact' (got '${String(method)}')`);
+  }
   const [lo, hi] = GEV_APPROXIMATION_TAU3_RANGE;
-  if (t3 >= lo && t3 <= hi) return { shape: gevShapeApproximation(t3), method: 'approximation' };
+  const inside = t3 >= lo && t3 <= hi;
+  if (method === 'approximation' || (method === 'auto' && inside)) {
+    return { shape: gevShapeApproximation(t3), method: 'approximation' };
+  }
   return { shape: gevShapeExact(t3), method: 'exact' };
 }
 
@@ -126,22 +136,26 @@ export function gevShapeFromTau3(t3: number): { shape: number; method: 'approxim
  * α = λ2/ln 2 and ξ = λ1 − γ α as k → 0.
  *
  * @param lMoments - { l1, l2 (> 0), t3 (−1…1 exclusive) } in data units
+ * @param method - how to find k: 'auto' (default), 'approximation' or 'exact'
  * @returns { location ξ, scale α, shape k, shapeMethod }
  * @throws RangeError if λ2 ≤ 0 or τ3 is outside (−1, 1)
  * @example
  * gevFromLMoments({ l1: 34406.9, l2: 19757.9, t3: 0.5636 });
- * // => { location: 13509, scale: 12411, shape: −0.5334, shapeMethod: 'exact' } (Guadalupe, cfs)
+ * // => { location: 13505, scale: 12365, shape: −0.5349, shapeMethod: 'exact' } (Guadalupe, cfs)
+ * gevFromLMoments({ l1: 34406.9, l2: 19757.9, t3: 0.5636 }, 'approximation');
+ * // => { location: 13509.5, scale: 12411.2, shape: −0.5334, ... } (science.md §7.5)
  * Source: (b) from memory: Hosking (1990); Hosking & Wallis (1997) (science.md §7.3).
  */
-export function gevFromLMoments(lMoments: Pick<LMoments, 'l1' | 'l2' | 't3'>): GevParameters & {
-  shapeMethod: 'approximation' | 'exact';
-} {
+export function gevFromLMoments(
+  lMoments: Pick<LMoments, 'l1' | 'l2' | 't3'>,
+  method: GevShapeMethod = 'auto',
+): GevParameters & { shapeMethod: 'approximation' | 'exact' } {
   const { l1, l2, t3 } = lMoments;
   if (typeof l2 !== 'number' || !(l2 > 0) || !Number.isFinite(l2)) {
     throw new RangeError(`l2 (the L-scale) must be a finite number greater than 0 (got ${String(l2)})`);
   }
   if (typeof l1 !== 'number' || !Number.isFinite(l1)) throw new RangeError(`l1 must be a finite number (got ${String(l1)})`);
-  const { shape: k, method } = gevShapeFromTau3(t3);
+  const { shape: k, method: used } = gevShapeFromTau3(t3, method);
   let scale: number;
   let location: number;
   if (Math.abs(k) < 1e-9) {
@@ -152,23 +166,24 @@ export function gevFromLMoments(lMoments: Pick<LMoments, 'l1' | 'l2' | 't3'>): G
     scale = (l2 * k) / (-Math.expm1(-k * Math.LN2) * g);
     location = l1 - (scale * (1 - g)) / k;
   }
-  return { location, scale, shape: k, shapeMethod: method };
+  return { location, scale, shape: k, shapeMethod: used };
 }
 
 /**
  * Fits a GEV to a sample by L-moments.
  *
  * @param values - the sample, e.g. annual peaks (any units), at least 3 values, not all equal
+ * @param method - how to find k: 'auto' (default), 'approximation' or 'exact'
  * @returns { location, scale, shape, lMoments, shapeMethod }
  * @throws RangeError as {@link sampleLMoments}
  * @example
  * const fit = fitGevLMoments(guadalupePeaks); // cfs, 1935–2002
- * // => { shape: −0.5334, scale: 12411, location: 13510, ... }
+ * // => { shape: −0.5349, scale: 12365, location: 13505, shapeMethod: 'exact', ... }
  * Source: (b) from memory: Hosking (1990) (science.md §7.3).
  */
-export function fitGevLMoments(values: readonly number[]): GevFit {
+export function fitGevLMoments(values: readonly number[], method: GevShapeMethod = 'auto'): GevFit {
   const lMoments = sampleLMoments(values);
-  const p = gevFromLMoments(lMoments);
+  const p = gevFromLMoments(lMoments, method);
   return { location: p.location, scale: p.scale, shape: p.shape, shapeMethod: p.shapeMethod, lMoments };
 }
 
@@ -188,9 +203,11 @@ export function gevQuantile(params: GevParameters, nonExceedance: number): numbe
   requireOpenProbability('nonExceedance', nonExceedance);
   const { location, scale, shape } = params;
   if (!(scale > 0) || !Number.isFinite(scale)) throw new RangeError(`scale must be a finite number greater than 0 (got ${String(scale)})`);
-  if (!(shape > -1) || !Number.isFinite(shape)) throw new RangeError(`shape must be a finite number greater than −1 (got ${String(shape)})`);
+  if (!(shape > -1) || !Number.isFinite(shape))
+    throw new RangeError(`shape must be a finite number greater than −1 (got ${String(shape)})`);
   const y = Math.log(-Math.log(nonExceedance));
-  if (shape === 0) return location - scale * y;
+  // Below |k| = 1e-12, k·y can underflow; use the series −y (1 + k y/2) of expm1(k y)/k.
+  if (Math.abs(shape) < 1e-12) return location - scale * y * (1 + (shape * y) / 2);
   return location - (scale * Math.expm1(shape * y)) / shape;
 }
 

@@ -126,12 +126,7 @@ export function stationSkewMse17B(stationSkew: number, n: number): number {
  * weightedSkew(0.73, 0.2775, 0.6, 0.302); // => 0.668 (Fishkill Creek)
  * Source: (b) from memory: Bulletin 17B, science.md §7.4.
  */
-export function weightedSkew(
-  stationSkew: number,
-  stationSkewMse: number,
-  regionalSkew: number,
-  regionalSkewMse: number,
-): number {
+export function weightedSkew(stationSkew: number, stationSkewMse: number, regionalSkew: number, regionalSkewMse: number): number {
   requireBetween('stationSkew', stationSkew, -9, 9);
   requireBetween('regionalSkew', regionalSkew, -3, 3);
   for (const [name, v] of [
@@ -259,7 +254,6 @@ function cornishFisher(g: number, p: number): number {
   const z4 = z2 * z2;
   const first = (g * (z2 - 1)) / 6;
   const second = (1.5 * g * g * (z3 - 3 * z)) / 24 - (g * g * (2 * z3 - 5 * z)) / 36;
-  const third =
-    g ** 3 * ((3 * (z4 - 6 * z2 + 3)) / 120 - (1.5 * (z4 - 5 * z2 + 2)) / 24 + (12 * z4 - 53 * z2 + 17) / 324);
+  const third = g ** 3 * ((3 * (z4 - 6 * z2 + 3)) / 120 - (1.5 * (z4 - 5 * z2 + 2)) / 24 + (12 * z4 - 53 * z2 + 17) / 324);
   return z + first + second + third;
 }

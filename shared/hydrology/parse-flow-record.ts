@@ -6,7 +6,7 @@
  * `problems`; the caller decides whether to go on.
  */
 
-import { dateOfDayNumber, dayNumber, splitDate, utcMs } from './calendar-days';
+import { dateOfDayNumber, daysFromCivil, daysInMonth, splitDate, utcMs } from './calendar-days';
 
 /** Units a gauge record can be declared in: cubic metres or cubic feet per second. */
 export type FlowUnits = 'm3s' | 'cfs';
@@ -74,11 +74,10 @@ export interface ParseFlowRecordOptions {
 
 const DATE_COLUMN_NAMES = ['datetime', 'timestamp', 'dateandtime', 'date', 'time'];
 const DISCHARGE_COLUMN_NAMES = ['discharge', 'flow', 'q', 'streamflow', 'flowrate'];
+const DATE_ONLY_PATTERN = /^\d{4}-\d{2}-\d{2}$/;
 const NUMBER_PATTERN = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
-const DATE_TIME_PATTERN =
-  /^(\d{4})-(\d{2})-(\d{2})(?:[Tt ](\d{2}):(\d{2})(?::(\d{2})(?:[.,](\d+))?)?\s*(Z|z|[+-]\d{2}(?::?\d{2})?)?)?$/;
-const DATE_FORMAT_HINT =
-  'write dates as YYYY-MM-DD, or date-times as YYYY-MM-DDTHH:MM[:SS] with an optional zone (Z or ±HH:MM)';
+const DATE_TIME_PATTERN = /^(\d{4})-(\d{2})-(\d{2})(?:[Tt ](\d{2}):(\d{2})(?::(\d{2})(?:[.,](\d+))?)?\s*(Z|z|[+-]\d{2}(?::?\d{2})?)?)?$/;
+const DATE_FORMAT_HINT = 'write dates as YYYY-MM-DD, or date-times as YYYY-MM-DDTHH:MM[:SS] with an optional zone (Z or ±HH:MM)';
 
 /**
  * Parses a gauge record in CSV text.
@@ -130,8 +129,10 @@ export function parseFlowRecord(text: string, options: ParseFlowRecordOptions): 
   let layout: ColumnLayout = { count: 2, date: 0, time: -1, discharge: 1, names: ['date', 'discharge'] };
   let rows = 0;
   const readings: FlowReading[] = [];
+  const readingDays: number[] = [];
   const problems: FlowRecordProblem[] = [];
-  const seen = new Map<number, number>();
+  const acceptedMs: number[] = [];
+  const acceptedRows: number[] = [];
   let lastMs = Number.NEGATIVE_INFINITY;
   let lastRow = 0;
   let lastTime = '';
@@ -170,9 +171,7 @@ export function parseFlowRecord(text: string, options: ParseFlowRecordOptions): 
     const when = parseWhen(dateText);
     if (typeof when === 'string') {
       const looksLikeHeader = rows === 1 && header === null && /[a-z]{2}/i.test(dateText);
-      const hint = looksLikeHeader
-        ? "; if this line is a header, name its columns 'date' (or 'datetime') and 'discharge' (or 'flow')"
-        : '';
+      const hint = looksLikeHeader ? "; if this line is a header, name its columns 'date' (or 'datetime') and 'discharge' (or 'flow')" : '';
       problems.push({ row, value: dateText, reason: when + hint });
       continue;
     }
@@ -183,8 +182,7 @@ export function parseFlowRecord(text: string, options: ParseFlowRecordOptions): 
         row,
         value: raw,
         reason:
-          'the discharge is empty; fill it in, or delete the row if the gauge has no reading then ' +
-          '(missing days are reported as gaps)',
+          'the discharge is empty; fill it in, or delete the row if the gauge has no reading then ' + '(missing days are reported as gaps)',
       });
       continue;
     }
@@ -208,7 +206,7 @@ export function parseFlowRecord(text: string, options: ParseFlowRecordOptions): 
       continue;
     }
 
-    const earlier = seen.get(when.ms);
+    const earlier = when.ms <= lastMs ? findRow(acceptedMs, acceptedRows, when.ms) : undefined;
     if (earlier !== undefined) {
       problems.push({
         row,
@@ -228,15 +226,30 @@ export function parseFlowRecord(text: string, options: ParseFlowRecordOptions): 
       continue;
     }
 
-    seen.set(when.ms, row);
+    acceptedMs.push(when.ms);
+    acceptedRows.push(row);
     lastMs = when.ms;
     lastRow = row;
     lastTime = when.time;
     readings.push({ time: when.time, date: when.date, discharge: value === 0 ? 0 : value * factor });
+    readingDays.push(when.day);
   }
 
-  const { gaps, subDaily } = findGaps(readings);
+  const { gaps, subDaily } = findGaps(readingDays);
   return { rows, readings, problems, gaps, interval: subDaily ? 'sub-daily' : 'daily', header };
+}
+
+/** @private Row of the accepted reading at `ms` (binary search; accepted times increase), or undefined. */
+function findRow(times: number[], rows: number[], ms: number): number | undefined {
+  let lo = 0;
+  let hi = times.length - 1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (times[mid] === ms) return rows[mid];
+    if (times[mid] < ms) lo = mid + 1;
+    else hi = mid - 1;
+  }
+  return undefined;
 }
 
 /** @private Where the date, time and discharge columns are. */
@@ -277,6 +290,7 @@ function pickDelimiter(line: string): string {
 
 /** @private Splits a CSV line, honouring double quotes ("" inside quotes is a quote); fields trimmed. */
 function splitFields(line: string, delimiter: string): string[] {
+  if (!line.includes('"')) return line.split(delimiter).map((f) => f.trim());
   const fields: string[] = [];
   let current = '';
   let quoted = false;
@@ -308,7 +322,18 @@ function splitFields(line: string, delimiter: string): string[] {
 }
 
 /** @private A parsed instant, or the reason it could not be parsed. */
-function parseWhen(text: string): { ms: number; time: string; date: string } | string {
+function parseWhen(text: string): { ms: number; time: string; date: string; day: number } | string {
+  if (text.length === 10 && DATE_ONLY_PATTERN.test(text)) {
+    // Fast path for daily records: 'YYYY-MM-DD' at 00:00 UTC.
+    const year = Number(text.slice(0, 4));
+    const month = Number(text.slice(5, 7));
+    const dayOfMonth = Number(text.slice(8, 10));
+    if (year < 1 || month < 1 || month > 12 || dayOfMonth < 1 || dayOfMonth > daysInMonth(year, month)) {
+      return `'${text}' is not a real calendar date (check the month and day); ${DATE_FORMAT_HINT}`;
+    }
+    const day = daysFromCivil(year, month, dayOfMonth);
+    return { ms: day * 86_400_000, time: `${text}T00:00:00.000Z`, date: text, day };
+  }
   const m = DATE_TIME_PATTERN.exec(text);
   if (!m) {
     return text === '' ? `the date is empty; ${DATE_FORMAT_HINT}` : `'${text}' is not a date; ${DATE_FORMAT_HINT}`;
@@ -333,19 +358,16 @@ function parseWhen(text: string): { ms: number; time: string; date: string } | s
     offsetMinutes = (zone[0] === '-' ? -1 : 1) * (oh * 60 + om);
   }
   const ms =
-    utcMs(parts.year, parts.month, parts.day, hour, minute, 0) +
-    Math.floor((second + fraction) * 1000 + 1e-6) -
-    offsetMinutes * 60_000;
+    utcMs(parts.year, parts.month, parts.day, hour, minute, 0) + Math.floor((second + fraction) * 1000 + 1e-6) - offsetMinutes * 60_000;
   if (!Number.isFinite(ms)) return `'${text}' is outside the supported years 0001–9999; ${DATE_FORMAT_HINT}`;
   const iso = new Date(ms).toISOString();
-  return { ms, time: iso, date };
+  return { ms, time: iso, date, day: daysFromCivil(parts.year, parts.month, parts.day) };
 }
 
-/** @private Missing whole days between readings, and whether any date has several readings. */
-function findGaps(readings: FlowReading[]): { gaps: FlowRecordGap[]; subDaily: boolean } {
+/** @private Missing whole days between readings (given as day numbers), and whether any date has several readings. */
+function findGaps(days: number[]): { gaps: FlowRecordGap[]; subDaily: boolean } {
   const gaps: FlowRecordGap[] = [];
   let subDaily = false;
-  const days = readings.map((r) => dayNumber(r.date));
   const seenDays = new Set<number>();
   for (const d of days) {
     if (seenDays.has(d)) subDaily = true;

@@ -49,10 +49,7 @@ export interface PlottingPosition {
  * Source: (b) from memory: the four formulas as listed in science.md §7.1 (Weibull 1939,
  * Gringorten 1963, Cunnane 1978, Hazen 1914); T = 1/(1 − p), science.md §7.1.
  */
-export function plottingPositions(
-  values: readonly number[],
-  formula: PlottingPositionFormula = 'weibull',
-): PlottingPosition[] {
+export function plottingPositions(values: readonly number[], formula: PlottingPositionFormula = 'weibull'): PlottingPosition[] {
   requireFiniteArray('values', values, 1);
   const a = PLOTTING_POSITION_CONSTANTS[formula];
   if (a === undefined) {
