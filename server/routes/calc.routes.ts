@@ -9,6 +9,7 @@ import { PlumeRequestSchema, PlumeResponseSchema } from '#shared/schemas/plume';
 import { WaterRequestSchema, WaterResponseSchema } from '#shared/schemas/water';
 import { defineRoute, type RouteContext } from '../http/route';
 import { registerHydrologyCalcRoutes } from './calc-hydrology.routes';
+import { engineCall } from './engine-call';
 
 export function registerCalcRoutes(ctx: RouteContext): void {
   defineRoute(ctx, {
@@ -35,7 +36,7 @@ export function registerCalcRoutes(ctx: RouteContext): void {
     body: PlumeRequestSchema,
     response: PlumeResponseSchema,
     errors: [429],
-    handler: ({ body }) => computePlume(body),
+    handler: ({ body }) => engineCall(() => computePlume(body)),
   });
 
   registerHydrologyCalcRoutes(ctx);

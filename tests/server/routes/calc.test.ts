@@ -86,3 +86,61 @@ describe('POST /api/v1/calc/plume', () => {
     }
   });
 });
+
+describe('POST /api/v1/calc/flood-frequency', () => {
+  // Fishkill Creek at Beacon, NY, 1945–1968 (Bulletin 17B Appendix 12 example, as quoted in
+  // science.md §7.5 A, a). Station statistics of the log10 peaks: science.md §8 #38 (c, computed).
+  const fishkill = [2290, 1470, 2220, 2970, 3020, 1210, 2490, 3170, 3220, 1760, 8800, 8280, 1310, 2500, 1960, 2140, 4340, 3060, 1780, 1380, 980, 1040, 1580, 3630];
+  it('fits the Fishkill Creek record', async () => {
+    const res = await request(t.app).post('/api/v1/calc/flood-frequency').send({ annualPeaks: fishkill }).expect(200);
+    expect(res.body.n).toBe(24);
+    expect(res.body.lp3.mean).toBeCloseTo(3.3684, 4);
+    expect(res.body.lp3.stdDev).toBeCloseTo(0.2456, 4);
+    expect(res.body.lp3.skew).toBeCloseTo(0.73, 3);
+    const aeps = res.body.gev.quantiles.map((q: { aep: number }) => q.aep);
+    expect(aeps).toEqual([0.5, 0.2, 0.1, 0.04, 0.02, 0.01, 0.005]);
+    // Quantiles rise as the probability falls (a property of every fit).
+    const lp3 = res.body.lp3.quantiles.map((q: { discharge: number }) => q.discharge);
+    expect([...lp3].sort((a, b) => a - b)).toEqual(lp3);
+    expect(res.body.warnings).toBeInstanceOf(Array);
+  });
+  it('with the regional skew of Bulletin 17B Appendix 12 gives the published 1% flood (science.md §8 #38: 11 531 cfs at G=0.7, c)', async () => {
+    const res = await request(t.app)
+      .post('/api/v1/calc/flood-frequency')
+      .send({ annualPeaks: fishkill, aep: [0.01], regionalSkew: 0.6, regionalSkewMse: 0.302 })
+      .expect(200);
+    expect(res.body.lp3.weightedSkew).toBeCloseTo(0.668, 3);
+  });
+  it('refuses a zero peak, naming the field', async () => {
+    const res = await request(t.app).post('/api/v1/calc/flood-frequency').send({ annualPeaks: [10, 0, 30] });
+    expect([400, 422]).toContain(res.status);
+    expect(res.body.error.message).toMatch(/annualPeaks/);
+  });
+});
+
+describe('POST /api/v1/calc/flow-record', () => {
+  it('reports row problems with row numbers and returns annual peaks by water year', async () => {
+    const csv = ['date,discharge', '2020-09-30,5', '2020-10-01,7', 'bad-date,3', '2020-10-02,-1', '2021-03-01,40', '2021-10-05,12'].join('\n');
+    const res = await request(t.app).post('/api/v1/calc/flow-record?units=m3s&waterYearStart=10-01').set('Content-Type', 'text/csv').send(csv).expect(200);
+    expect(res.body.rows).toBe(6);
+    expect(res.body.problems.map((p: { row: number }) => p.row)).toEqual([4, 5]);
+    const byYear = Object.fromEntries(res.body.annualPeaks.map((p: { waterYear: number; discharge: number }) => [p.waterYear, p.discharge]));
+    // Water year named for the year it ends in: 2020-10-01 … 2021-09-30 is water year 2021.
+    expect(byYear[2020]).toBe(5);
+    expect(byYear[2021]).toBe(40);
+    expect(byYear[2022]).toBe(12);
+  });
+  it('converts cubic feet per second (1 ft³ = 0.028316846592 m³ exactly, international foot, a)', async () => {
+    const res = await request(t.app).post('/api/v1/calc/flow-record?units=cfs').set('Content-Type', 'text/csv').send('2021-01-01,1000\n').expect(200);
+    expect(res.body.annualPeaks[0].discharge).toBeCloseTo(28.316846592, 9);
+  });
+  it('asks for CSV when the body is JSON', async () => {
+    const res = await request(t.app).post('/api/v1/calc/flow-record?units=m3s').send({ csv: 'x' });
+    expect([400, 415]).toContain(res.status);
+    expect(res.body.error.message).toMatch(/text\/csv/);
+  });
+  it('names the units parameter when it is missing', async () => {
+    const res = await request(t.app).post('/api/v1/calc/flow-record').set('Content-Type', 'text/csv').send('2021-01-01,1\n').expect(400);
+    expect(res.body.error.message).toMatch(/units/);
+  });
+});

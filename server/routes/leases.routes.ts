@@ -1,0 +1,93 @@
+import { z } from 'zod';
+import { leaseExportQuerySchema, leaseListQuerySchema, leaseListSchema, leaseSchema, leaseUpdateSchema } from '#shared/schemas/lease';
+import { defineRoute, type RouteContext } from '../http/route';
+import { type LeasesService, toCsv } from '../services/leases.service';
+
+const LEASE_READERS = ['grower', 'adviser', 'regulator'] as const;
+const idParams = z.object({ id: z.uuid({ error: 'id must be a lease id (UUID)' }) });
+
+export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): void {
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/leases',
+    summary: 'Leases you may see: your own, those shared with you, and for a regulator the held leases of the jurisdiction',
+    tags: ['leases'],
+    access: { roles: LEASE_READERS },
+    query: leaseListQuerySchema,
+    response: leaseListSchema,
+    handler: ({ user, query }) => leases.list(user!, query),
+  });
+
+  // Declared before /leases/:id so "export" is not taken for an id.
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/leases/export',
+    summary: 'Export the leases you may see as CSV (attributes and areas) or GeoJSON',
+    tags: ['leases'],
+    access: { roles: LEASE_READERS },
+    query: leaseExportQuerySchema,
+    handler: async ({ user, query, res }) => {
+      const rows = await leases.exportRows(user!, query.status);
+      const stamp = new Date().toISOString().slice(0, 10);
+      if (query.format === 'geojson') {
+        res.setHeader('Content-Type', 'application/geo+json');
+        res.setHeader('Content-Disposition', `attachment; filename="brackline-leases-${stamp}.geojson"`);
+        res.send(
+          JSON.stringify({
+            type: 'FeatureCollection',
+            features: rows.map(({ geometry, ...props }) => ({ type: 'Feature', id: props.id, properties: props, geometry })),
+          }),
+        );
+        return undefined;
+      }
+      res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+      res.setHeader('Content-Disposition', `attachment; filename="brackline-leases-${stamp}.csv"`);
+      res.send(
+        toCsv(
+          ['id', 'lease_id', 'holder', 'species', 'status', 'area_m2', 'area_ha', 'on_land', 'owner', 'created_at'],
+          rows.map((l) => [l.id, l.leaseId, l.holder, l.species, l.status, Math.round(l.areaM2 * 100) / 100, Math.round(l.areaM2 / 100) / 100, l.onLand, l.ownerName, l.createdAt]),
+        ),
+      );
+      return undefined;
+    },
+  });
+
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/leases/:id',
+    summary: 'One lease with its geometry',
+    tags: ['leases'],
+    access: { roles: LEASE_READERS },
+    params: idParams,
+    response: leaseSchema,
+    errors: [404],
+    handler: ({ user, params }) => leases.get(user!, params.id),
+  });
+
+  defineRoute(ctx, {
+    method: 'patch',
+    path: '/leases/:id',
+    summary: "Change a lease's attributes (its holder's account only)",
+    tags: ['leases'],
+    access: { roles: ['grower', 'adviser', 'regulator'] },
+    params: idParams,
+    body: leaseUpdateSchema,
+    response: leaseSchema,
+    errors: [404],
+    handler: ({ user, params, body }) => leases.update(user!, params.id, body),
+  });
+
+  defineRoute(ctx, {
+    method: 'delete',
+    path: '/leases/:id',
+    summary: "Delete a lease (its holder's account only)",
+    tags: ['leases'],
+    access: { roles: ['grower', 'adviser', 'regulator'] },
+    params: idParams,
+    errors: [404],
+    handler: async ({ user, params }) => {
+      await leases.remove(user!, params.id);
+      return undefined;
+    },
+  });
+}
