@@ -1,0 +1,19 @@
+/**
+ * `npm run bench`: every benchmark of the project, reported as medians and ratios to a baseline
+ * workload timed in this same process. Sections needing the database run when DATABASE_URL is set
+ * (npm run bench starts the local cluster through scripts/bench.sh).
+ */
+import { baseline, type BenchResult, report } from './harness';
+import { scienceBenchmarks } from './science-bench';
+
+async function main() {
+  await baseline();
+  const results: BenchResult[] = [];
+  const only = process.argv[2];
+  if (!only || only === 'science') results.push(...(await scienceBenchmarks()));
+  report(results);
+  const mem = process.memoryUsage();
+  console.log(`peak-ish memory: rss ${(mem.rss / 1e6).toFixed(0)} MB, heap used ${(mem.heapUsed / 1e6).toFixed(0)} MB`);
+}
+
+void main();
