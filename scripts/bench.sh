@@ -1,0 +1,9 @@
+#!/usr/bin/env bash
+# npm run bench: the benchmarks, with the local cluster up for the database sections.
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
+ensure_node_modules
+bash scripts/pg.sh up brackline_bench
+export DATABASE_URL="$(db_url brackline_bench)"
+npx tsx server/db/migrate.ts
+npx tsx bench/run-bench.ts "$@"
