@@ -19,7 +19,12 @@ import { errorHandler } from './middleware/error-handler';
 import { registerAccountRoutes } from './routes/account.routes';
 import { registerAdminRoutes } from './routes/admin.routes';
 import { registerCalcRoutes } from './routes/calc.routes';
+import { registerImportRoutes } from './routes/imports.routes';
+import { registerLeaseRoutes } from './routes/leases.routes';
 import { createAccountsService } from './services/accounts.service';
+import { createImportsService } from './services/imports.service';
+import { createLeasesService } from './services/leases.service';
+import { DEFAULT_UPLOAD_LIMITS, type UploadLimits } from '#shared/geometry/upload-limits';
 
 export interface AppDeps {
   env: Env;
@@ -28,6 +33,7 @@ export interface AppDeps {
   /** Requests per window for sign-in, sign-up and reset, per client address. */
   authRateLimit?: { limit: number; windowMs: number };
   calcRateLimit?: { limit: number; windowMs: number };
+  uploadLimits?: Partial<UploadLimits>;
 }
 
 const API_BASE = '/api/v1';
@@ -102,6 +108,9 @@ export function createApp(deps: AppDeps): Express {
   registerAccountRoutes(ctx, accounts);
   registerAdminRoutes(ctx, db, accounts);
   registerCalcRoutes(ctx);
+  const uploadLimits = { ...DEFAULT_UPLOAD_LIMITS, ...Object.fromEntries(Object.entries(deps.uploadLimits ?? {}).filter(([, v]) => v !== undefined)) };
+  registerImportRoutes(ctx, db, createImportsService({ db, limits: uploadLimits }), uploadLimits.maxCompressedBytes);
+  registerLeaseRoutes(ctx, createLeasesService(db));
 
   const openApi = buildOpenApiDocument(registry);
   router.get('/openapi.json', (_req, res) => {

@@ -53,3 +53,20 @@ export function loadEnv(source: Record<string, string | undefined> = process.env
   }
   return parsed.data;
 }
+
+/** Upload limits from the environment (names match shared/geometry/upload-limits.ts). */
+export function uploadLimitsFromEnv(source: Record<string, string | undefined> = process.env) {
+  const read = (name: string) => {
+    const raw = source[name];
+    if (raw === undefined || raw === '') return undefined;
+    const n = Number(raw);
+    if (!Number.isFinite(n) || n <= 0) throw new Error(`Configuration is not valid:\n  ${name}: must be a positive number`);
+    return n;
+  };
+  return {
+    maxCompressedBytes: read('UPLOAD_MAX_BYTES'),
+    maxUncompressedBytes: read('UPLOAD_MAX_UNCOMPRESSED_BYTES'),
+    maxFeatures: read('UPLOAD_MAX_FEATURES'),
+    maxVertices: read('UPLOAD_MAX_VERTICES'),
+  };
+}

@@ -5,7 +5,7 @@
 import type { Server } from 'node:http';
 import { createApp } from './app';
 import { createDb } from './db/client';
-import { loadEnv } from './env';
+import { loadEnv, uploadLimitsFromEnv } from './env';
 import { startSmtpFake, type SmtpFake } from './fakes/smtp-fake';
 import { logger } from './lib/logger';
 import { createMailer } from './mail/mailer';
@@ -34,7 +34,7 @@ async function main() {
       process.exit(1);
     }
   }
-  const app = createApp({ env, db: dbHandle, mailer });
+  const app = createApp({ env, db: dbHandle, mailer, uploadLimits: uploadLimitsFromEnv() });
   const server: Server = app.listen(env.PORT, env.HOST);
   server.on('error', (err: NodeJS.ErrnoException) => {
     console.error(

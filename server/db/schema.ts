@@ -4,6 +4,8 @@
  */
 import {
   boolean,
+  customType,
+  doublePrecision,
   index,
   integer,
   jsonb,
@@ -12,9 +14,13 @@ import {
   primaryKey,
   text,
   timestamp,
+  uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core';
 import { ROLES } from '../../shared/schemas/roles';
+import { geometryColumn } from './geometry-column';
+
+const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
 
 export const roleEnum = pgEnum('role', ROLES);
 
@@ -160,4 +166,314 @@ export const auditEntries = pgTable(
     after: jsonb('after'),
   },
   (t) => [index('audit_subject_idx').on(t.subjectType, t.subjectId)],
+);
+
+// ---------------------------------------------------------------------------------------------
+// Uploads, leases, coasts and closure zones (issue "Lease and coast upload").
+
+export const uploadKindEnum = pgEnum('upload_kind', ['lease', 'coast', 'zone']);
+export const importStatusEnum = pgEnum('import_status', ['needs-crs', 'ready', 'confirmed']);
+export const leaseStatusEnum = pgEnum('lease_status', ['held', 'candidate']);
+
+/** One uploaded file, kept with its hash for provenance, staged until the user confirms it. */
+export const imports = pgTable(
+  'imports',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    kind: uploadKindEnum('kind').notNull(),
+    ownerId: text('owner_id')
+      .notNull()
+      .references(() => users.id),
+    jurisdictionId: uuid('jurisdiction_id').references(() => jurisdictions.id),
+    fileName: text('file_name').notNull(),
+    fileSha256: text('file_sha256').notNull(),
+    fileBytes: bytea('file_bytes').notNull(),
+    status: importStatusEnum('status').notNull(),
+    crs: jsonb('crs').$type<{ found: boolean; epsg?: number; wkt?: string; name?: string }>().notNull(),
+    /** The parsed layers in the source CRS, kept while the CRS is unknown. */
+    parsedSource: jsonb('parsed_source'),
+    summary: jsonb('summary')
+      .$type<{ featureCount: number; geometryTypes: string[]; fields: string[]; warnings: string[]; format: string }>()
+      .notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    confirmedAt: timestamp('confirmed_at', { withTimezone: true }),
+  },
+  (t) => [index('imports_owner_idx').on(t.ownerId)],
+);
+
+/** Features of an import after reprojection, checked and repaired by PostGIS. */
+export const importFeatures = pgTable(
+  'import_features',
+  {
+    importId: uuid('import_id')
+      .notNull()
+      .references(() => imports.id, { onDelete: 'cascade' }),
+    featureIndex: integer('feature_index').notNull(),
+    layer: text('layer').notNull(),
+    properties: jsonb('properties').$type<Record<string, unknown>>().notNull(),
+    geom: geometryColumn('geom', 'Geometry').notNull(),
+    repaired: boolean('repaired').notNull().default(false),
+    invalidReason: text('invalid_reason'),
+    areaM2: doublePrecision('area_m2'),
+    onLand: boolean('on_land').notNull().default(false),
+  },
+  (t) => [primaryKey({ columns: [t.importId, t.featureIndex] })],
+);
+
+export const leases = pgTable(
+  'leases',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    /** The grower's or authority's own lease identifier. */
+    leaseCode: text('lease_code').notNull(),
+    holder: text('holder'),
+    species: text('species'),
+    status: leaseStatusEnum('status').notNull().default('held'),
+    notes: text('notes'),
+    ownerId: text('owner_id')
+      .notNull()
+      .references(() => users.id),
+    organisationId: uuid('organisation_id').references(() => organisations.id),
+    jurisdictionId: uuid('jurisdiction_id').references(() => jurisdictions.id),
+    importId: uuid('import_id').references(() => imports.id),
+    sourceProperties: jsonb('source_properties').$type<Record<string, unknown>>(),
+    geom: geometryColumn('geom', 'MultiPolygon').notNull(),
+    areaM2: doublePrecision('area_m2').notNull(),
+    onLand: boolean('on_land').notNull().default(false),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('leases_geom_idx').using('gist', t.geom),
+    index('leases_owner_idx').on(t.ownerId),
+    index('leases_jurisdiction_status_idx').on(t.jurisdictionId, t.status),
+    index('leases_code_idx').on(t.ownerId, t.leaseCode),
+  ],
+);
+
+/** A lease shared by its holder with another user (an adviser or a regulator). */
+export const leaseShares = pgTable(
+  'lease_shares',
+  {
+    leaseId: uuid('lease_id')
+      .notNull()
+      .references(() => leases.id, { onDelete: 'cascade' }),
+    granteeId: text('grantee_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    grantedAt: timestamp('granted_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.leaseId, t.granteeId] }), index('lease_shares_grantee_idx').on(t.granteeId)],
+);
+
+export const coasts = pgTable(
+  'coasts',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    name: text('name').notNull(),
+    /** 'line': a shoreline; 'land': land polygons (the sea is outside them). */
+    form: text('form', { enum: ['line', 'land'] }).notNull(),
+    ownerId: text('owner_id').references(() => users.id),
+    jurisdictionId: uuid('jurisdiction_id').references(() => jurisdictions.id),
+    /** Regulators' coasts serve their whole jurisdiction; others' serve their owner. */
+    shared: boolean('shared').notNull().default(false),
+    importId: uuid('import_id').references(() => imports.id),
+    geom: geometryColumn('geom', 'Geometry').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('coasts_geom_idx').using('gist', t.geom)],
+);
+
+export const closureZones = pgTable(
+  'closure_zones',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    name: text('name').notNull(),
+    jurisdictionId: uuid('jurisdiction_id')
+      .notNull()
+      .references(() => jurisdictions.id),
+    importId: uuid('import_id').references(() => imports.id),
+    sourceProperties: jsonb('source_properties').$type<Record<string, unknown>>(),
+    geom: geometryColumn('geom', 'MultiPolygon').notNull(),
+    areaM2: doublePrecision('area_m2').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('closure_zones_geom_idx').using('gist', t.geom)],
+);
+
+// ---------------------------------------------------------------------------------------------
+// Rivers, flow records, scenarios, footprints and screenings (issue "Plume bands and screening").
+
+export const rivers = pgTable(
+  'rivers',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    name: text('name').notNull(),
+    jurisdictionId: uuid('jurisdiction_id').references(() => jurisdictions.id),
+    ownerId: text('owner_id').references(() => users.id),
+    /** Settings in the units of shared/schemas/river.ts (SI, T90 in hours). */
+    settings: jsonb('settings').$type<Record<string, unknown>>().notNull(),
+    /** Names of the settings still at their documented defaults. */
+    defaultsUsed: jsonb('defaults_used').$type<string[]>().notNull().default([]),
+    mouth: geometryColumn('mouth', 'Point').notNull(),
+    coastId: uuid('coast_id').references(() => coasts.id),
+    /** Bumped on every change of settings, record or coast: footprints of older versions are stale. */
+    version: integer('version').notNull().default(1),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('rivers_jurisdiction_idx').on(t.jurisdictionId)],
+);
+
+export const flowRecords = pgTable('flow_records', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  riverId: uuid('river_id')
+    .notNull()
+    .references(() => rivers.id, { onDelete: 'cascade' }),
+  fileName: text('file_name').notNull(),
+  units: text('units', { enum: ['m3s', 'cfs'] }).notNull(),
+  waterYearStart: text('water_year_start').notNull().default('10-01'),
+  uploadedBy: text('uploaded_by').references(() => users.id),
+  uploadedAt: timestamp('uploaded_at', { withTimezone: true }).notNull().defaultNow(),
+  readingCount: integer('reading_count').notNull(),
+  firstTime: timestamp('first_time', { withTimezone: true }),
+  lastTime: timestamp('last_time', { withTimezone: true }),
+  interval: text('interval').notNull(),
+  problems: jsonb('problems').notNull(),
+  gaps: jsonb('gaps').notNull(),
+  annualPeaks: jsonb('annual_peaks').notNull(),
+  fit: jsonb('fit'),
+  durations: jsonb('durations'),
+  percentiles: jsonb('percentiles'),
+  active: boolean('active').notNull().default(true),
+});
+
+export const flowReadings = pgTable(
+  'flow_readings',
+  {
+    recordId: uuid('record_id')
+      .notNull()
+      .references(() => flowRecords.id, { onDelete: 'cascade' }),
+    t: timestamp('t', { withTimezone: true }).notNull(),
+    discharge: doublePrecision('discharge').notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.recordId, t.t] })],
+);
+
+export const scenarios = pgTable(
+  'scenarios',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    riverId: uuid('river_id')
+      .notNull()
+      .references(() => rivers.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    kind: text('kind', { enum: ['aep', 'seasonal', 'manual'] }).notNull(),
+    /** Annual exceedance probability (0..1) for flood-frequency scenarios. */
+    aep: doublePrecision('aep'),
+    discharge: doublePrecision('discharge').notNull(),
+    durationHours: doublePrecision('duration_hours').notNull(),
+    source: jsonb('source').$type<Record<string, unknown>>(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('scenarios_river_idx').on(t.riverId)],
+);
+
+export const footprints = pgTable(
+  'footprints',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    riverId: uuid('river_id')
+      .notNull()
+      .references(() => rivers.id, { onDelete: 'cascade' }),
+    scenarioId: uuid('scenario_id').references(() => scenarios.id, { onDelete: 'cascade' }),
+    discharge: doublePrecision('discharge').notNull(),
+    durationHours: doublePrecision('duration_hours').notNull(),
+    modelVersion: text('model_version').notNull(),
+    /** Hash of every input (settings, flow, coast, model version): same hash, same footprint. */
+    inputHash: text('input_hash').notNull(),
+    plume: jsonb('plume').notNull(),
+    warnings: jsonb('warnings').$type<string[]>().notNull(),
+    path: geometryColumn('path', 'Geometry'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('footprints_river_hash_idx').on(t.riverId, t.inputHash), index('footprints_scenario_idx').on(t.scenarioId)],
+);
+
+export const footprintBands = pgTable(
+  'footprint_bands',
+  {
+    footprintId: uuid('footprint_id')
+      .notNull()
+      .references(() => footprints.id, { onDelete: 'cascade' }),
+    bandId: text('band_id').notNull(),
+    name: text('name').notNull(),
+    kind: text('kind').notNull(),
+    threshold: doublePrecision('threshold'),
+    sortOrder: integer('sort_order').notNull(),
+    geom: geometryColumn('geom', 'MultiPolygon').notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.footprintId, t.bandId] }), index('footprint_bands_geom_idx').using('gist', t.geom)],
+);
+
+/** Bands cut into small pieces (ST_Subdivide) so screening joins stay fast (stack.md §8). */
+export const footprintBandPieces = pgTable(
+  'footprint_band_pieces',
+  {
+    footprintId: uuid('footprint_id')
+      .notNull()
+      .references(() => footprints.id, { onDelete: 'cascade' }),
+    bandId: text('band_id').notNull(),
+    geom: geometryColumn('geom', 'Geometry').notNull(),
+  },
+  (t) => [index('footprint_band_pieces_geom_idx').using('gist', t.geom), index('footprint_band_pieces_fp_idx').on(t.footprintId)],
+);
+
+export const screenings = pgTable(
+  'screenings',
+  {
+    leaseId: uuid('lease_id')
+      .notNull()
+      .references(() => leases.id, { onDelete: 'cascade' }),
+    scenarioId: uuid('scenario_id')
+      .notNull()
+      .references(() => scenarios.id, { onDelete: 'cascade' }),
+    footprintId: uuid('footprint_id')
+      .notNull()
+      .references(() => footprints.id, { onDelete: 'cascade' }),
+    riverId: uuid('river_id')
+      .notNull()
+      .references(() => rivers.id, { onDelete: 'cascade' }),
+    bandFractions: jsonb('band_fractions').$type<Record<string, number>>().notNull(),
+    lowestSalinity: doublePrecision('lowest_salinity'),
+    highestIndicator: doublePrecision('highest_indicator'),
+    daysBelowTolerance: doublePrecision('days_below_tolerance').notNull(),
+    rating: text('rating', { enum: ['low', 'moderate', 'high', 'severe'] }).notNull(),
+    score: doublePrecision('score').notNull(),
+    reasons: jsonb('reasons').$type<string[]>().notNull(),
+    numbers: jsonb('numbers').notNull(),
+    modelVersion: text('model_version').notNull(),
+    inputHash: text('input_hash').notNull(),
+    computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.leaseId, t.scenarioId] }), index('screenings_river_idx').on(t.riverId), index('screenings_rating_idx').on(t.rating)],
+);
+
+/** Across a river's flood-frequency scenarios: expected exposure days per year for a lease. */
+export const leaseAnnualExposure = pgTable(
+  'lease_annual_exposure',
+  {
+    leaseId: uuid('lease_id')
+      .notNull()
+      .references(() => leases.id, { onDelete: 'cascade' }),
+    riverId: uuid('river_id')
+      .notNull()
+      .references(() => rivers.id, { onDelete: 'cascade' }),
+    expectedDaysPerYear: doublePrecision('expected_days_per_year').notNull(),
+    probabilityAnyExposure: doublePrecision('probability_any_exposure').notNull(),
+    worstRating: text('worst_rating').notNull(),
+    details: jsonb('details'),
+    computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.leaseId, t.riverId] })],
 );

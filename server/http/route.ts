@@ -4,7 +4,7 @@
  * Routes are therefore never missing from /api/v1/openapi.json, and never unguarded.
  */
 import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
-import type { NextFunction, Request, Response, Router } from 'express';
+import type { NextFunction, Request, RequestHandler, Response, Router } from 'express';
 import { z } from 'zod';
 import type { Role } from '#shared/schemas/roles';
 import { ForbiddenError, UnauthenticatedError, ValidationError } from '../lib/errors';
@@ -47,6 +47,8 @@ export interface RouteSpec<B extends z.ZodType, Q extends z.ZodType, P extends z
   successStatus?: number;
   /** Extra error statuses the route can return, for the document. */
   errors?: number[];
+  /** Runs after the access check and before validation (e.g. multipart parsing). */
+  middleware?: RequestHandler[];
   /** Returns the JSON body; return undefined after writing the response yourself. */
   handler: (ctx: HandlerContext<z.infer<B>, z.infer<Q>, z.infer<P>>) => Promise<unknown> | unknown;
 }
@@ -121,10 +123,20 @@ export function defineRoute<
     responses,
   });
 
-  ctx.router[spec.method](spec.path, async (req: Request, res: Response, next: NextFunction) => {
+  // The guard runs first, so nobody uploads or is validated before their role is checked.
+  const guard = async (req: Request, res: Response, next: NextFunction) => {
     try {
       const user = await ctx.resolveUser(req);
       checkAccess(spec.access, user);
+      res.locals.user = user;
+      next();
+    } catch (err) {
+      next(err);
+    }
+  };
+  ctx.router[spec.method](spec.path, guard, ...(spec.middleware ?? []), async (req: Request, res: Response, next: NextFunction) => {
+    try {
+      const user = res.locals.user as CurrentUser | null;
       const params = parseOrThrow(spec.params, req.params, 'path');
       const query = parseOrThrow(spec.query, req.query, 'query');
       const body = parseOrThrow(spec.body, req.body, 'body');

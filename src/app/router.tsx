@@ -11,6 +11,7 @@ import { SignInPage } from '../features/auth/components/sign-in-page';
 import { SignUpPage } from '../features/auth/components/sign-up-page';
 import { PlumeCalculatorPage } from '../features/calculator/components/plume-calculator-page';
 import { NotFoundPage } from './routes/not-found-page';
+import { LeasesRoute } from './routes/leases-route';
 import { OverviewPage } from './routes/overview-page';
 
 export function createRouter() {
@@ -31,6 +32,7 @@ export function createRouter() {
       errorElement: <RouteError />,
       children: [
         { path: '/', element: <OverviewPage />, errorElement: <RouteError /> },
+        { path: '/leases', element: <LeasesRoute />, errorElement: <RouteError /> },
         { path: '/plume-calculator', element: <PlumeCalculatorPage />, errorElement: <RouteError /> },
         { path: '/admin/people', element: <PeoplePage />, errorElement: <RouteError /> },
         { path: '/admin/outbox', element: <OutboxPage />, errorElement: <RouteError /> },

@@ -12,14 +12,17 @@ export interface NavItem {
 export const NAVIGATION: Record<Role, NavItem[]> = {
   grower: [
     { to: '/', label: 'Overview' },
+    { to: '/leases', label: 'Leases' },
     { to: '/plume-calculator', label: 'Plume calculator' },
   ],
   adviser: [
     { to: '/', label: 'Overview' },
+    { to: '/leases', label: 'Leases' },
     { to: '/plume-calculator', label: 'Plume calculator' },
   ],
   regulator: [
     { to: '/', label: 'Overview' },
+    { to: '/leases', label: 'Leases' },
     { to: '/plume-calculator', label: 'Plume calculator' },
   ],
   admin: [

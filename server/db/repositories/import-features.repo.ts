@@ -1,0 +1,129 @@
+/**
+ * PostGIS work for uploads: store reprojected features, check them with ST_IsValid, repair with
+ * ST_MakeValid (keeping only the geometry type the kind needs), measure areas on the ellipsoid.
+ */
+import { sql } from 'drizzle-orm';
+import type { Feature } from 'geojson';
+import type { Database } from '../client';
+
+type Tx = Parameters<Parameters<Database['transaction']>[0]>[0];
+
+export interface StagedFeature {
+  index: number;
+  layer: string;
+  feature: Feature;
+}
+
+/** 3 = polygons, 2 = lines: what ST_CollectionExtract keeps after a repair. */
+function extractDimension(kind: 'lease' | 'coast' | 'zone', geometryType: string): 2 | 3 {
+  if (kind !== 'coast') return 3;
+  return geometryType.includes('Line') ? 2 : 3;
+}
+
+export async function insertImportFeatures(tx: Tx, importId: string, kind: 'lease' | 'coast' | 'zone', features: StagedFeature[]): Promise<void> {
+  const CHUNK = 2_000;
+  for (let start = 0; start < features.length; start += CHUNK) {
+    const rows = features.slice(start, start + CHUNK).map((f) => ({
+      idx: f.index,
+      layer: f.layer,
+      props: f.feature.properties ?? {},
+      geom: f.feature.geometry,
+      dim: extractDimension(kind, f.feature.geometry?.type ?? 'Polygon'),
+    }));
+    await tx.execute(sql`
+      INSERT INTO import_features (import_id, feature_index, layer, properties, geom, repaired, invalid_reason, area_m2)
+      SELECT ${importId}::uuid, f.idx, f.layer, f.props,
+             CASE WHEN v.ok THEN v.g ELSE ST_CollectionExtract(ST_MakeValid(v.g), f.dim) END,
+             NOT v.ok,
+             CASE WHEN v.ok THEN NULL ELSE ST_IsValidReason(v.g) END,
+             NULL
+      FROM jsonb_to_recordset(${JSON.stringify(rows)}::jsonb) AS f(idx int, layer text, props jsonb, geom jsonb, dim int)
+      CROSS JOIN LATERAL (SELECT g, ST_IsValid(g) AS ok
+                          FROM (SELECT ST_SetSRID(ST_Force2D(ST_GeomFromGeoJSON(f.geom::text)), 4326) AS g) s) v
+    `);
+  }
+  // Polygons become MultiPolygons; areas on the WGS84 ellipsoid (geography).
+  await tx.execute(sql`
+    UPDATE import_features
+       SET geom = ST_Multi(geom),
+           area_m2 = CASE WHEN GeometryType(geom) IN ('POLYGON', 'MULTIPOLYGON') THEN ST_Area(geom::geography) END
+     WHERE import_id = ${importId}::uuid
+  `);
+}
+
+/** Features a repair left empty: they cannot be kept and the user must fix them at the source. */
+export async function findEmptyAfterRepair(tx: Tx, importId: string): Promise<{ index: number; reason: string | null }[]> {
+  const res = await tx.execute<{ index: number; reason: string | null }>(sql`
+    SELECT feature_index AS index, invalid_reason AS reason FROM import_features
+     WHERE import_id = ${importId}::uuid AND ST_IsEmpty(geom) ORDER BY feature_index`);
+  return res.rows;
+}
+
+/** Flags leases or zones that lie wholly on land, where the owner can see a land-polygon coast. */
+export async function flagOnLand(tx: Tx, importId: string, ownerId: string, jurisdictionId: string | null): Promise<number> {
+  const res = await tx.execute(sql`
+    WITH land AS (
+      SELECT ST_Union(geom) AS g FROM coasts
+       WHERE form = 'land' AND (owner_id = ${ownerId} OR (shared AND jurisdiction_id IS NOT DISTINCT FROM ${jurisdictionId}::uuid))
+    )
+    UPDATE import_features f SET on_land = true
+      FROM land
+     WHERE f.import_id = ${importId}::uuid AND land.g IS NOT NULL AND ST_CoveredBy(f.geom, land.g)`);
+  return res.rowCount ?? 0;
+}
+
+export interface ImportFeatureSummary {
+  index: number;
+  properties: Record<string, unknown>;
+  areaM2: number | null;
+  bbox: [number, number, number, number];
+  repaired: boolean;
+  invalidReason: string | null;
+  onLand: boolean;
+  geometryType: string;
+}
+
+export async function summariseImportFeatures(db: Database | Tx, importId: string): Promise<ImportFeatureSummary[]> {
+  const res = await db.execute<{
+    index: number;
+    properties: Record<string, unknown>;
+    area_m2: number | null;
+    xmin: number;
+    ymin: number;
+    xmax: number;
+    ymax: number;
+    repaired: boolean;
+    invalid_reason: string | null;
+    on_land: boolean;
+    gtype: string;
+  }>(sql`
+    SELECT feature_index AS index, properties, area_m2, ST_XMin(geom) AS xmin, ST_YMin(geom) AS ymin,
+           ST_XMax(geom) AS xmax, ST_YMax(geom) AS ymax, repaired, invalid_reason, on_land, GeometryType(geom) AS gtype
+      FROM import_features WHERE import_id = ${importId}::uuid ORDER BY feature_index`);
+  return res.rows.map((r) => ({
+    index: r.index,
+    properties: r.properties,
+    areaM2: r.area_m2,
+    bbox: [r.xmin, r.ymin, r.xmax, r.ymax],
+    repaired: r.repaired,
+    invalidReason: r.invalid_reason,
+    onLand: r.on_land,
+    geometryType: r.gtype,
+  }));
+}
+
+/** The staged features as GeoJSON for the preview map, simplified to about a metre. */
+export async function previewImportFeatures(db: Database, importId: string) {
+  const res = await db.execute<{ index: number; properties: Record<string, unknown>; geometry: string; repaired: boolean; on_land: boolean }>(sql`
+    SELECT feature_index AS index, properties, ST_AsGeoJSON(ST_SimplifyPreserveTopology(geom, 0.00001), 6) AS geometry, repaired, on_land
+      FROM import_features WHERE import_id = ${importId}::uuid ORDER BY feature_index LIMIT 20000`);
+  return {
+    type: 'FeatureCollection' as const,
+    features: res.rows.map((r) => ({
+      type: 'Feature' as const,
+      id: r.index,
+      properties: { ...r.properties, _index: r.index, _repaired: r.repaired, _onLand: r.on_land },
+      geometry: JSON.parse(r.geometry),
+    })),
+  };
+}

@@ -1,0 +1,313 @@
+/**
+ * Uploads of leases, coasts and closure zones: read (shared/geometry), reproject, check,
+ * stage in PostGIS (validity, repair, areas), then confirm into leases / coasts / zones.
+ * Every write runs in one transaction: an upload is stored whole or not at all.
+ */
+import { createHash } from 'node:crypto';
+import { sql } from 'drizzle-orm';
+import type { Feature, Geometry } from 'geojson';
+import { checkCoordinates } from '#shared/geometry/check-coordinates';
+import { type CrsCatalogue, crsDefinition, identifyCrs } from '#shared/geometry/crs-catalogue';
+import { guessAttributeMapping, normaliseStatus } from '#shared/geometry/guess-attribute-mapping';
+import { loadCrsCatalogue } from '#shared/geometry/load-crs-catalogue';
+import { type ParsedUpload, readUpload, type UploadKind, type UploadLimits } from '#shared/geometry/read-upload';
+import { reprojectLayer } from '#shared/geometry/reproject';
+import { isUploadError } from '#shared/geometry/upload-error';
+import type { Database } from '../db/client';
+import { findEmptyAfterRepair, flagOnLand, insertImportFeatures, type StagedFeature, summariseImportFeatures } from '../db/repositories/import-features.repo';
+import type { CurrentUser } from '../http/route';
+import { AppError, ConflictError, ForbiddenError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors';
+import { recordAudit } from './audit.service';
+
+/** Who may upload what: growers and advisers their leases; regulators zones; all three coastlines. */
+export const UPLOAD_ROLES: Record<UploadKind, readonly string[]> = {
+  lease: ['grower', 'adviser', 'regulator'],
+  coast: ['grower', 'adviser', 'regulator'],
+  zone: ['regulator'],
+};
+
+interface ImportRow {
+  id: string;
+  kind: UploadKind;
+  owner_id: string;
+  jurisdiction_id: string | null;
+  file_name: string;
+  status: 'needs-crs' | 'ready' | 'confirmed';
+  crs: { found: boolean; epsg?: number; wkt?: string; name?: string };
+  parsed_source: ParsedUpload | null;
+  summary: { featureCount: number; geometryTypes: string[]; fields: string[]; warnings: string[]; format: string };
+  [key: string]: unknown;
+}
+
+function toAppError(err: unknown): never {
+  if (isUploadError(err)) throw new AppError(err.status, err.code, err.message, err.details);
+  throw err;
+}
+
+function geometryTypesOf(parsed: ParsedUpload): string[] {
+  return [...new Set(parsed.layers.flatMap((l) => l.features.map((f) => f.geometry?.type ?? 'null')))].sort();
+}
+function fieldsOf(parsed: ParsedUpload): string[] {
+  return [...new Set(parsed.layers.flatMap((l) => l.fields))];
+}
+
+export function createImportsService(deps: { db: Database; limits?: Partial<UploadLimits> }) {
+  const { db } = deps;
+  let catalogue: CrsCatalogue | null = null;
+  const crsCatalogue = () => {
+    catalogue ??= loadCrsCatalogue();
+    return catalogue;
+  };
+
+  async function loadImport(user: CurrentUser, id: string): Promise<ImportRow> {
+    const res = await db.execute<ImportRow>(sql`SELECT * FROM imports WHERE id = ${id}::uuid`);
+    const row = res.rows[0];
+    // Someone else's upload answers 404, as if it did not exist.
+    if (!row || row.owner_id !== user.id) throw new NotFoundError('No upload with this id belongs to you. Upload the file again.');
+    return row;
+  }
+
+  /** Reprojects, checks and stages every feature; throws (and the transaction rolls back) on a hard problem. */
+  async function stage(tx: Parameters<Parameters<Database['transaction']>[0]>[0], row: Pick<ImportRow, 'id' | 'kind' | 'owner_id' | 'jurisdiction_id'>, parsed: ParsedUpload, choice?: { epsg: number }) {
+    const staged: StagedFeature[] = [];
+    const warnings: string[] = [];
+    let index = 0;
+    for (const layer of parsed.layers) {
+      let features: Feature<Geometry>[];
+      try {
+        const source = choice ? { epsg: choice.epsg } : { wkt: layer.crs.wkt, epsg: layer.crs.epsg };
+        features = reprojectLayer(layer, source, crsCatalogue());
+        warnings.push(...checkCoordinates(features, { layerName: parsed.layers.length > 1 ? layer.name : undefined }));
+      } catch (err) {
+        toAppError(err);
+      }
+      for (const feature of features) staged.push({ index: index++, layer: layer.name, feature });
+    }
+    await tx.execute(sql`DELETE FROM import_features WHERE import_id = ${row.id}::uuid`);
+    await insertImportFeatures(tx, row.id, row.kind, staged);
+    const empty = await findEmptyAfterRepair(tx, row.id);
+    if (empty.length) {
+      throw new UnprocessableError(
+        `Feature${empty.length > 1 ? 's' : ''} ${empty.map((e) => e.index + 1).join(', ')} could not be repaired (${empty[0].reason ?? 'invalid outline'}). Fix the outline in your mapping program and upload again.`,
+        { features: empty },
+      );
+    }
+    if (row.kind !== 'coast') {
+      const onLand = await flagOnLand(tx, row.id, row.owner_id, row.jurisdiction_id);
+      if (onLand) warnings.push(`${onLand} feature${onLand > 1 ? 's lie' : ' lies'} wholly on land according to the coastline; check the file or its coordinate system.`);
+    }
+    return warnings;
+  }
+
+  async function describe(id: string) {
+    const res = await db.execute<ImportRow>(sql`SELECT * FROM imports WHERE id = ${id}::uuid`);
+    const row = res.rows[0];
+    const features = row.status === 'needs-crs' ? [] : await summariseImportFeatures(db, id);
+    return {
+      id: row.id,
+      kind: row.kind,
+      status: row.status,
+      fileName: row.file_name,
+      crs: row.crs,
+      featureCount: row.summary.featureCount,
+      geometryTypes: row.summary.geometryTypes,
+      fields: row.summary.fields,
+      warnings: row.summary.warnings,
+      suggestedMapping: guessAttributeMapping(row.summary.fields),
+      features: features.map((f) => ({
+        index: f.index,
+        properties: f.properties,
+        areaM2: f.areaM2,
+        bbox: f.bbox,
+        repaired: f.repaired,
+        invalidReason: f.invalidReason,
+        onLand: f.onLand,
+      })),
+    };
+  }
+
+  async function create(user: CurrentUser, kind: UploadKind, file: { buffer: Buffer; originalname: string }) {
+    if (!UPLOAD_ROLES[kind].includes(user.role)) {
+      throw new ForbiddenError(`Your role (${user.role}) cannot upload ${kind === 'zone' ? 'closure zones' : `${kind}s`}. It is for: ${UPLOAD_ROLES[kind].join(', ')}.`);
+    }
+    let parsed: ParsedUpload;
+    try {
+      parsed = await readUpload(new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength), file.originalname, kind, deps.limits, {
+        identifyEpsg: (wkt) => identifyCrs(crsCatalogue(), wkt),
+      });
+    } catch (err) {
+      toAppError(err);
+    }
+    const crsFound = parsed.layers.every((l) => l.crs.found);
+    const firstCrs = parsed.layers[0].crs;
+    const summary = {
+      featureCount: parsed.layers.reduce((n, l) => n + l.features.length, 0),
+      geometryTypes: geometryTypesOf(parsed),
+      fields: fieldsOf(parsed),
+      warnings: [...parsed.warnings],
+      format: parsed.format,
+    };
+    const sha = createHash('sha256').update(file.buffer).digest('hex');
+    const id = await db.transaction(async (tx) => {
+      const inserted = await tx.execute<{ id: string }>(sql`
+        INSERT INTO imports (kind, owner_id, jurisdiction_id, file_name, file_sha256, file_bytes, status, crs, parsed_source, summary)
+        VALUES (${kind}, ${user.id}, ${user.jurisdictionId}::uuid, ${file.originalname}, ${sha}, ${file.buffer},
+                ${crsFound ? 'ready' : 'needs-crs'}, ${JSON.stringify(crsFound ? firstCrs : { ...firstCrs, found: false })}::jsonb,
+                ${crsFound ? null : JSON.stringify(parsed)}::jsonb, ${JSON.stringify(summary)}::jsonb)
+        RETURNING id`);
+      const importId = inserted.rows[0].id;
+      if (crsFound) {
+        const warnings = await stage(tx, { id: importId, kind, owner_id: user.id, jurisdiction_id: user.jurisdictionId }, parsed);
+        summary.warnings.push(...warnings);
+        await tx.execute(sql`UPDATE imports SET summary = ${JSON.stringify(summary)}::jsonb WHERE id = ${importId}::uuid`);
+      } else {
+        const unknown = parsed.layers.find((l) => !l.crs.found);
+        summary.warnings.push(
+          unknown?.crs.wkt
+            ? `The .prj of “${unknown.name}” describes a coordinate system Brackline cannot read. Choose its EPSG code.`
+            : `“${unknown?.name}” has no .prj file, so its coordinate system is unknown. Choose its EPSG code.`,
+        );
+        await tx.execute(sql`UPDATE imports SET summary = ${JSON.stringify(summary)}::jsonb WHERE id = ${importId}::uuid`);
+      }
+      return importId;
+    });
+    return describe(id);
+  }
+
+  async function setCrs(user: CurrentUser, id: string, epsg: number) {
+    const row = await loadImport(user, id);
+    if (row.status === 'confirmed') throw new ConflictError('This upload is already saved. Upload the file again to read it with another coordinate system.');
+    const definition = crsDefinition(crsCatalogue(), epsg);
+    if (!definition) throw new ValidationError(`epsg: EPSG:${epsg} is not a coordinate system Brackline knows. Search by name to find the right code.`);
+    let parsed = row.parsed_source;
+    if (!parsed) {
+      // Already staged with the file's own CRS: read the kept original again.
+      const file = await db.execute<{ file_bytes: Buffer }>(sql`SELECT file_bytes FROM imports WHERE id = ${id}::uuid`);
+      try {
+        parsed = await readUpload(new Uint8Array(file.rows[0].file_bytes), row.file_name, row.kind, deps.limits);
+      } catch (err) {
+        toAppError(err);
+      }
+    }
+    const summary = { ...row.summary, warnings: row.summary.warnings.filter((w) => !/coordinate system/.test(w)) };
+    await db.transaction(async (tx) => {
+      const warnings = await stage(tx, row, parsed, { epsg });
+      summary.warnings.push(...warnings);
+      await tx.execute(sql`
+        UPDATE imports SET status = 'ready', crs = ${JSON.stringify({ found: true, epsg, name: definition.name })}::jsonb,
+               summary = ${JSON.stringify(summary)}::jsonb, parsed_source = ${JSON.stringify(parsed)}::jsonb
+         WHERE id = ${id}::uuid`);
+    });
+    return describe(id);
+  }
+
+  async function get(user: CurrentUser, id: string) {
+    await loadImport(user, id);
+    return describe(id);
+  }
+
+  async function confirm(
+    user: CurrentUser,
+    id: string,
+    body: { mapping: { leaseId?: string; holder?: string; species?: string; status?: string }; onDuplicate?: 'replace' | 'keep' },
+  ) {
+    const row = await loadImport(user, id);
+    if (row.status === 'needs-crs') throw new ConflictError('Choose the coordinate system first (POST /imports/:id/crs), then confirm.');
+    if (row.status === 'confirmed') throw new ConflictError('This upload is already saved. Upload the file again to add it once more.');
+    for (const [role, field] of Object.entries(body.mapping)) {
+      if (field && !row.summary.fields.includes(field)) {
+        throw new ValidationError(`mapping.${role}: the file has no field "${field}". Its fields are: ${row.summary.fields.join(', ') || '(none)'}.`);
+      }
+    }
+    const features = await summariseImportFeatures(db, id);
+    const base = row.file_name.replace(/\.(zip|geojson|json)$/i, '');
+    const text = (props: Record<string, unknown>, field?: string) => {
+      if (!field) return null;
+      const v = props[field];
+      return v === null || v === undefined || v === '' ? null : String(v).trim();
+    };
+
+    return db.transaction(async (tx) => {
+      const ids: string[] = [];
+      let created = 0;
+      let updated = 0;
+      if (row.kind === 'lease') {
+        const codes = features.map((f) => text(f.properties, body.mapping.leaseId) ?? `${base}-${f.index + 1}`);
+        const existing = await tx.execute<{ id: string; lease_code: string }>(sql`
+          SELECT id, lease_code FROM leases WHERE owner_id = ${user.id} AND lease_code IN (SELECT jsonb_array_elements_text(${JSON.stringify(codes)}::jsonb))`);
+        const existingByCode = new Map(existing.rows.map((r) => [r.lease_code, r.id]));
+        if (existingByCode.size && !body.onDuplicate) {
+          throw new ConflictError(
+            `${existingByCode.size} lease id${existingByCode.size > 1 ? 's' : ''} already exist among your leases (${[...existingByCode.keys()].slice(0, 10).join(', ')}${existingByCode.size > 10 ? ', …' : ''}). Confirm again with onDuplicate "replace" to update them with the new boundaries, or "keep" to add the new ones beside them.`,
+            { duplicates: [...existingByCode.keys()] },
+          );
+        }
+        for (const [i, f] of features.entries()) {
+          const code = codes[i];
+          const status = body.mapping.status ? (normaliseStatus(f.properties[body.mapping.status]) ?? 'candidate') : 'candidate';
+          const replaceId = body.onDuplicate === 'replace' ? existingByCode.get(code) : undefined;
+          if (replaceId) {
+            await tx.execute(sql`
+              UPDATE leases l SET geom = f.geom, area_m2 = f.area_m2, on_land = f.on_land, import_id = ${id}::uuid,
+                     holder = ${text(f.properties, body.mapping.holder)}, species = ${text(f.properties, body.mapping.species)},
+                     status = ${status}::lease_status, source_properties = f.properties, updated_at = now()
+                FROM import_features f
+               WHERE l.id = ${replaceId}::uuid AND f.import_id = ${id}::uuid AND f.feature_index = ${f.index}`);
+            ids.push(replaceId);
+            updated++;
+          } else {
+            const res = await tx.execute<{ id: string }>(sql`
+              INSERT INTO leases (lease_code, holder, species, status, owner_id, organisation_id, jurisdiction_id, import_id, source_properties, geom, area_m2, on_land)
+              SELECT ${code}, ${text(f.properties, body.mapping.holder)}, ${text(f.properties, body.mapping.species)}, ${status}::lease_status,
+                     ${user.id}, ${user.organisationId}::uuid, ${user.jurisdictionId}::uuid, ${id}::uuid, f.properties, f.geom, f.area_m2, f.on_land
+                FROM import_features f WHERE f.import_id = ${id}::uuid AND f.feature_index = ${f.index}
+              RETURNING id`);
+            ids.push(res.rows[0].id);
+            created++;
+          }
+        }
+      } else if (row.kind === 'zone') {
+        if (!user.jurisdictionId) throw new ValidationError('Your account has no jurisdiction, so closure zones cannot be saved. Ask an administrator to set it.');
+        for (const f of features) {
+          const name = text(f.properties, body.mapping.leaseId) ?? `${base} zone ${f.index + 1}`;
+          const res = await tx.execute<{ id: string }>(sql`
+            INSERT INTO closure_zones (name, jurisdiction_id, import_id, source_properties, geom, area_m2)
+            SELECT ${name}, ${user.jurisdictionId}::uuid, ${id}::uuid, f.properties, f.geom, f.area_m2
+              FROM import_features f WHERE f.import_id = ${id}::uuid AND f.feature_index = ${f.index}
+            RETURNING id`);
+          ids.push(res.rows[0].id);
+          created++;
+        }
+      } else {
+        // A coastline is stored as one geometry: lines merged, or land polygons unioned.
+        const hasPolygons = features.some((f) => f.geometryType.includes('POLYGON'));
+        const res = await tx.execute<{ id: string }>(sql`
+          INSERT INTO coasts (name, form, owner_id, jurisdiction_id, shared, import_id, geom)
+          SELECT ${base}, ${hasPolygons ? 'land' : 'line'}, ${user.id}, ${user.jurisdictionId}::uuid, ${user.role === 'regulator'}, ${id}::uuid,
+                 ${hasPolygons ? sql`ST_Multi(ST_Union(ST_CollectionExtract(geom, 3)))` : sql`ST_Multi(ST_LineMerge(ST_Union(ST_CollectionExtract(geom, 2))))`}
+            FROM import_features WHERE import_id = ${id}::uuid
+          RETURNING id`);
+        ids.push(res.rows[0].id);
+        created = 1;
+      }
+      await tx.execute(sql`UPDATE imports SET status = 'confirmed', confirmed_at = now(), parsed_source = NULL WHERE id = ${id}::uuid`);
+      await recordAudit(tx, {
+        actorId: user.id,
+        action: `${row.kind}.import`,
+        subjectType: 'import',
+        subjectId: id,
+        jurisdictionId: user.jurisdictionId,
+        after: { created, updated, fileName: row.file_name, mapping: body.mapping, onDuplicate: body.onDuplicate ?? null },
+      });
+      return { created, updated, ids };
+    });
+  }
+
+  function searchCrsCatalogue() {
+    return crsCatalogue();
+  }
+
+  return { create, setCrs, get, confirm, crsCatalogue: searchCrsCatalogue };
+}
+
+export type ImportsService = ReturnType<typeof createImportsService>;

@@ -1,0 +1,159 @@
+/**
+ * Leases: who may see which (row-level rules of product.md §2), listing, editing, export.
+ * A lease nobody may see answers 404, so its existence is not revealed.
+ */
+import { type SQL, sql } from 'drizzle-orm';
+import type { Lease, LeaseListQuery, LeaseUpdate } from '#shared/schemas/lease';
+import type { Database } from '../db/client';
+import type { CurrentUser } from '../http/route';
+import { ForbiddenError, NotFoundError } from '../lib/errors';
+import { recordAudit } from './audit.service';
+
+/** The rows `user` may read: own leases, leases shared with them, and for a regulator the held leases of the jurisdiction. */
+export function visibleLeases(user: CurrentUser, alias = 'l'): SQL {
+  const a = sql.raw(alias);
+  const shared = sql`EXISTS (SELECT 1 FROM lease_shares s WHERE s.lease_id = ${a}.id AND s.grantee_id = ${user.id})`;
+  if (user.role === 'regulator') {
+    return sql`(${a}.owner_id = ${user.id} OR ${shared} OR (${a}.status = 'held' AND ${a}.jurisdiction_id = ${user.jurisdictionId}::uuid))`;
+  }
+  if (user.role === 'grower' || user.role === 'adviser') return sql`(${a}.owner_id = ${user.id} OR ${shared})`;
+  return sql`false`;
+}
+
+const SORT_COLUMNS: Record<LeaseListQuery['sort'], string> = {
+  leaseId: 'l.lease_code',
+  holder: 'l.holder',
+  species: 'l.species',
+  status: 'l.status',
+  areaM2: 'l.area_m2',
+  createdAt: 'l.created_at',
+};
+
+type LeaseRow = {
+  id: string;
+  lease_code: string;
+  holder: string | null;
+  species: string | null;
+  status: 'held' | 'candidate';
+  notes: string | null;
+  owner_id: string;
+  owner_name: string | null;
+  area_m2: number;
+  on_land: boolean;
+  import_id: string | null;
+  created_at: Date;
+  updated_at: Date;
+  geometry?: string;
+};
+
+function toLease(r: LeaseRow): Lease {
+  return {
+    id: r.id,
+    leaseId: r.lease_code,
+    holder: r.holder,
+    species: r.species,
+    status: r.status,
+    notes: r.notes,
+    ownerId: r.owner_id,
+    ownerName: r.owner_name,
+    areaM2: r.area_m2,
+    onLand: r.on_land,
+    importId: r.import_id,
+    createdAt: new Date(r.created_at).toISOString(),
+    updatedAt: new Date(r.updated_at).toISOString(),
+    ...(r.geometry ? { geometry: JSON.parse(r.geometry) } : {}),
+  };
+}
+
+const SELECT_LEASE = (withGeometry: boolean) => sql`
+  SELECT l.id, l.lease_code, l.holder, l.species, l.status, l.notes, l.owner_id, u.name AS owner_name,
+         l.area_m2, l.on_land, l.import_id, l.created_at, l.updated_at
+         ${withGeometry ? sql`, ST_AsGeoJSON(l.geom, 7) AS geometry` : sql``}
+    FROM leases l JOIN users u ON u.id = l.owner_id`;
+
+export function createLeasesService(db: Database) {
+  function filters(user: CurrentUser, q: Partial<LeaseListQuery>): SQL {
+    const parts: SQL[] = [visibleLeases(user)];
+    if (q.q) parts.push(sql`(l.lease_code ILIKE ${`%${q.q}%`} OR l.holder ILIKE ${`%${q.q}%`})`);
+    if (q.status) parts.push(sql`l.status = ${q.status}`);
+    if (q.species) parts.push(sql`l.species ILIKE ${q.species}`);
+    if (q.ownerId) parts.push(sql`l.owner_id = ${q.ownerId}`);
+    return sql.join(parts, sql` AND `);
+  }
+
+  async function list(user: CurrentUser, q: LeaseListQuery) {
+    const where = filters(user, q);
+    const order = sql.raw(`${SORT_COLUMNS[q.sort]} ${q.order === 'desc' ? 'DESC' : 'ASC'} NULLS LAST, l.id`);
+    const rows = await db.execute<LeaseRow>(sql`${SELECT_LEASE(q.withGeometry)} WHERE ${where} ORDER BY ${order} LIMIT ${q.limit} OFFSET ${q.offset}`);
+    const total = await db.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM leases l WHERE ${where}`);
+    return { items: rows.rows.map(toLease), total: total.rows[0].n };
+  }
+
+  async function get(user: CurrentUser, id: string): Promise<Lease> {
+    const rows = await db.execute<LeaseRow>(sql`${SELECT_LEASE(true)} WHERE l.id = ${id}::uuid AND ${visibleLeases(user)}`);
+    if (!rows.rows[0]) throw new NotFoundError('No lease with this id that you can see. It may have been deleted, or not shared with you.');
+    return toLease(rows.rows[0]);
+  }
+
+  async function requireOwner(user: CurrentUser, id: string) {
+    const lease = await get(user, id);
+    if (lease.ownerId !== user.id) {
+      throw new ForbiddenError('Only the account that holds this lease can change or delete it. Ask its holder.');
+    }
+    return lease;
+  }
+
+  async function update(user: CurrentUser, id: string, patch: LeaseUpdate): Promise<Lease> {
+    const before = await requireOwner(user, id);
+    await db.transaction(async (tx) => {
+      await tx.execute(sql`
+        UPDATE leases SET
+          lease_code = COALESCE(${patch.leaseId ?? null}, lease_code),
+          holder = CASE WHEN ${patch.holder !== undefined} THEN ${patch.holder ?? null} ELSE holder END,
+          species = CASE WHEN ${patch.species !== undefined} THEN ${patch.species ?? null} ELSE species END,
+          status = COALESCE(${patch.status ?? null}::lease_status, status),
+          notes = CASE WHEN ${patch.notes !== undefined} THEN ${patch.notes ?? null} ELSE notes END,
+          updated_at = now()
+        WHERE id = ${id}::uuid`);
+      await recordAudit(tx, {
+        actorId: user.id,
+        action: 'lease.update',
+        subjectType: 'lease',
+        subjectId: id,
+        before: { leaseId: before.leaseId, holder: before.holder, species: before.species, status: before.status, notes: before.notes },
+        after: patch,
+      });
+    });
+    return get(user, id);
+  }
+
+  async function remove(user: CurrentUser, id: string): Promise<void> {
+    const before = await requireOwner(user, id);
+    await db.transaction(async (tx) => {
+      await tx.execute(sql`DELETE FROM leases WHERE id = ${id}::uuid`);
+      await recordAudit(tx, { actorId: user.id, action: 'lease.delete', subjectType: 'lease', subjectId: id, before: { leaseId: before.leaseId, status: before.status } });
+    });
+  }
+
+  async function exportRows(user: CurrentUser, status?: 'held' | 'candidate') {
+    const where = filters(user, { status });
+    const rows = await db.execute<LeaseRow>(sql`${SELECT_LEASE(true)} WHERE ${where} ORDER BY l.lease_code, l.id`);
+    return rows.rows.map(toLease);
+  }
+
+  return { list, get, update, remove, exportRows };
+}
+
+export type LeasesService = ReturnType<typeof createLeasesService>;
+
+/** RFC 4180 CSV: quotes around fields with commas, quotes or line breaks; quotes doubled. */
+export function toCsv(header: string[], rows: (string | number | boolean | null)[][]): string {
+  const cell = (v: string | number | boolean | null) => {
+    if (v === null || v === undefined) return '';
+    const s = String(v);
+    // A leading =, +, - or @ would run as a formula in a spreadsheet: prefix it.
+    const safe = /^[=+\-@]/.test(s) && typeof v === 'string' ? `'${s}` : s;
+    return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
+  };
+  return [header, ...rows].map((r) => r.map(cell).join(',')).join('\r\n') + '\r\n';
+}

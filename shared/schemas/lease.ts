@@ -1,0 +1,57 @@
+/** Lease contracts shared by the leases table, the lease page and the API. */
+import { z } from 'zod';
+
+export const leaseStatusSchema = z.enum(['held', 'candidate'], { error: 'status must be "held" or "candidate"' });
+export type LeaseStatus = z.infer<typeof leaseStatusSchema>;
+
+export const LEASE_SORT_FIELDS = ['leaseId', 'holder', 'species', 'status', 'areaM2', 'createdAt'] as const;
+
+export const leaseListQuerySchema = z.strictObject({
+  q: z.string().trim().max(120, { error: 'q must be at most 120 characters' }).optional().describe('Search in lease id and holder'),
+  status: leaseStatusSchema.optional(),
+  species: z.string().trim().max(80).optional(),
+  ownerId: z.string().max(64).optional().describe('Only leases of this owner (advisers and regulators)'),
+  sort: z.enum(LEASE_SORT_FIELDS, { error: `sort must be one of ${LEASE_SORT_FIELDS.join(', ')}` }).default('leaseId'),
+  order: z.enum(['asc', 'desc'], { error: 'order must be asc or desc' }).default('asc'),
+  limit: z.coerce.number().int().min(1, { error: 'limit must be between 1 and 5000' }).max(5000, { error: 'limit must be between 1 and 5000' }).default(100),
+  offset: z.coerce.number().int().min(0, { error: 'offset must be 0 or more' }).default(0),
+  withGeometry: z
+    .enum(['true', 'false'], { error: 'withGeometry must be true or false' })
+    .default('true')
+    .transform((v) => v === 'true'),
+});
+export type LeaseListQuery = z.infer<typeof leaseListQuerySchema>;
+
+export const leaseSchema = z.object({
+  id: z.string(),
+  leaseId: z.string().describe("The holder's own lease identifier"),
+  holder: z.string().nullable(),
+  species: z.string().nullable(),
+  status: leaseStatusSchema,
+  notes: z.string().nullable(),
+  ownerId: z.string(),
+  ownerName: z.string().nullable(),
+  areaM2: z.number().describe('Area on the WGS84 ellipsoid (m²)'),
+  onLand: z.boolean().describe('True when the lease lies wholly on land of a known coast'),
+  importId: z.string().nullable(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+  geometry: z.unknown().optional().describe('GeoJSON MultiPolygon in EPSG:4326'),
+});
+export type Lease = z.infer<typeof leaseSchema>;
+
+export const leaseListSchema = z.object({ items: z.array(leaseSchema), total: z.number() });
+
+export const leaseUpdateSchema = z.strictObject({
+  leaseId: z.string().trim().min(1, { error: 'leaseId cannot be empty' }).max(80, { error: 'leaseId must be at most 80 characters' }).optional(),
+  holder: z.string().trim().max(160, { error: 'holder must be at most 160 characters' }).nullable().optional(),
+  species: z.string().trim().max(80, { error: 'species must be at most 80 characters' }).nullable().optional(),
+  status: leaseStatusSchema.optional(),
+  notes: z.string().max(4000, { error: 'notes must be at most 4000 characters' }).nullable().optional(),
+});
+export type LeaseUpdate = z.infer<typeof leaseUpdateSchema>;
+
+export const leaseExportQuerySchema = z.strictObject({
+  format: z.enum(['csv', 'geojson'], { error: 'format must be csv or geojson' }),
+  status: leaseStatusSchema.optional(),
+});

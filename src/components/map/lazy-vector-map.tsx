@@ -1,0 +1,16 @@
+import { lazy, Suspense } from 'react';
+import { Loading } from '../ui/states';
+import type { VectorMapProps } from './vector-map';
+
+const VectorMap = lazy(() => import('./vector-map'));
+
+export type { MapLayerSpec, VectorMapProps } from './vector-map';
+
+/** The vector map, with its OpenLayers code fetched only when a map is shown. */
+export function LazyVectorMap(props: VectorMapProps) {
+  return (
+    <Suspense fallback={<Loading what="Drawing the map…" />}>
+      <VectorMap {...props} />
+    </Suspense>
+  );
+}

@@ -1,0 +1,250 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import {
+  columnVisibilityFeature,
+  createColumnHelper,
+  type PaginationState,
+  type RowSelectionState,
+  rowPaginationFeature,
+  rowSelectionFeature,
+  rowSortingFeature,
+  type SortingState,
+  tableFeatures,
+  useTable,
+} from '@tanstack/react-table';
+import { useDeferredValue, useId, useState } from 'react';
+import { Link } from 'react-router-dom';
+import type { Lease } from '#shared/schemas/lease';
+import { Button } from '../../../components/ui/button';
+import { Notice } from '../../../components/ui/notice';
+import { Empty, LoadError, Loading } from '../../../components/ui/states';
+import { leaseKeys, updateLease } from '../api/leases-api';
+
+const features = tableFeatures({ rowSortingFeature, rowPaginationFeature, columnVisibilityFeature, rowSelectionFeature });
+const helper = createColumnHelper<typeof features, Lease>();
+const emptyRows: Lease[] = [];
+
+const columns = helper.columns([
+  helper.accessor('leaseId', {
+    id: 'leaseId',
+    header: 'Lease id',
+    cell: (c) => (
+      <Link className="font-semibold text-deep-700 underline" to={`/leases/${c.row.original.id}`}>
+        {c.getValue()}
+      </Link>
+    ),
+  }),
+  helper.accessor('holder', { id: 'holder', header: 'Holder', cell: (c) => c.getValue() ?? '—' }),
+  helper.accessor('species', { id: 'species', header: 'Species', cell: (c) => c.getValue() ?? '—' }),
+  helper.accessor('status', {
+    id: 'status',
+    header: 'Status',
+    cell: (c) => (c.getValue() === 'held' ? 'Held' : 'Candidate'),
+  }),
+  helper.accessor('areaM2', {
+    id: 'areaM2',
+    header: 'Area (ha)',
+    cell: (c) => (c.getValue() / 10_000).toLocaleString(undefined, { maximumFractionDigits: 2, minimumFractionDigits: 2 }),
+  }),
+  helper.accessor('ownerName', { id: 'ownerName', header: 'Account', enableSorting: false, cell: (c) => c.getValue() ?? '—' }),
+]);
+
+const COLUMN_LABELS: Record<string, string> = { leaseId: 'Lease id', holder: 'Holder', species: 'Species', status: 'Status', areaM2: 'Area', ownerName: 'Account' };
+
+/** Leases you may see, sorted, filtered and paged on the server so thousands of rows stay quick. */
+export function LeasesTable({ canEdit }: { canEdit: boolean }) {
+  const queryClient = useQueryClient();
+  const [sorting, setSorting] = useState<SortingState>([{ id: 'leaseId', desc: false }]);
+  const [pagination, setPagination] = useState<PaginationState>({ pageIndex: 0, pageSize: 50 });
+  const [search, setSearch] = useState('');
+  const [status, setStatus] = useState<'' | 'held' | 'candidate'>('');
+  const [rowSelection, setRowSelection] = useState<RowSelectionState>({});
+  const [columnVisibility, setColumnVisibility] = useState<Record<string, boolean>>({});
+  const q = useDeferredValue(search);
+  const searchId = useId();
+  const statusId = useId();
+
+  const params = {
+    q: q || undefined,
+    status: status || undefined,
+    sort: sorting[0]?.id ?? 'leaseId',
+    order: sorting[0]?.desc ? ('desc' as const) : ('asc' as const),
+    limit: pagination.pageSize,
+    offset: pagination.pageIndex * pagination.pageSize,
+  };
+  const result = useQuery(leaseKeys.list(params));
+
+  const table = useTable({
+    features,
+    columns,
+    data: result.data?.items ?? emptyRows,
+    rowCount: result.data?.total,
+    getRowId: (row) => row.id,
+    manualSorting: true,
+    manualPagination: true,
+    state: { sorting, pagination, rowSelection, columnVisibility },
+    onSortingChange: setSorting,
+    onPaginationChange: setPagination,
+    onRowSelectionChange: setRowSelection,
+    onColumnVisibilityChange: setColumnVisibility,
+  });
+
+  const selectedIds = Object.keys(rowSelection);
+  const bulkStatus = useMutation({
+    mutationFn: async (next: 'held' | 'candidate') => {
+      for (const id of selectedIds) await updateLease(id, { status: next });
+    },
+    onSuccess: () => {
+      setRowSelection({});
+      void queryClient.invalidateQueries({ queryKey: leaseKeys.all });
+    },
+  });
+
+  const pageCount = result.data ? Math.max(1, Math.ceil(result.data.total / pagination.pageSize)) : 1;
+
+  return (
+    <div className="space-y-3">
+      <div className="flex flex-wrap items-end gap-3">
+        <div className="flex flex-col gap-1">
+          <label htmlFor={searchId} className="text-sm font-semibold">
+            Find a lease
+          </label>
+          <input
+            id={searchId}
+            type="search"
+            placeholder="Lease id or holder"
+            value={search}
+            onChange={(e) => {
+              setSearch(e.target.value);
+              setPagination((p) => ({ ...p, pageIndex: 0 }));
+            }}
+            className="rounded-md border border-shell-300 px-3 py-2"
+          />
+        </div>
+        <div className="flex flex-col gap-1">
+          <label htmlFor={statusId} className="text-sm font-semibold">
+            Status
+          </label>
+          <select
+            id={statusId}
+            value={status}
+            onChange={(e) => {
+              setStatus(e.target.value as typeof status);
+              setPagination((p) => ({ ...p, pageIndex: 0 }));
+            }}
+            className="rounded-md border border-shell-300 bg-white px-3 py-2"
+          >
+            <option value="">Held and candidate</option>
+            <option value="held">Held</option>
+            <option value="candidate">Candidate</option>
+          </select>
+        </div>
+        <details className="relative">
+          <summary className="cursor-pointer rounded-md border border-shell-300 bg-white px-3 py-2 text-sm">Columns</summary>
+          <div className="absolute z-10 mt-1 space-y-1 rounded-md border border-shell-300 bg-white p-3 shadow">
+            {table.getAllLeafColumns().map((col) => (
+              <label key={col.id} className="flex items-center gap-2 text-sm">
+                <input type="checkbox" checked={col.getIsVisible()} onChange={col.getToggleVisibilityHandler()} />
+                {COLUMN_LABELS[col.id] ?? col.id}
+              </label>
+            ))}
+          </div>
+        </details>
+        <a className="rounded-md border border-deep-300 bg-white px-3 py-2 text-sm font-semibold text-deep-700" href="/api/v1/leases/export?format=csv" download>
+          Export CSV
+        </a>
+        <a className="rounded-md border border-deep-300 bg-white px-3 py-2 text-sm font-semibold text-deep-700" href="/api/v1/leases/export?format=geojson" download>
+          Export GeoJSON
+        </a>
+      </div>
+
+      {canEdit && selectedIds.length > 0 && (
+        <div className="flex flex-wrap items-center gap-2 rounded-md bg-deep-50 p-2 text-sm" role="region" aria-label="Bulk actions">
+          <span>{selectedIds.length} selected:</span>
+          <Button variant="secondary" onClick={() => bulkStatus.mutate('held')} disabled={bulkStatus.isPending}>
+            Mark held
+          </Button>
+          <Button variant="secondary" onClick={() => bulkStatus.mutate('candidate')} disabled={bulkStatus.isPending}>
+            Mark candidate
+          </Button>
+          {bulkStatus.isPending && <span role="status">Saving {selectedIds.length} leases…</span>}
+        </div>
+      )}
+      {bulkStatus.isError && <Notice tone="problem">{(bulkStatus.error as Error).message}</Notice>}
+
+      {result.isPending ? (
+        <Loading what="Loading leases…" />
+      ) : result.isError ? (
+        <LoadError error={result.error} retry={() => result.refetch()} />
+      ) : result.data.total === 0 ? (
+        <Empty title={q || status ? 'No lease matches these filters' : 'No leases yet'}>
+          {q || status ? 'Clear the search or the status filter.' : 'Upload a zipped shapefile or a GeoJSON file of your lease boundaries to start.'}
+        </Empty>
+      ) : (
+        <>
+          <div className="overflow-x-auto rounded-lg border border-sand-200 bg-white">
+            <table className="w-full border-collapse text-sm" aria-label="Leases">
+              <thead>
+                {table.getHeaderGroups().map((group) => (
+                  <tr key={group.id} className="border-b border-sand-200 text-left">
+                    {canEdit && (
+                      <th className="w-8 p-2">
+                        <input
+                          type="checkbox"
+                          aria-label="Select every lease on this page"
+                          checked={table.getIsAllPageRowsSelected()}
+                          onChange={table.getToggleAllPageRowsSelectedHandler()}
+                        />
+                      </th>
+                    )}
+                    {group.headers.map((header) => {
+                      const sorted = header.column.getIsSorted();
+                      return (
+                        <th key={header.id} className="p-2" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
+                          {header.column.getCanSort() ? (
+                            <button type="button" className="flex items-center gap-1 font-semibold" onClick={header.column.getToggleSortingHandler()}>
+                              <table.FlexRender header={header} />
+                              <span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
+                            </button>
+                          ) : (
+                            <table.FlexRender header={header} />
+                          )}
+                        </th>
+                      );
+                    })}
+                  </tr>
+                ))}
+              </thead>
+              <tbody>
+                {table.getRowModel().rows.map((row) => (
+                  <tr key={row.id} className="border-b border-shell-100 hover:bg-sand-50">
+                    {canEdit && (
+                      <td className="p-2">
+                        <input type="checkbox" aria-label={`Select ${row.original.leaseId}`} checked={row.getIsSelected()} onChange={row.getToggleSelectedHandler()} />
+                      </td>
+                    )}
+                    {row.getVisibleCells().map((cell) => (
+                      <td key={cell.id} className="p-2">
+                        <table.FlexRender cell={cell} />
+                      </td>
+                    ))}
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+          <nav aria-label="Pages" className="flex items-center gap-3 text-sm">
+            <Button variant="secondary" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>
+              Previous
+            </Button>
+            <span>
+              Page {pagination.pageIndex + 1} of {pageCount} · {result.data.total} leases
+            </span>
+            <Button variant="secondary" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>
+              Next
+            </Button>
+          </nav>
+        </>
+      )}
+    </div>
+  );
+}

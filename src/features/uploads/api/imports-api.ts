@@ -1,0 +1,81 @@
+import { queryOptions } from '@tanstack/react-query';
+import type { FeatureCollection } from 'geojson';
+import { ApiError, api } from '../../../lib/api-client';
+
+export type UploadKind = 'lease' | 'coast' | 'zone';
+
+export interface ImportFeature {
+  index: number;
+  properties: Record<string, unknown>;
+  areaM2: number | null;
+  bbox: [number, number, number, number];
+  repaired: boolean;
+  onLand?: boolean;
+  invalidReason?: string | null;
+}
+
+export interface ImportResult {
+  id: string;
+  kind: UploadKind;
+  status: 'needs-crs' | 'ready' | 'confirmed';
+  fileName: string;
+  crs: { found: boolean; epsg?: number; wkt?: string; name?: string };
+  featureCount: number;
+  geometryTypes: string[];
+  fields: string[];
+  warnings: string[];
+  features: ImportFeature[];
+  suggestedMapping: { leaseId?: string; holder?: string; species?: string; status?: string };
+}
+
+export interface ConfirmBody {
+  mapping: { leaseId?: string; holder?: string; species?: string; status?: string };
+  onDuplicate?: 'replace' | 'keep';
+}
+
+/**
+ * Uploads with XMLHttpRequest because fetch cannot report upload progress.
+ * `onProgress` gets 0..1 while the bytes go up; parsing on the server follows.
+ */
+export function uploadImport(file: File, kind: UploadKind, onProgress: (fraction: number) => void): Promise<ImportResult> {
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', '/api/v1/imports');
+    xhr.responseType = 'json';
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable) onProgress(e.loaded / e.total);
+    };
+    xhr.onload = () => {
+      const body = xhr.response;
+      if (xhr.status >= 200 && xhr.status < 300) resolve(body as ImportResult);
+      else reject(new ApiError(xhr.status, body?.error?.code ?? 'http_error', body?.error?.message ?? `The server answered ${xhr.status}.`, body?.error?.details));
+    };
+    xhr.onerror = () => reject(new ApiError(0, 'network', 'The upload did not reach the server. Check your connection and try again.'));
+    const form = new FormData();
+    form.append('kind', kind);
+    form.append('file', file);
+    xhr.send(form);
+  });
+}
+
+export const importKeys = {
+  all: ['imports'] as const,
+  detail: (id: string) => queryOptions({ queryKey: [...importKeys.all, id] as const, queryFn: () => api<ImportResult>(`/imports/${id}`) }),
+  preview: (id: string, status: string) =>
+    queryOptions({ queryKey: [...importKeys.all, id, 'preview', status] as const, queryFn: () => api<FeatureCollection>(`/imports/${id}/preview`) }),
+  crsSearch: (q: string) =>
+    queryOptions({
+      queryKey: ['crs', q] as const,
+      queryFn: () => api<{ items: { code: number; name: string; area?: string }[] }>(`/crs?q=${encodeURIComponent(q)}`),
+      staleTime: 5 * 60_000,
+    }),
+};
+
+export function setImportCrs(id: string, epsg: number) {
+  return api<ImportResult>(`/imports/${id}/crs`, { method: 'POST', json: { epsg } });
+}
+
+export function confirmImport(id: string, body: ConfirmBody) {
+  return api<{ created: number; updated: number; ids: string[] }>(`/imports/${id}/confirm`, { method: 'POST', json: body });
+}

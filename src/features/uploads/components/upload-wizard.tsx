@@ -1,0 +1,328 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useId, useMemo, useState } from 'react';
+import { Link } from 'react-router-dom';
+import { LazyVectorMap } from '../../../components/map/lazy-vector-map';
+import { Button } from '../../../components/ui/button';
+import { Notice } from '../../../components/ui/notice';
+import { Loading } from '../../../components/ui/states';
+import { ApiError } from '../../../lib/api-client';
+import { type ConfirmBody, confirmImport, type ImportResult, importKeys, setImportCrs, type UploadKind, uploadImport } from '../api/imports-api';
+
+const KIND_WORDS: Record<UploadKind, { noun: string; plural: string }> = {
+  lease: { noun: 'lease', plural: 'leases' },
+  coast: { noun: 'coastline', plural: 'coastline features' },
+  zone: { noun: 'closure zone', plural: 'closure zones' },
+};
+
+function formatArea(m2: number | null | undefined): string {
+  if (m2 === null || m2 === undefined) return '—';
+  return m2 >= 10_000 ? `${(m2 / 10_000).toLocaleString(undefined, { maximumFractionDigits: 2 })} ha` : `${Math.round(m2).toLocaleString()} m²`;
+}
+
+/** Upload → (coordinate system) → preview and attribute mapping → confirm. */
+export function UploadWizard({ kinds, onDone }: { kinds: UploadKind[]; onDone?: () => void }) {
+  const [kind, setKind] = useState<UploadKind>(kinds[0]);
+  const [file, setFile] = useState<File | null>(null);
+  const [progress, setProgress] = useState(0);
+  const [result, setResult] = useState<ImportResult | null>(null);
+  const fileInputId = useId();
+
+  const upload = useMutation({
+    mutationFn: () => {
+      if (!file) throw new Error('Choose a file first.');
+      setProgress(0);
+      return uploadImport(file, kind, setProgress);
+    },
+    onSuccess: setResult,
+  });
+
+  if (result?.status === 'needs-crs') return <ChooseCrs result={result} onChosen={setResult} />;
+  if (result) return <PreviewAndConfirm result={result} onChangeCrs={(r) => setResult(r)} onRestart={() => setResult(null)} onDone={onDone} />;
+
+  return (
+    <form
+      className="space-y-4 rounded-lg border border-sand-200 bg-white p-4"
+      onSubmit={(e) => {
+        e.preventDefault();
+        upload.mutate();
+      }}
+    >
+      <h2 className="text-lg font-semibold text-deep-900">1. Choose a file</h2>
+      <p className="text-sm text-shell-700">
+        A zipped shapefile (.shp, .shx, .dbf and .prj together in one .zip) or a GeoJSON FeatureCollection. Any coordinate system: Brackline reprojects it.
+      </p>
+      {kinds.length > 1 && (
+        <fieldset className="flex flex-wrap gap-4">
+          <legend className="mb-1 text-sm font-semibold">What does the file hold?</legend>
+          {kinds.map((k) => (
+            <label key={k} className="flex items-center gap-2 text-sm">
+              <input type="radio" name="kind" value={k} checked={kind === k} onChange={() => setKind(k)} />
+              {KIND_WORDS[k].plural[0].toUpperCase() + KIND_WORDS[k].plural.slice(1)}
+            </label>
+          ))}
+        </fieldset>
+      )}
+      <div className="flex flex-col gap-1">
+        <label htmlFor={fileInputId} className="text-sm font-semibold">
+          File
+        </label>
+        <input id={fileInputId} type="file" accept=".zip,.geojson,.json,application/zip,application/geo+json" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
+      </div>
+      {upload.isPending && (
+        <div role="status" aria-live="polite" className="text-sm">
+          {progress < 1 ? `Uploading ${file?.name}… ${Math.round(progress * 100)}%` : `Reading, reprojecting and checking ${file?.name}…`}
+          <progress className="mt-1 block w-full" max={1} value={progress < 1 ? progress : undefined} />
+        </div>
+      )}
+      {upload.isError && <Notice tone="problem" title="The file was not accepted">{(upload.error as Error).message}</Notice>}
+      <Button type="submit" disabled={!file || upload.isPending}>
+        Upload and check
+      </Button>
+    </form>
+  );
+}
+
+function ChooseCrs({ result, onChosen }: { result: ImportResult; onChosen: (r: ImportResult) => void }) {
+  const [query, setQuery] = useState('');
+  const searchId = useId();
+  const search = useQuery({ ...importKeys.crsSearch(query), enabled: query.trim().length >= 2 });
+  const choose = useMutation({ mutationFn: (epsg: number) => setImportCrs(result.id, epsg), onSuccess: onChosen });
+  return (
+    <section className="space-y-4 rounded-lg border border-sand-200 bg-white p-4">
+      <h2 className="text-lg font-semibold text-deep-900">2. Which coordinate system is the file in?</h2>
+      <Notice tone="info">
+        {result.fileName} has {result.featureCount} features but no coordinate system Brackline can read (no .prj file, or one it does not understand). Search for the
+        system by name or EPSG code, for example "UTM zone 33" or "2193". You will see where the data lands before you confirm.
+      </Notice>
+      {result.warnings.length > 0 && <Warnings warnings={result.warnings} />}
+      <div className="flex flex-col gap-1">
+        <label htmlFor={searchId} className="text-sm font-semibold">
+          Search coordinate systems
+        </label>
+        <input id={searchId} type="search" value={query} onChange={(e) => setQuery(e.target.value)} className="rounded-md border border-shell-300 px-3 py-2" />
+      </div>
+      {search.isFetching && <Loading what="Searching…" />}
+      {choose.isError && <Notice tone="problem">{(choose.error as Error).message}</Notice>}
+      {search.data && (
+        <ul className="max-h-72 divide-y divide-shell-100 overflow-auto rounded border border-shell-100" aria-label="Coordinate systems found">
+          {search.data.items.length === 0 && <li className="p-2 text-sm">Nothing matches. Try another name or the EPSG number.</li>}
+          {search.data.items.map((c) => (
+            <li key={c.code}>
+              <button type="button" className="w-full p-2 text-left text-sm hover:bg-sand-50" onClick={() => choose.mutate(c.code)} disabled={choose.isPending}>
+                <span className="font-semibold">EPSG:{c.code}</span> {c.name}
+              </button>
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
+  );
+}
+
+function Warnings({ warnings }: { warnings: string[] }) {
+  return (
+    <Notice tone="problem" title="Please check">
+      <ul className="list-disc pl-5">
+        {warnings.map((w) => (
+          <li key={w}>{w}</li>
+        ))}
+      </ul>
+    </Notice>
+  );
+}
+
+function PreviewAndConfirm({
+  result,
+  onChangeCrs,
+  onRestart,
+  onDone,
+}: {
+  result: ImportResult;
+  onChangeCrs: (r: ImportResult) => void;
+  onRestart: () => void;
+  onDone?: () => void;
+}) {
+  const queryClient = useQueryClient();
+  const preview = useQuery(importKeys.preview(result.id, `${result.status}-${result.crs.epsg}`));
+  const [mapping, setMapping] = useState<ConfirmBody['mapping']>(result.suggestedMapping ?? {});
+  const [duplicates, setDuplicates] = useState<string[] | null>(null);
+  const [pickCrs, setPickCrs] = useState(false);
+  const confirm = useMutation({
+    mutationFn: (onDuplicate?: 'replace' | 'keep') => confirmImport(result.id, { mapping: cleanMapping(mapping), ...(onDuplicate ? { onDuplicate } : {}) }),
+    onSuccess: () => {
+      void queryClient.invalidateQueries({ queryKey: ['leases'] });
+      onDone?.();
+    },
+    onError: (err) => {
+      if (err instanceof ApiError && err.status === 409) {
+        const d = (err.details as { duplicates?: string[] } | undefined)?.duplicates;
+        if (d) setDuplicates(d);
+      }
+    },
+  });
+  const areas = result.features.map((f) => f.areaM2).filter((a): a is number => a !== null);
+  const repaired = result.features.filter((f) => f.repaired);
+  const onLand = result.features.filter((f) => f.onLand);
+  const words = KIND_WORDS[result.kind];
+  const layers = useMemo(
+    () => (preview.data ? [{ id: 'upload', label: `${words.plural} in ${result.fileName}`, data: preview.data, fill: 'rgba(47,122,102,0.35)', stroke: '#1f5548' }] : []),
+    [preview.data, result.fileName, words.plural],
+  );
+
+  if (pickCrs) return <ChooseCrs result={result} onChosen={(r) => { setPickCrs(false); onChangeCrs(r); }} />;
+
+  if (confirm.isSuccess) {
+    return (
+      <Notice tone="done" title="Saved">
+        <p>
+          {confirm.data.created} {words.plural} added{confirm.data.updated ? `, ${confirm.data.updated} replaced` : ''}.{' '}
+          {result.kind === 'lease' && (
+            <Link className="font-semibold underline" to="/leases">
+              See them in the leases table
+            </Link>
+          )}
+        </p>
+        <button type="button" className="mt-2 font-semibold underline" onClick={onRestart}>
+          Upload another file
+        </button>
+      </Notice>
+    );
+  }
+
+  return (
+    <section className="space-y-4 rounded-lg border border-sand-200 bg-white p-4" aria-label="Preview">
+      <h2 className="text-lg font-semibold text-deep-900">3. Check what was read</h2>
+      <dl className="grid grid-cols-2 gap-x-6 gap-y-1 text-sm sm:grid-cols-4">
+        <dt className="font-semibold">Features</dt>
+        <dd data-testid="feature-count">{result.featureCount}</dd>
+        <dt className="font-semibold">Geometry</dt>
+        <dd>{result.geometryTypes.join(', ')}</dd>
+        <dt className="font-semibold">Coordinate system</dt>
+        <dd>
+          {result.crs.epsg ? `EPSG:${result.crs.epsg}` : ''} {result.crs.name ?? ''}{' '}
+          <button type="button" className="text-deep-700 underline" onClick={() => setPickCrs(true)}>
+            change
+          </button>
+        </dd>
+        <dt className="font-semibold">Area</dt>
+        <dd>{areas.length ? `${formatArea(Math.min(...areas))} to ${formatArea(Math.max(...areas))}` : '—'}</dd>
+      </dl>
+      {result.warnings.length > 0 && <Warnings warnings={result.warnings} />}
+      {repaired.length > 0 && (
+        <Notice tone="info" title={`${repaired.length} feature${repaired.length > 1 ? 's were' : ' was'} repaired`}>
+          Invalid outlines (for example a ring that crosses itself) were made valid: features {repaired.map((f) => f.index + 1).join(', ')}. Check them on the map.
+        </Notice>
+      )}
+      {onLand.length > 0 && (
+        <Notice tone="problem" title={`${onLand.length} on land`}>
+          Features {onLand.map((f) => f.index + 1).join(', ')} lie wholly on land according to the coastline. Check the file or the coordinate system.
+        </Notice>
+      )}
+      {preview.isPending ? <Loading what="Drawing the preview…" /> : <LazyVectorMap layers={layers} height={280} ariaLabel={`Map of the ${words.plural} read from ${result.fileName}`} />}
+      <AttributeTable result={result} />
+      {result.kind !== 'coast' && <MappingForm result={result} mapping={mapping} onChange={setMapping} />}
+      {confirm.isError && !duplicates && <Notice tone="problem">{(confirm.error as Error).message}</Notice>}
+      {duplicates ? (
+        <Notice tone="problem" title="Some lease ids already exist">
+          <p>{duplicates.join(', ')} already exist among your leases. Replace them with the new outlines, or keep both?</p>
+          <div className="mt-2 flex gap-2">
+            <Button type="button" onClick={() => confirm.mutate('replace')}>
+              Replace them
+            </Button>
+            <Button type="button" variant="secondary" onClick={() => confirm.mutate('keep')}>
+              Keep both
+            </Button>
+          </div>
+        </Notice>
+      ) : (
+        <div className="flex gap-2">
+          <Button type="button" onClick={() => confirm.mutate(undefined)} disabled={confirm.isPending}>
+            {confirm.isPending ? 'Saving…' : `Save ${result.featureCount} ${result.featureCount === 1 ? words.noun : words.plural}`}
+          </Button>
+          <Button type="button" variant="secondary" onClick={onRestart}>
+            Start again
+          </Button>
+        </div>
+      )}
+    </section>
+  );
+}
+
+function cleanMapping(m: ConfirmBody['mapping']): ConfirmBody['mapping'] {
+  return Object.fromEntries(Object.entries(m).filter(([, v]) => v)) as ConfirmBody['mapping'];
+}
+
+function AttributeTable({ result }: { result: ImportResult }) {
+  const rows = result.features.slice(0, 5);
+  if (result.fields.length === 0) return <p className="text-sm text-shell-700">The file has no attributes.</p>;
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full border-collapse text-sm">
+        <caption className="text-left font-semibold">First {rows.length} rows of the attribute table</caption>
+        <thead>
+          <tr className="border-b border-sand-200 text-left">
+            <th className="p-1">#</th>
+            {result.fields.map((f) => (
+              <th key={f} className="p-1">
+                {f}
+              </th>
+            ))}
+            <th className="p-1">Area</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((r) => (
+            <tr key={r.index} className="border-b border-shell-100">
+              <td className="p-1">{r.index + 1}</td>
+              {result.fields.map((f) => (
+                <td key={f} className="p-1">
+                  {String(r.properties[f] ?? '')}
+                </td>
+              ))}
+              <td className="p-1">{formatArea(r.areaM2)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+const MAPPING_LABELS: { key: keyof ConfirmBody['mapping']; label: string; help: string }[] = [
+  { key: 'leaseId', label: 'Lease id', help: 'Your own identifier for each lease.' },
+  { key: 'holder', label: 'Holder', help: 'Who holds the lease.' },
+  { key: 'species', label: 'Species', help: 'What is grown there.' },
+  { key: 'status', label: 'Status (held or candidate)', help: 'Without one, leases are saved as candidate sites, visible only to you.' },
+];
+
+function MappingForm({ result, mapping, onChange }: { result: ImportResult; mapping: ConfirmBody['mapping']; onChange: (m: ConfirmBody['mapping']) => void }) {
+  const baseId = useId();
+  return (
+    <fieldset className="space-y-2">
+      <legend className="text-lg font-semibold text-deep-900">4. Which column is which?</legend>
+      <div className="grid gap-3 sm:grid-cols-2">
+        {MAPPING_LABELS.filter((m) => result.kind === 'lease' || m.key === 'leaseId').map((m) => (
+          <div key={m.key} className="flex flex-col gap-1">
+            <label htmlFor={`${baseId}-${m.key}`} className="text-sm font-semibold">
+              {result.kind === 'zone' && m.key === 'leaseId' ? 'Zone name' : m.label}
+            </label>
+            <select
+              id={`${baseId}-${m.key}`}
+              value={mapping[m.key] ?? ''}
+              onChange={(e) => onChange({ ...mapping, [m.key]: e.target.value || undefined })}
+              className="rounded-md border border-shell-300 bg-white px-3 py-2"
+            >
+              <option value="">(none)</option>
+              {result.fields.map((f) => (
+                <option key={f} value={f}>
+                  {f}
+                </option>
+              ))}
+            </select>
+            <p className="text-xs text-shell-700">{m.help}</p>
+          </div>
+        ))}
+      </div>
+    </fieldset>
+  );
+}
