@@ -9,7 +9,7 @@ export default defineConfig({
         test: {
           name: 'node',
           environment: 'node',
-          include: ['tests/shared/**/*.test.ts', 'tests/server/**/*.test.ts'],
+          include: ['tests/shared/**/*.test.ts', 'tests/server/**/*.test.ts', 'tests/demo-data/**/*.test.ts'],
           setupFiles: ['tests/setup/node.ts'],
           testTimeout: 30_000,
           hookTimeout: 60_000,
