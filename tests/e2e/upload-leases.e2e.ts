@@ -1,0 +1,61 @@
+import path from 'node:path';
+import type { BrowserContext } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { DEMO_PASSWORD } from '../../server/db/seed';
+import { openBrowser, screenshot, signInThroughForm, watchErrors } from './browser';
+
+const baseUrl = inject('baseUrl');
+let browser: BrowserContext;
+beforeAll(async () => {
+  browser = await openBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe('uploading leases through the browser', () => {
+  it('a grower uploads the demo shapefile (UTM 24N), maps attributes and sees the leases listed', async () => {
+    const page = await browser.newPage();
+    const errors = watchErrors(page);
+    await signInThroughForm(page, baseUrl, 'grower4@brackline.test', DEMO_PASSWORD);
+    await page.getByRole('link', { name: 'Leases' }).click();
+    await page.getByRole('heading', { name: 'Leases' }).waitFor();
+    await page.getByText('No leases yet').waitFor();
+    await page.getByRole('button', { name: 'Upload lease boundaries' }).click();
+    await page.getByLabel('File').setInputFiles(path.resolve(import.meta.dirname, '../../demo-data/leases/gullstone-shellfish-leases.zip'));
+    await page.getByRole('button', { name: 'Upload and check' }).click();
+    await page.getByRole('heading', { name: '3. Check what was read' }).waitFor();
+    expect(await page.getByTestId('feature-count').textContent()).toBe('10');
+    expect(await page.getByText('EPSG:32624').count()).toBeGreaterThan(0);
+    // The attribute mapping is guessed from the field names.
+    expect(await page.getByRole('combobox', { name: 'Lease id' }).inputValue()).toBe('LEASE_ID');
+    expect(await page.getByRole('combobox', { name: 'Status (held or candidate)' }).inputValue()).toBe('STATUS');
+    await page.locator('canvas').first().waitFor();
+    await screenshot(page, 'upload-preview');
+    await page.getByRole('button', { name: /Save 10 leases/ }).click();
+    await page.getByText('10 leases added').waitFor();
+    const table = page.getByRole('table', { name: 'Leases' });
+    await table.waitFor();
+    await page.waitForFunction(() => document.querySelectorAll('table[aria-label="Leases"] tbody tr').length === 10);
+    const firstId = await table.locator('tbody tr').first().getByRole('link').textContent();
+    expect(firstId).toMatch(/^FB-\d{3}$/);
+    await screenshot(page, 'leases-table');
+    // Sorting by area through the column header: the order follows the header's aria-sort.
+    const areaHeader = table.locator('th', { hasText: 'Area' });
+    for (let click = 0; click < 2; click++) {
+      const before = await areaHeader.getAttribute('aria-sort');
+      await areaHeader.getByRole('button').click();
+      await page.waitForFunction((prev) => {
+        const th = [...document.querySelectorAll('table[aria-label="Leases"] th')].find((h) => h.textContent?.includes('Area'));
+        return th && th.getAttribute('aria-sort') !== prev && th.getAttribute('aria-sort') !== 'none';
+      }, before);
+      await page.waitForTimeout(300);
+      const direction = await areaHeader.getAttribute('aria-sort');
+      const areas = (await table.locator('tbody tr td:nth-child(6)').allTextContents()).map((a) => Number(a.replace(/,/g, '')));
+      const sorted = [...areas].sort((a, b) => (direction === 'ascending' ? a - b : b - a));
+      expect(areas).toEqual(sorted);
+    }
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
