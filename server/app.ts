@@ -21,6 +21,12 @@ import { registerAdminRoutes } from './routes/admin.routes';
 import { registerCalcRoutes } from './routes/calc.routes';
 import { registerImportRoutes } from './routes/imports.routes';
 import { registerLeaseRoutes } from './routes/leases.routes';
+import { registerRiverRoutes } from './routes/rivers.routes';
+import { registerScreeningRoutes } from './routes/screening.routes';
+import { createInlineScreeningJobs, type ScreeningJobs } from './jobs/screening-jobs';
+import { createRiversService } from './services/rivers.service';
+import { createScreeningService } from './services/screening.service';
+import { createSweepService } from './services/sweep.service';
 import { createAccountsService } from './services/accounts.service';
 import { createImportsService } from './services/imports.service';
 import { createLeasesService } from './services/leases.service';
@@ -34,6 +40,8 @@ export interface AppDeps {
   authRateLimit?: { limit: number; windowMs: number };
   calcRateLimit?: { limit: number; windowMs: number };
   uploadLimits?: Partial<UploadLimits>;
+  /** Background screening; inline (at once, in the request) when not given. */
+  jobs?: ScreeningJobs;
 }
 
 const API_BASE = '/api/v1';
@@ -109,8 +117,14 @@ export function createApp(deps: AppDeps): Express {
   registerAdminRoutes(ctx, db, accounts);
   registerCalcRoutes(ctx);
   const uploadLimits = { ...DEFAULT_UPLOAD_LIMITS, ...Object.fromEntries(Object.entries(deps.uploadLimits ?? {}).filter(([, v]) => v !== undefined)) };
-  registerImportRoutes(ctx, db, createImportsService({ db, limits: uploadLimits }), uploadLimits.maxCompressedBytes);
-  registerLeaseRoutes(ctx, createLeasesService(db));
+  const screening = createScreeningService({ db });
+  const jobs = deps.jobs ?? createInlineScreeningJobs(db, screening);
+  const leasesChanged = (ids: string[]) => jobs.enqueueLeases(ids);
+  registerImportRoutes(ctx, db, createImportsService({ db, limits: uploadLimits, onLeasesChanged: leasesChanged }), uploadLimits.maxCompressedBytes);
+  registerLeaseRoutes(ctx, createLeasesService(db, { onLeasesChanged: leasesChanged }));
+  const rivers = createRiversService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) });
+  registerRiverRoutes(ctx, rivers, jobs);
+  registerScreeningRoutes(ctx, db, rivers, screening, createSweepService({ db, screening }));
 
   const openApi = buildOpenApiDocument(registry);
   router.get('/openapi.json', (_req, res) => {

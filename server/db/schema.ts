@@ -477,3 +477,23 @@ export const leaseAnnualExposure = pgTable(
   },
   (t) => [primaryKey({ columns: [t.leaseId, t.riverId] })],
 );
+
+/** Progress of background screening runs, for the screens that show "Screening 3 of 10 scenarios…". */
+export const screeningRuns = pgTable(
+  'screening_runs',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    riverId: uuid('river_id')
+      .notNull()
+      .references(() => rivers.id, { onDelete: 'cascade' }),
+    status: text('status', { enum: ['queued', 'running', 'done', 'failed'] }).notNull(),
+    total: integer('total').notNull().default(0),
+    done: integer('done').notNull().default(0),
+    message: text('message'),
+    error: text('error'),
+    queuedAt: timestamp('queued_at', { withTimezone: true }).notNull().defaultNow(),
+    startedAt: timestamp('started_at', { withTimezone: true }),
+    finishedAt: timestamp('finished_at', { withTimezone: true }),
+  },
+  (t) => [index('screening_runs_river_idx').on(t.riverId, t.queuedAt)],
+);

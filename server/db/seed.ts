@@ -57,6 +57,12 @@ if (import.meta.url === `file://${process.argv[1]}`) {
   }
   const { db, pool } = createDb(url, 2);
   seedDemo(db)
+    .then(async () => {
+      if (process.env.DEMO_REGION !== 'false') {
+        const { seedDemoRegion } = await import('./seed-demo-region');
+        await seedDemoRegion(db, (m) => console.log(`[brackline] ${m}`));
+      }
+    })
     .then(() => console.log('[brackline] demo data loaded'))
     .catch((err) => {
       console.error('[brackline] seeding failed:', err);

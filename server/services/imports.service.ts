@@ -51,7 +51,7 @@ function fieldsOf(parsed: ParsedUpload): string[] {
   return [...new Set(parsed.layers.flatMap((l) => l.fields))];
 }
 
-export function createImportsService(deps: { db: Database; limits?: Partial<UploadLimits> }) {
+export function createImportsService(deps: { db: Database; limits?: Partial<UploadLimits>; onLeasesChanged?: (ids: string[]) => Promise<void> }) {
   const { db } = deps;
   let catalogue: CrsCatalogue | null = null;
   const crsCatalogue = () => {
@@ -227,7 +227,7 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
       return v === null || v === undefined || v === '' ? null : String(v).trim();
     };
 
-    return db.transaction(async (tx) => {
+    const result = await db.transaction(async (tx) => {
       const ids: string[] = [];
       let created = 0;
       let updated = 0;
@@ -301,6 +301,8 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
       });
       return { created, updated, ids };
     });
+    if (row.kind === 'lease' && result.ids.length) await deps.onLeasesChanged?.(result.ids);
+    return result;
   }
 
   function searchCrsCatalogue() {

@@ -71,7 +71,7 @@ const SELECT_LEASE = (withGeometry: boolean) => sql`
          ${withGeometry ? sql`, ST_AsGeoJSON(l.geom, 7) AS geometry` : sql``}
     FROM leases l JOIN users u ON u.id = l.owner_id`;
 
-export function createLeasesService(db: Database) {
+export function createLeasesService(db: Database, hooks: { onLeasesChanged?: (ids: string[]) => Promise<void> } = {}) {
   function filters(user: CurrentUser, q: Partial<LeaseListQuery>): SQL {
     const parts: SQL[] = [visibleLeases(user)];
     if (q.q) parts.push(sql`(l.lease_code ILIKE ${`%${q.q}%`} OR l.holder ILIKE ${`%${q.q}%`})`);
@@ -124,6 +124,7 @@ export function createLeasesService(db: Database) {
         after: patch,
       });
     });
+    if (patch.species !== undefined || patch.status !== undefined) await hooks.onLeasesChanged?.([id]);
     return get(user, id);
   }
 

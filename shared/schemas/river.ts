@@ -49,6 +49,10 @@ const settingsShape = {
   gaugeName: z.string().trim().max(120, { error: 'gaugeName must be at most 120 characters' }).optional(),
   gaugeCode: z.string().trim().max(60, { error: 'gaugeCode must be at most 60 characters' }).optional(),
   coastId: z.uuid({ error: 'coastId must be a coast id (UUID)' }).optional(),
+  designDistribution: z
+    .enum(['gev', 'lp3', 'gumbel'], { error: "designDistribution must be 'gev', 'lp3' or 'gumbel'" })
+    .optional()
+    .describe('Which flood-frequency fit gives the design flows of the scenarios (default gev)'),
 };
 
 /** Body of POST /rivers: required geometry of the mouth, optional physics with defaults. */
@@ -60,8 +64,8 @@ export const riverUpdateSchema = riverCreateSchema.partial();
 export type RiverUpdate = z.infer<typeof riverUpdateSchema>;
 
 /** Settings with every default filled in. */
-export type RiverSettings = Required<Omit<RiverCreate, 'shelfSlope' | 'gaugeName' | 'gaugeCode' | 'coastId'>> &
-  Pick<RiverCreate, 'shelfSlope' | 'gaugeName' | 'gaugeCode' | 'coastId'>;
+export type RiverSettings = Required<Omit<RiverCreate, 'shelfSlope' | 'gaugeName' | 'gaugeCode' | 'coastId' | 'designDistribution'>> &
+  Pick<RiverCreate, 'shelfSlope' | 'gaugeName' | 'gaugeCode' | 'coastId' | 'designDistribution'>;
 
 /** Fills in documented defaults and lists which fields use them. */
 export function applyRiverDefaults(input: RiverCreate): { settings: RiverSettings; defaultsUsed: DefaultableField[] } {
@@ -90,6 +94,27 @@ export const riverSchema = z.object({
   updatedAt: z.string(),
 });
 export type River = z.infer<typeof riverSchema>;
+
+export const flowRecordUploadQuerySchema = z.strictObject({
+  units: z.enum(['m3s', 'cfs'], { error: "units must be 'm3s' (cubic metres per second) or 'cfs' (cubic feet per second)" }),
+  waterYearStart: z
+    .string()
+    .regex(/^(0[1-9]|1[0-2])-(0[1-9]|[12]\d|3[01])$/, { error: 'waterYearStart must be a day of the year written MM-DD, e.g. 10-01' })
+    .default('10-01'),
+  acceptProblems: z
+    .enum(['true', 'false'], { error: 'acceptProblems must be true or false' })
+    .default('false')
+    .transform((v) => v === 'true')
+    .describe('Store the record without the rows that have problems'),
+});
+
+export const scenarioUpdateSchema = z.strictObject(
+  {
+    name: z.string().trim().min(1, { error: 'name cannot be empty' }).max(120, { error: 'name must be at most 120 characters' }).optional(),
+    durationHours: numberField('durationHours', 'h', 'How long the flow lasts', { min: 0, exclusiveMin: true, max: 24 * 365 }).optional(),
+  },
+  strictObjectError('scenario'),
+);
 
 export const scenarioCreateSchema = z.strictObject(
   {

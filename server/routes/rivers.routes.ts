@@ -1,0 +1,181 @@
+import express from 'express';
+import { z } from 'zod';
+import {
+  flowRecordUploadQuerySchema,
+  riverCreateSchema,
+  riverSchema,
+  riverUpdateSchema,
+  scenarioCreateSchema,
+  scenarioSchema,
+  scenarioUpdateSchema,
+} from '#shared/schemas/river';
+import { defineRoute, type RouteContext } from '../http/route';
+import { ForbiddenError, UnsupportedMediaTypeError } from '../lib/errors';
+import type { ScreeningJobs } from '../jobs/screening-jobs';
+import type { RiversService } from '../services/rivers.service';
+
+const READERS = ['grower', 'adviser', 'regulator'] as const;
+const idParams = z.object({ id: z.uuid({ error: 'id must be a river id (UUID)' }) });
+const scenarioParams = z.object({ id: z.uuid({ error: 'id must be a scenario id (UUID)' }) });
+
+export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jobs: ScreeningJobs): void {
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/rivers',
+    summary: 'Rivers of your jurisdiction and your own',
+    tags: ['rivers'],
+    access: { roles: READERS },
+    response: z.object({ items: z.array(riverSchema) }),
+    handler: async ({ user }) => ({ items: await rivers.list(user!) }),
+  });
+
+  defineRoute(ctx, {
+    method: 'post',
+    path: '/rivers',
+    summary: 'Create a river; optional physics left out get documented defaults (listed in defaultsUsed)',
+    tags: ['rivers'],
+    access: { roles: READERS },
+    body: riverCreateSchema,
+    response: riverSchema,
+    successStatus: 201,
+    handler: ({ user, body }) => rivers.create(user!, body),
+  });
+
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/rivers/:id',
+    summary: 'One river with its settings and which of them are still defaults',
+    tags: ['rivers'],
+    access: { roles: READERS },
+    params: idParams,
+    response: riverSchema,
+    errors: [404],
+    handler: ({ user, params }) => rivers.get(user!, params.id),
+  });
+
+  defineRoute(ctx, {
+    method: 'patch',
+    path: '/rivers/:id',
+    summary: "Change a river's settings (its creator or a regulator of its jurisdiction); re-screens its leases",
+    tags: ['rivers'],
+    access: { roles: READERS },
+    params: idParams,
+    body: riverUpdateSchema,
+    response: riverSchema,
+    errors: [404],
+    handler: ({ user, params, body }) => rivers.update(user!, params.id, body),
+  });
+
+  defineRoute(ctx, {
+    method: 'post',
+    path: '/rivers/:id/flow-records',
+    summary: 'Upload the gauge record (CSV: date or date-time, discharge): fits flood frequency and makes the scenarios',
+    tags: ['rivers'],
+    access: { roles: READERS },
+    middleware: [express.text({ type: ['text/csv', 'text/plain'], limit: '50mb' })],
+    bodyContentType: 'text/csv',
+    params: idParams,
+    query: flowRecordUploadQuerySchema,
+    body: z.string({ error: 'Send the record as the request body with Content-Type: text/csv' }),
+    errors: [404, 415, 422],
+    successStatus: 201,
+    handler: async ({ user, params, query, body, req }) => {
+      if (!req.is(['text/csv', 'text/plain'])) throw new UnsupportedMediaTypeError('Send the gauge record as CSV text with the header Content-Type: text/csv.');
+      const fileName = typeof req.headers['x-file-name'] === 'string' ? req.headers['x-file-name'] : undefined;
+      return rivers.uploadFlowRecord(user!, params.id, body, { ...query, fileName });
+    },
+  });
+
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/rivers/:id/flow-records',
+    summary: "The river's active flow record: row problems, gaps, annual peaks, flood-frequency fit, durations and percentiles",
+    tags: ['rivers'],
+    access: { roles: READERS },
+    params: idParams,
+    errors: [404],
+    handler: ({ user, params }) => rivers.flowRecord(user!, params.id),
+  });
+
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/rivers/:id/flow-records/readings',
+    summary: 'The hydrograph, thinned to at most 5 000 points (each keeps its bucket’s highest flow)',
+    tags: ['rivers'],
+    access: { roles: READERS },
+    params: idParams,
+    errors: [404],
+    handler: async ({ user, params }) => ({ points: await rivers.readings(user!, params.id) }),
+  });
+
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/rivers/:id/scenarios',
+    summary: "The river's flood scenarios: from the flood-frequency fit, seasonal high flows and typed flows",
+    tags: ['scenarios'],
+    access: { roles: READERS },
+    params: idParams,
+    response: z.object({ items: z.array(scenarioSchema) }),
+    errors: [404],
+    handler: async ({ user, params }) => ({ items: await rivers.scenarios(user!, params.id) }),
+  });
+
+  defineRoute(ctx, {
+    method: 'post',
+    path: '/rivers/:id/scenarios',
+    summary: 'Add a typed flow scenario',
+    tags: ['scenarios'],
+    access: { roles: READERS },
+    params: idParams,
+    body: scenarioCreateSchema,
+    response: scenarioSchema,
+    successStatus: 201,
+    errors: [404],
+    handler: ({ user, params, body }) => rivers.createScenario(user!, params.id, body),
+  });
+
+  defineRoute(ctx, {
+    method: 'patch',
+    path: '/scenarios/:id',
+    summary: "Rename a scenario or change its flood duration",
+    tags: ['scenarios'],
+    access: { roles: READERS },
+    params: scenarioParams,
+    body: scenarioUpdateSchema,
+    response: scenarioSchema,
+    errors: [404],
+    handler: ({ user, params, body }) => rivers.updateScenario(user!, params.id, body),
+  });
+
+  defineRoute(ctx, {
+    method: 'delete',
+    path: '/scenarios/:id',
+    summary: 'Delete a typed scenario',
+    tags: ['scenarios'],
+    access: { roles: READERS },
+    params: scenarioParams,
+    errors: [404],
+    handler: async ({ user, params }) => {
+      await rivers.deleteScenario(user!, params.id);
+      return undefined;
+    },
+  });
+
+  defineRoute(ctx, {
+    method: 'post',
+    path: '/rivers/:id/screening-runs',
+    summary: "Re-screen every lease of the river now (normally automatic after a change)",
+    tags: ['screenings'],
+    access: { roles: ['adviser', 'regulator', 'grower'] },
+    params: idParams,
+    successStatus: 202,
+    errors: [404],
+    handler: async ({ user, params }) => {
+      const river = await rivers.load(user!, params.id);
+      if (river.owner_id !== user!.id && !(user!.role === 'regulator' && river.jurisdiction_id === user!.jurisdictionId)) {
+        throw new ForbiddenError("Only the river's creator or a regulator of its jurisdiction can start a screening run.");
+      }
+      return { runId: await jobs.enqueueRiver(params.id) };
+    },
+  });
+}

@@ -1,0 +1,306 @@
+/**
+ * Footprints and screenings. A footprint is the plume of one river at one flow, built on the
+ * river's coastline by the shared engine and stored in PostGIS with its bands cut into small
+ * pieces; a screening is one lease under one scenario: fraction of the lease in each band
+ * (computed in PostGIS), the field values over it and the engine's rating.
+ */
+import { createHash } from 'node:crypto';
+import { sql } from 'drizzle-orm';
+import type { Geometry } from 'geojson';
+import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared/biology/species-tolerance';
+import { buildFootprint } from '#shared/geometry/build-footprint';
+import { computePlume, type PlumeResult } from '#shared/physics/compute-plume';
+import { type ExposureParameters, exposureParameters, fieldAt } from '#shared/physics/exposure-field';
+import { MODEL_VERSION } from '#shared/physics/model-version';
+import type { RiverSettings } from '#shared/schemas/river';
+import { annualiseExposure } from '#shared/scoring/annualise';
+import { salinityBandId, screeningBandSpecs, strictestSpecies } from '#shared/scoring/lease-band-specs';
+import { daysBelowTolerance, scoreLease } from '#shared/scoring/score-lease';
+import type { Database } from '../db/client';
+import { NotFoundError, UnprocessableError } from '../lib/errors';
+
+const RATING_ORDER = ['low', 'moderate', 'high', 'severe'] as const;
+const INDICATOR_STANDARD = 14;
+
+interface RiverInputs {
+  id: string;
+  name: string;
+  version: number;
+  jurisdictionId: string | null;
+  ownerId: string | null;
+  settings: RiverSettings;
+  coastId: string;
+  coastGeometry: Geometry;
+  coastStamp: string;
+}
+
+export interface FlowSpec {
+  scenarioId?: string | null;
+  discharge: number;
+  durationHours: number;
+}
+
+/** The water and plume inputs of the engine for a river at one flow. */
+export function plumeFor(settings: RiverSettings, flow: { discharge: number; durationHours: number }): { plume: PlumeResult; params: ExposureParameters } {
+  const plume = computePlume({
+    latitude: settings.mouthLatitude,
+    discharge: flow.discharge,
+    riverSalinity: settings.riverSalinity,
+    riverTemperature: settings.riverTemperature,
+    seaSalinity: settings.seaSalinity,
+    seaTemperature: settings.seaTemperature,
+    mouthWidth: settings.mouthWidth,
+    mouthDepth: settings.mouthDepth,
+    shelfSlope: settings.shelfSlope,
+    alongshoreShare: settings.alongshoreShare,
+    floodDurationHours: flow.durationHours,
+  });
+  const params = exposureParameters(
+    {
+      mixingLength: settings.mixingLength,
+      t90DayHours: settings.t90DayHours,
+      t90NightHours: settings.t90NightHours,
+      daylightFraction: settings.daylightFraction,
+      indicator: settings.indicator,
+    },
+    { seaSalinity: settings.seaSalinity, riverSalinity: settings.riverSalinity },
+    flow.discharge,
+  );
+  return { plume, params };
+}
+
+function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
+  if (species && (SPECIES_IDS as readonly string[]).includes(species)) return { tolerance: getSpeciesTolerance(species), known: true };
+  return { tolerance: strictestSpecies(), known: false };
+}
+
+export function createScreeningService(deps: { db: Database }) {
+  const { db } = deps;
+
+  async function riverInputs(riverId: string): Promise<RiverInputs> {
+    const res = await db.execute<{ id: string; name: string; version: number; jurisdiction_id: string | null; owner_id: string | null; settings: RiverSettings; coast_id: string | null }>(sql`
+      SELECT id, name, version, jurisdiction_id, owner_id, settings, coast_id FROM rivers WHERE id = ${riverId}::uuid`);
+    const river = res.rows[0];
+    if (!river) throw new NotFoundError('No river with this id.');
+    const coast = await db.execute<{ id: string; geometry: string; created_at: Date }>(sql`
+      SELECT id, ST_AsGeoJSON(geom) AS geometry, created_at FROM coasts
+       WHERE (${river.coast_id}::uuid IS NOT NULL AND id = ${river.coast_id}::uuid)
+          OR (${river.coast_id}::uuid IS NULL AND ((shared AND jurisdiction_id = ${river.jurisdiction_id}::uuid) OR owner_id = ${river.owner_id}))
+       ORDER BY (id = ${river.coast_id}::uuid) DESC NULLS LAST, (form = 'line') DESC, shared DESC, created_at DESC LIMIT 1`);
+    if (!coast.rows[0]) {
+      throw new UnprocessableError(`${river.name} has no coastline to build its plume on. Upload the coast (a shoreline or land polygons) of its region first.`);
+    }
+    return {
+      id: river.id,
+      name: river.name,
+      version: river.version,
+      jurisdictionId: river.jurisdiction_id,
+      ownerId: river.owner_id,
+      settings: river.settings,
+      coastId: coast.rows[0].id,
+      coastGeometry: JSON.parse(coast.rows[0].geometry),
+      coastStamp: `${coast.rows[0].id}@${new Date(coast.rows[0].created_at).toISOString()}`,
+    };
+  }
+
+  /** Builds (or finds, by input hash) the footprint of a river at one flow. */
+  async function ensureFootprint(river: RiverInputs, flow: FlowSpec): Promise<{ id: string; plume: PlumeResult; created: boolean }> {
+    const bands = screeningBandSpecs(river.settings.seaSalinity, INDICATOR_STANDARD);
+    const inputHash = createHash('sha256')
+      .update(JSON.stringify({ MODEL_VERSION, settings: river.settings, coast: river.coastStamp, discharge: flow.discharge, durationHours: flow.durationHours, bands }))
+      .digest('hex');
+    const existing = await db.execute<{ id: string; plume: PlumeResult }>(sql`
+      SELECT id, plume FROM footprints WHERE river_id = ${river.id}::uuid AND input_hash = ${inputHash}`);
+    if (existing.rows[0]) {
+      if (flow.scenarioId) await db.execute(sql`UPDATE footprints SET scenario_id = ${flow.scenarioId}::uuid WHERE id = ${existing.rows[0].id}::uuid`);
+      return { id: existing.rows[0].id, plume: existing.rows[0].plume, created: false };
+    }
+    let plume: PlumeResult;
+    let footprint: ReturnType<typeof buildFootprint>;
+    try {
+      const engine = plumeFor(river.settings, flow);
+      plume = engine.plume;
+      footprint = buildFootprint({
+        coast: river.coastGeometry as never,
+        mouth: [river.settings.mouthLongitude, river.settings.mouthLatitude],
+        outflowAzimuth: river.settings.outflowAzimuthDeg,
+        plume,
+        params: engine.params,
+        bands,
+        options: { alongSteps: 200 },
+      });
+    } catch (err) {
+      if (err instanceof RangeError || err instanceof TypeError) throw new UnprocessableError(`${river.name}: ${(err as Error).message}`);
+      throw err;
+    }
+    const warnings = [...plume.warnings, ...footprint.warnings];
+    return db.transaction(async (tx) => {
+      const inserted = await tx.execute<{ id: string }>(sql`
+        INSERT INTO footprints (river_id, scenario_id, discharge, duration_hours, model_version, input_hash, plume, warnings, path)
+        VALUES (${river.id}::uuid, ${flow.scenarioId ?? null}::uuid, ${flow.discharge}, ${flow.durationHours}, ${MODEL_VERSION}, ${inputHash},
+                ${JSON.stringify(plume)}::jsonb, ${JSON.stringify(warnings)}::jsonb, ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify(footprint.path.geometry)}), 4326))
+        ON CONFLICT (river_id, input_hash) DO UPDATE SET scenario_id = COALESCE(EXCLUDED.scenario_id, footprints.scenario_id)
+        RETURNING id`);
+      const id = inserted.rows[0].id;
+      const rows = [
+        ...(footprint.bulge ? [{ band: 'bulge', name: 'Bulge near the mouth', kind: 'bulge', threshold: null, order: 0, geometry: footprint.bulge.geometry }] : []),
+        ...footprint.bands.map((b, i) => ({
+          band: b.properties.id,
+          name: b.properties.name,
+          kind: b.properties.kind,
+          threshold: Object.values(b.properties.threshold)[0] as number,
+          order: i + 1,
+          geometry: b.geometry,
+        })),
+      ].filter((r) => (r.geometry.type === 'MultiPolygon' ? r.geometry.coordinates.length > 0 : r.geometry.coordinates.length > 0));
+      if (rows.length) {
+        await tx.execute(sql`
+          INSERT INTO footprint_bands (footprint_id, band_id, name, kind, threshold, sort_order, geom)
+          SELECT ${id}::uuid, r.band, r.name, r.kind, r.threshold, r.ord,
+                 ST_Multi(ST_CollectionExtract(ST_MakeValid(ST_SetSRID(ST_GeomFromGeoJSON(r.geometry::text), 4326)), 3))
+            FROM jsonb_to_recordset(${JSON.stringify(rows.map((r) => ({ ...r, ord: r.order })))}::jsonb)
+                 AS r(band text, name text, kind text, threshold double precision, ord int, geometry jsonb)
+          ON CONFLICT DO NOTHING`);
+        await tx.execute(sql`
+          INSERT INTO footprint_band_pieces (footprint_id, band_id, geom)
+          SELECT footprint_id, band_id, ST_Subdivide(geom, 64) FROM footprint_bands WHERE footprint_id = ${id}::uuid AND band_id <> 'bulge'`);
+      }
+      return { id, plume, created: true };
+    });
+  }
+
+  /** Leases a river screens: those of its jurisdiction and those of its owner. */
+  function scopedLeases(river: RiverInputs, alias = 'l') {
+    const a = sql.raw(alias);
+    return sql`((${river.jurisdictionId}::uuid IS NOT NULL AND ${a}.jurisdiction_id = ${river.jurisdictionId}::uuid) OR ${a}.owner_id = ${river.ownerId})`;
+  }
+
+  /** Screens every scoped lease under one scenario's footprint, replacing earlier rows. */
+  async function screenFootprint(river: RiverInputs, footprint: { id: string; plume: PlumeResult }, scenario: { id: string; aep: number | null; discharge: number; durationHours: number; name: string }, leaseIds?: string[]) {
+    const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
+    const fractions = await db.execute<{ lease_id: string; fractions: Record<string, number> }>(sql`
+      WITH frac AS (
+        SELECT l.id AS lease_id, p.band_id,
+               SUM(CASE WHEN ST_CoveredBy(l.geom, p.geom) THEN l.area_m2 ELSE ST_Area(ST_Intersection(l.geom, p.geom)::geography) END) / NULLIF(l.area_m2, 0) AS fraction
+          FROM leases l JOIN footprint_band_pieces p ON p.footprint_id = ${footprint.id}::uuid AND ST_Intersects(l.geom, p.geom)
+         WHERE ${scopedLeases(river)} ${leaseFilter}
+         GROUP BY l.id, p.band_id)
+      SELECT lease_id, jsonb_object_agg(band_id, LEAST(1, fraction)) AS fractions FROM frac GROUP BY lease_id`);
+    const byLease = new Map(fractions.rows.map((r) => [r.lease_id, r.fractions]));
+    const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null }>(sql`
+      SELECT l.id, l.species,
+             ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * ST_Length(f.path::geography) AS s,
+             ST_Distance(l.geom::geography, f.path::geography) AS x
+        FROM leases l, footprints f
+       WHERE f.id = ${footprint.id}::uuid AND ${scopedLeases(river)} ${leaseFilter}`);
+    const { params } = plumeFor(river.settings, scenario);
+    const days = scenario.durationHours / 24;
+    const rows = leases.rows.map((l) => {
+      const fractionsOfLease = byLease.get(l.id) ?? {};
+      const { tolerance, known } = speciesOf(l.species);
+      const inPlume = (fractionsOfLease['plume-edge'] ?? 0) > 0;
+      const field = inPlume && l.s !== null && l.x !== null ? fieldAt(footprint.plume, params, Math.max(0, l.s), Math.max(0, l.x)) : null;
+      // The field at the lease's nearest point to the coast walked, made consistent with the
+      // band polygons it touches (the bands also hold the bulge, which the path distance misses).
+      const inSpeciesBand = (fractionsOfLease[salinityBandId(tolerance.chronicLowerSalinity)] ?? 0) > 0;
+      const inIndicatorBand = (fractionsOfLease['indicator-over-standard'] ?? 0) > 0;
+      let lowestSalinity = field ? field.salinity : river.settings.seaSalinity;
+      lowestSalinity = inSpeciesBand ? Math.min(lowestSalinity, tolerance.chronicLowerSalinity - 0.1) : Math.max(lowestSalinity, tolerance.chronicLowerSalinity);
+      let highestIndicator = field ? field.indicator : 0;
+      highestIndicator = inIndicatorBand ? Math.max(highestIndicator, INDICATOR_STANDARD * 1.01) : Math.min(highestIndicator, INDICATOR_STANDARD);
+      const below = daysBelowTolerance(inPlume ? lowestSalinity : null, days, tolerance);
+      const speciesBand = salinityBandId(tolerance.chronicLowerSalinity);
+      const score = scoreLease({
+        tolerance,
+        scenario: { aep: scenario.aep, discharge: scenario.discharge, floodDurationDays: days, name: scenario.name },
+        bandFractions: {
+          'plume-edge': fractionsOfLease['plume-edge'] ?? 0,
+          [speciesBand]: fractionsOfLease[speciesBand] ?? 0,
+          'indicator-over-standard': fractionsOfLease['indicator-over-standard'] ?? 0,
+        },
+        lowestSalinity: inPlume ? lowestSalinity : null,
+        highestIndicator: inPlume ? highestIndicator : null,
+        daysBelowTolerance: below,
+        indicatorThreshold: INDICATOR_STANDARD,
+      });
+      const reasons = [...score.reasons];
+      if (!known) reasons.push(`The lease's species is not set, so the strictest salinity limit in the table (${tolerance.commonNamePlural}, ${tolerance.chronicLowerSalinity}) was used. Set the species for a rating of its own.`);
+      return {
+        lease: l.id,
+        fractions: fractionsOfLease,
+        lowest: inPlume ? lowestSalinity : null,
+        highest: inPlume ? highestIndicator : null,
+        days: below,
+        rating: score.rating,
+        score: score.score,
+        reasons,
+        numbers: { ...score.numbers, species: tolerance.id, speciesKnown: known, alongM: l.s, offshoreM: l.x },
+      };
+    });
+    const inputHash = createHash('sha256').update(`${footprint.id}:${MODEL_VERSION}`).digest('hex');
+    const CHUNK = 1000;
+    for (let i = 0; i < rows.length; i += CHUNK) {
+      await db.execute(sql`
+        INSERT INTO screenings (lease_id, scenario_id, footprint_id, river_id, band_fractions, lowest_salinity, highest_indicator, days_below_tolerance, rating, score, reasons, numbers, model_version, input_hash, computed_at)
+        SELECT r.lease, ${scenario.id}::uuid, ${footprint.id}::uuid, ${river.id}::uuid, r.fractions, r.lowest, r.highest, r.days, r.rating, r.score, r.reasons, r.numbers, ${MODEL_VERSION}, ${inputHash}, now()
+          FROM jsonb_to_recordset(${JSON.stringify(rows.slice(i, i + CHUNK))}::jsonb)
+               AS r(lease uuid, fractions jsonb, lowest double precision, highest double precision, days double precision, rating text, score double precision, reasons jsonb, numbers jsonb)
+        ON CONFLICT (lease_id, scenario_id) DO UPDATE SET footprint_id = EXCLUDED.footprint_id, band_fractions = EXCLUDED.band_fractions,
+          lowest_salinity = EXCLUDED.lowest_salinity, highest_indicator = EXCLUDED.highest_indicator, days_below_tolerance = EXCLUDED.days_below_tolerance,
+          rating = EXCLUDED.rating, score = EXCLUDED.score, reasons = EXCLUDED.reasons, numbers = EXCLUDED.numbers, model_version = EXCLUDED.model_version,
+          input_hash = EXCLUDED.input_hash, computed_at = now()`);
+    }
+    return rows.length;
+  }
+
+  /** Annualised exposure per lease across the river's flood-frequency scenarios. */
+  async function annualise(river: RiverInputs, leaseIds?: string[]) {
+    const leaseFilter = leaseIds ? sql`AND s.lease_id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
+    const res = await db.execute<{ lease_id: string; points: { aep: number; days: number; rating: string }[] }>(sql`
+      SELECT s.lease_id, jsonb_agg(jsonb_build_object('aep', sc.aep, 'days', s.days_below_tolerance, 'rating', s.rating)) AS points
+        FROM screenings s JOIN scenarios sc ON sc.id = s.scenario_id
+       WHERE s.river_id = ${river.id}::uuid AND sc.kind = 'aep' ${leaseFilter}
+       GROUP BY s.lease_id`);
+    for (const row of res.rows) {
+      const points = row.points.filter((p) => p.aep > 0 && p.aep < 1);
+      if (!points.length) continue;
+      const result = annualiseExposure(points.map((p) => ({ aep: p.aep, days: p.days })));
+      const worst = points.reduce((w, p) => (RATING_ORDER.indexOf(p.rating as never) > RATING_ORDER.indexOf(w as never) ? p.rating : w), 'low');
+      await db.execute(sql`
+        INSERT INTO lease_annual_exposure (lease_id, river_id, expected_days_per_year, probability_any_exposure, worst_rating, details, computed_at)
+        VALUES (${row.lease_id}::uuid, ${river.id}::uuid, ${result.expectedDaysPerYear}, ${result.probabilityOfAnyExposure}, ${worst}, ${JSON.stringify(result)}::jsonb, now())
+        ON CONFLICT (lease_id, river_id) DO UPDATE SET expected_days_per_year = EXCLUDED.expected_days_per_year,
+          probability_any_exposure = EXCLUDED.probability_any_exposure, worst_rating = EXCLUDED.worst_rating, details = EXCLUDED.details, computed_at = now()`);
+    }
+  }
+
+  /** Every scenario of a river: footprints (cached by inputs) and screenings of every scoped lease. */
+  async function screenRiver(riverId: string, onProgress?: (done: number, total: number, what: string) => Promise<void> | void, leaseIds?: string[]) {
+    const river = await riverInputs(riverId);
+    const scenarios = await db.execute<{ id: string; aep: number | null; discharge: number; duration_hours: number; name: string }>(sql`
+      SELECT id, aep, discharge, duration_hours, name FROM scenarios WHERE river_id = ${riverId}::uuid ORDER BY discharge`);
+    let screened = 0;
+    for (const [i, s] of scenarios.rows.entries()) {
+      await onProgress?.(i, scenarios.rows.length, `Building the plume for ${s.name}`);
+      const fp = await ensureFootprint(river, { scenarioId: s.id, discharge: s.discharge, durationHours: s.duration_hours });
+      screened += await screenFootprint(river, fp, { id: s.id, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, name: s.name }, leaseIds);
+    }
+    // Scenarios deleted since: their screenings went with them (cascade); stale footprints of older versions are dropped.
+    await db.execute(sql`DELETE FROM footprints f WHERE f.river_id = ${riverId}::uuid AND f.scenario_id IS NULL AND f.created_at < now() - interval '1 day'`);
+    await annualise(river, leaseIds);
+    await onProgress?.(scenarios.rows.length, scenarios.rows.length, 'Done');
+    return { scenarios: scenarios.rows.length, screenings: screened };
+  }
+
+  /** Rivers whose screenings a change to these leases affects. */
+  async function riversForLeases(leaseIds: string[]): Promise<string[]> {
+    const res = await db.execute<{ id: string }>(sql`
+      SELECT DISTINCT r.id FROM rivers r JOIN leases l ON (r.jurisdiction_id IS NOT NULL AND r.jurisdiction_id = l.jurisdiction_id) OR r.owner_id = l.owner_id
+       WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)`);
+    return res.rows.map((r) => r.id);
+  }
+
+  return { riverInputs, ensureFootprint, screenFootprint, screenRiver, annualise, riversForLeases };
+}
+
+export type ScreeningService = ReturnType<typeof createScreeningService>;

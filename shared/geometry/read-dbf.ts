@@ -1,0 +1,308 @@
+/**
+ * @module shared/geometry/read-dbf
+ * Reads a shapefile's attribute table (.dbf, dBASE III/IV level 5) into plain JSON rows. The header is
+ * checked first (so a truncated or corrupt table is refused with its file named, instead of yielding
+ * garbage), the text encoding is chosen (.cpg if present, otherwise UTF-8, falling back to windows-1252
+ * when the bytes are not UTF-8), and the rows are decoded by the shapefile library's parseDbf.
+ *
+ * Layout (dBASE file header, ESRI Shapefile Technical Description 1998 + dBASE III PLUS format, (a)):
+ * byte 0 version, 4–7 record count (uint32 LE), 8–9 header length, 10–11 record length, then 32-byte
+ * field descriptors (name 0–10, type 11, length 16, decimals 17) ended by 0x0D; each record starts with
+ * a deletion flag byte.
+ */
+import { parseDbf } from 'shpjs';
+import { UploadError } from './upload-error';
+import { formatCount } from './upload-limits';
+
+/** The result of {@link readDbf}. */
+export interface DbfReading {
+  /** Column names in file order. */
+  fields: string[];
+  /** One JSON-safe object per record (dates as 'YYYY-MM-DD', empty numbers as null). */
+  rows: Record<string, string | number | boolean | null>[];
+  /** WHATWG encoding label used to decode the text, e.g. 'utf-8', 'windows-1252'. */
+  encoding: string;
+  warnings: string[];
+}
+
+/** One field descriptor. @private */
+interface FieldDescriptor {
+  nameBytes: Uint8Array;
+  type: string;
+  length: number;
+}
+
+const FIX_ADVICE = 'Export the layer again from your GIS and zip all of its files (.shp, .shx, .dbf, .prj, .cpg) together.';
+
+/**
+ * Reads a .dbf.
+ *
+ * @param bytes - the .dbf file.
+ * @param fileLabel - how to name the file in messages, e.g. 'export/leases.dbf'.
+ * @param cpg - the .cpg text (a code page name such as 'UTF-8', 'ISO-8859-1', '1252'), when the zip has one.
+ * @returns fields, rows, the encoding used and warnings (encoding assumed, .cpg not usable).
+ * @throws UploadError corrupt_dbf when the header or the table is truncated or inconsistent.
+ * @example
+ * readDbf(dbfBytes, 'leases.dbf', 'UTF-8').rows[0] // { LEASE_ID: 'FB-014', HOLDER: 'Saltreed Oysters' }
+ */
+export function readDbf(bytes: Uint8Array, fileLabel: string, cpg?: string): DbfReading {
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  if (bytes.length < 32) {
+    throw new UploadError(
+      'corrupt_dbf',
+      `${fileLabel} is only ${formatCount(bytes.length)} bytes long, shorter than the 32-byte header every .dbf starts with: the file is truncated or damaged. ${FIX_ADVICE}`,
+      { file: fileLabel, bytes: bytes.length },
+    );
+  }
+  const records = view.getUint32(4, true);
+  const headerLength = view.getUint16(8, true);
+  const recordLength = view.getUint16(10, true);
+  const fields = readDescriptors(bytes, headerLength, fileLabel);
+  const widthSum = fields.reduce((s, f) => s + f.length, 1);
+  if (headerLength > bytes.length || recordLength !== widthSum) {
+    throw new UploadError(
+      'corrupt_dbf',
+      `${fileLabel} has a damaged header (its record length, ${recordLength} bytes, does not match its ${fields.length} columns, or the header is longer than the file). ${FIX_ADVICE}`,
+      { file: fileLabel },
+    );
+  }
+  const needed = headerLength + records * recordLength;
+  if (needed > bytes.length) {
+    const whole = Math.max(0, Math.floor((bytes.length - headerLength) / recordLength));
+    throw new UploadError(
+      'corrupt_dbf',
+      `${fileLabel} is truncated: its header declares ${formatCount(records)} rows of ${recordLength} bytes, but the file holds only ${formatCount(whole)} whole rows ` +
+        `(${formatCount(bytes.length)} of ${formatCount(needed)} bytes). The copy or the export was cut short. ${FIX_ADVICE}`,
+      { file: fileLabel, declaredRows: records, wholeRows: whole },
+    );
+  }
+
+  const warnings: string[] = [];
+  const encoding = chooseEncoding(bytes, fields, headerLength, recordLength, records, fileLabel, cpg, warnings);
+  const decoder = new TextDecoder(encoding);
+  const names = fields.map((f) => decodeName(f.nameBytes, decoder));
+
+  // The library assumes the standard header length (32 × (fields + 1) + 1); rebuild the header when a writer padded it.
+  const standard = 32 * (fields.length + 1) + 1;
+  let table = bytes;
+  if (headerLength !== standard) {
+    table = new Uint8Array(standard + (bytes.length - headerLength));
+    table.set(bytes.subarray(0, standard - 1), 0);
+    table[standard - 1] = 0x0d;
+    table.set(bytes.subarray(headerLength), standard);
+    new DataView(table.buffer).setUint16(8, standard, true);
+  }
+
+  let raw: Record<string, unknown>[];
+  try {
+    raw = (
+      records === 0 ? [] : parseDbf(new DataView(table.buffer, table.byteOffset, table.byteLength) as never, encoding as never)
+    ) as Record<string, unknown>[];
+  } catch {
+    throw new UploadError('corrupt_dbf', `${fileLabel} cannot be read: its rows do not match its header. ${FIX_ADVICE}`, {
+      file: fileLabel,
+    });
+  }
+  const rows = raw.map((row) => {
+    const out: Record<string, string | number | boolean | null> = {};
+    for (const [key, value] of Object.entries(row)) out[key] = jsonSafe(value);
+    return out;
+  });
+  return { fields: names, rows, encoding, warnings };
+}
+
+/**
+ * Maps a .cpg text to a WHATWG encoding label TextDecoder accepts, or null when it names an encoding
+ * browsers and Node do not decode (e.g. DOS code page 437). Numeric code pages follow the Windows
+ * numbering (65001 = UTF-8, 1250–1258 = windows-125x, 2859n = ISO-8859-n). Note that, per the WHATWG
+ * Encoding Standard, the labels 'iso-8859-1' and 'latin1' decode as windows-1252 (a superset).
+ *
+ * @example
+ * encodingFromCpg('UTF-8') // 'utf-8'
+ * encodingFromCpg('ANSI 1252') // 'windows-1252'
+ * encodingFromCpg('ISO-8859-1') // 'windows-1252'
+ * encodingFromCpg('437') // null
+ */
+export function encodingFromCpg(cpg: string): string | null {
+  const text = cpg.replace(/^\uFEFF/, '').trim();
+  const t = text.toUpperCase();
+  const windows = /^(?:CP|WINDOWS-?|ANSI\s*|WIN)?(125\d|874)$/.exec(t);
+  const iso = /^(?:ISO[-_ ]?)?8859[-_ ]?(\d{1,2})$/.exec(t) ?? /^2859(\d)$/.exec(t);
+  let label: string = text;
+  if (/^(UTF-?8|65001|CP65001)$/.test(t)) label = 'utf-8';
+  else if (windows) label = `windows-${windows[1]}`;
+  else if (iso) label = `iso-8859-${iso[1]}`;
+  else if (/^(LATIN-?1|L1)$/.test(t)) label = 'iso-8859-1';
+  else if (/^(?:CP)?866$/.test(t)) label = 'ibm866';
+  else if (/^(?:CP)?932$/.test(t)) label = 'shift_jis';
+  else if (/^(?:CP)?936$/.test(t)) label = 'gbk';
+  else if (/^(?:CP)?949$/.test(t)) label = 'euc-kr';
+  else if (/^(?:CP)?950$/.test(t)) label = 'big5';
+  else if (/^20866$/.test(t)) label = 'koi8-r';
+  try {
+    return new TextDecoder(label).encoding;
+  } catch {
+    return null;
+  }
+}
+
+/** @private Reads the field descriptors up to the 0x0D terminator. */
+function readDescriptors(bytes: Uint8Array, headerLength: number, fileLabel: string): FieldDescriptor[] {
+  const fields: FieldDescriptor[] = [];
+  let p = 32;
+  const limit = Math.min(headerLength, bytes.length);
+  while (p < limit && bytes[p] !== 0x0d) {
+    if (p + 32 > limit) break;
+    const type = String.fromCharCode(bytes[p + 11]);
+    if (!/^[A-Z@+0-9]$/i.test(type)) {
+      throw new UploadError(
+        'corrupt_dbf',
+        `${fileLabel} has a damaged header: column ${fields.length + 1} has an unknown type code. ${FIX_ADVICE}`,
+        { file: fileLabel },
+      );
+    }
+    let end = 0;
+    while (end < 11 && bytes[p + end] !== 0) end++;
+    fields.push({ nameBytes: bytes.subarray(p, p + end), type: type.toUpperCase(), length: bytes[p + 16] });
+    p += 32;
+  }
+  if (p >= limit || bytes[p] !== 0x0d) {
+    throw new UploadError('corrupt_dbf', `${fileLabel} has a damaged or truncated header (the list of columns never ends). ${FIX_ADVICE}`, {
+      file: fileLabel,
+    });
+  }
+  return fields;
+}
+
+/** @private Picks the text encoding, adding a warning whenever it was assumed or the .cpg could not be followed. */
+function chooseEncoding(
+  bytes: Uint8Array,
+  fields: FieldDescriptor[],
+  headerLength: number,
+  recordLength: number,
+  records: number,
+  fileLabel: string,
+  cpg: string | undefined,
+  warnings: string[],
+): string {
+  const utf8 = textIsUtf8(bytes, fields, headerLength, recordLength, records);
+  const cpgFile = fileLabel.replace(/\.dbf$/i, '.cpg');
+  if (cpg !== undefined) {
+    const declared = encodingFromCpg(cpg);
+    if (declared && !(declared === 'utf-8' && utf8 === 'invalid')) return declared;
+    const fallback = utf8 === 'invalid' ? 'windows-1252' : 'utf-8';
+    if (declared === 'utf-8') {
+      warnings.push(
+        `${cpgFile} says the table is UTF-8, but ${fileLabel} holds text that is not valid UTF-8; it was read as windows-1252 (Western European). ` +
+          'Check accented names; if they look wrong, set the right code page in the .cpg (e.g. ISO-8859-1 or 1252) and upload again.',
+      );
+    } else if (utf8 !== 'ascii') {
+      warnings.push(
+        `${cpgFile} names an encoding this server cannot decode ("${cpg.trim().slice(0, 40)}"), so ${fileLabel} was read as ${fallback}. ` +
+          'Check accented names; if they look wrong, save the table as UTF-8 (or write UTF-8 in the .cpg if it already is) and upload again.',
+      );
+    }
+    return fallback;
+  }
+  if (utf8 === 'ascii') return 'utf-8';
+  if (utf8 === 'utf8') {
+    warnings.push(
+      `${fileLabel} has no .cpg saying how its text is encoded; it was read as UTF-8, which all of its text is valid in. ` +
+        `If accented names look wrong, add a ${cpgFile} holding the encoding (e.g. UTF-8 or 1252) and upload again.`,
+    );
+    return 'utf-8';
+  }
+  warnings.push(
+    `${fileLabel} has no .cpg saying how its text is encoded, and its text is not UTF-8; it was read as windows-1252 (Western European, a superset of ISO-8859-1). ` +
+      `If accented names look wrong, add a ${cpgFile} holding the right code page (e.g. ISO-8859-1, 1252 or UTF-8) and upload again.`,
+  );
+  return 'windows-1252';
+}
+
+/**
+ * @private Classifies the table's text bytes (column names and character columns): 'ascii', 'utf8' (valid,
+ * with non-ASCII), or 'invalid'. A multi-byte sequence cut off at the end of a field counts as valid, since
+ * writers truncate UTF-8 text to the column width.
+ */
+function textIsUtf8(
+  bytes: Uint8Array,
+  fields: FieldDescriptor[],
+  headerLength: number,
+  recordLength: number,
+  records: number,
+): 'ascii' | 'utf8' | 'invalid' {
+  let nonAscii = false;
+  for (const f of fields) {
+    const r = utf8Status(f.nameBytes, 0, f.nameBytes.length);
+    if (r === 'invalid') return 'invalid';
+    if (r === 'utf8') nonAscii = true;
+  }
+  const offsets: { start: number; length: number }[] = [];
+  let o = 1;
+  for (const f of fields) {
+    if (f.type === 'C' || f.type === 'M' || f.type === 'V') offsets.push({ start: o, length: f.length });
+    o += f.length;
+  }
+  for (let r = 0; r < records; r++) {
+    const base = headerLength + r * recordLength;
+    for (const { start, length } of offsets) {
+      const s = utf8Status(bytes, base + start, base + start + length);
+      if (s === 'invalid') return 'invalid';
+      if (s === 'utf8') nonAscii = true;
+    }
+  }
+  return nonAscii ? 'utf8' : 'ascii';
+}
+
+/** @private UTF-8 well-formedness (RFC 3629 §4 byte ranges) of bytes[start, end), tolerating a truncated final sequence. */
+function utf8Status(bytes: Uint8Array, start: number, end: number): 'ascii' | 'utf8' | 'invalid' {
+  let nonAscii = false;
+  let i = start;
+  while (i < end) {
+    const b = bytes[i];
+    if (b < 0x80) {
+      i++;
+      continue;
+    }
+    nonAscii = true;
+    let need: number;
+    let lo = 0x80;
+    let hi = 0xbf;
+    if (b >= 0xc2 && b <= 0xdf) need = 1;
+    else if (b >= 0xe0 && b <= 0xef) {
+      need = 2;
+      if (b === 0xe0) lo = 0xa0;
+      if (b === 0xed) hi = 0x9f;
+    } else if (b >= 0xf0 && b <= 0xf4) {
+      need = 3;
+      if (b === 0xf0) lo = 0x90;
+      if (b === 0xf4) hi = 0x8f;
+    } else return 'invalid';
+    for (let k = 1; k <= need; k++) {
+      if (i + k >= end) return 'utf8'; // cut off at the field's end: written truncated
+      const c = bytes[i + k];
+      if (k === 1 ? c < lo || c > hi : c < 0x80 || c > 0xbf) return 'invalid';
+    }
+    i += need + 1;
+  }
+  return nonAscii ? 'utf8' : 'ascii';
+}
+
+/** @private Decodes a column name the way the row decoder does (NULs removed, trimmed). */
+function decodeName(bytes: Uint8Array, decoder: TextDecoder): string {
+  return decoder.decode(bytes).replace(/\0/g, '').trim();
+}
+
+/** @private Dates become 'YYYY-MM-DD' (built from the local calendar fields the library set), NaN becomes null. */
+function jsonSafe(value: unknown): string | number | boolean | null {
+  if (value instanceof Date) {
+    if (Number.isNaN(value.getTime())) return null;
+    const y = String(value.getFullYear()).padStart(4, '0');
+    const m = String(value.getMonth() + 1).padStart(2, '0');
+    const d = String(value.getDate()).padStart(2, '0');
+    return `${y}-${m}-${d}`;
+  }
+  if (typeof value === 'number') return Number.isFinite(value) ? value : null;
+  if (typeof value === 'string' || typeof value === 'boolean') return value;
+  return value === null || value === undefined ? null : String(value);
+}

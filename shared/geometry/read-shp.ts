@@ -1,0 +1,221 @@
+/**
+ * @module shared/geometry/read-shp
+ * Reads a shapefile's main file (.shp) into GeoJSON geometries in the file's own coordinates. The header
+ * and every record header are checked first — file code, version, the declared file length against the
+ * real one, record lengths, part and point counts — so a truncated or corrupt file is refused with its
+ * name and the place it breaks, rather than silently losing its last shapes. The check also counts
+ * records and vertices, so the limits are applied before any geometry is built. The geometry itself is
+ * decoded by the shapefile library's parseShp (no .prj passed: reprojection happens later).
+ *
+ * Layout: ESRI Shapefile Technical Description, July 1998 (a) — header 100 bytes: file code 9994
+ * (int32 BE at 0), file length in 16-bit words (int32 BE at 24), version 1000 (int32 LE at 28), shape
+ * type (int32 LE at 32); records: number and content length in 16-bit words (int32 BE), then content
+ * starting with the shape type (int32 LE). Poly content: box 4–35, NumParts 36, NumPoints 40, Parts 44.
+ */
+import type { Geometry } from 'geojson';
+import { parseShp } from 'shpjs';
+import { UploadError } from './upload-error';
+import { formatCount } from './upload-limits';
+
+/** The result of {@link checkShp}. */
+export interface ShpCheck {
+  /** Shape type from the header (ESRI codes: 0 null, 1 point, 3 polyline, 5 polygon, 8 multipoint; +10 Z; +20 M; 31 multipatch). */
+  shapeType: number;
+  /** Number of records. */
+  records: number;
+  /** Number of points over all records (what parseShp will allocate). */
+  vertices: number;
+  /** The bytes to parse: the file cut to its declared length. */
+  body: Uint8Array;
+  /** Notes for the user (extra bytes after the declared end). */
+  warnings: string[];
+}
+
+const FILE_CODE = 9994;
+const VERSION = 1000;
+/** Shape types the format defines (technical description, table 1), MultiPatch (31) excluded here. */
+const KNOWN_TYPES = new Set([0, 1, 3, 5, 8, 11, 13, 15, 18, 21, 23, 25, 28]);
+const FIX_ADVICE = 'Export the layer again from your GIS and zip all of its files (.shp, .shx, .dbf, .prj) together.';
+
+/** Human names of shape types, for messages. */
+const TYPE_NAMES: Record<number, string> = {
+  0: 'null',
+  1: 'point',
+  3: 'line',
+  5: 'polygon',
+  8: 'multipoint',
+  11: 'point (with heights)',
+  13: 'line (with heights)',
+  15: 'polygon (with heights)',
+  18: 'multipoint (with heights)',
+  21: 'point (with measures)',
+  23: 'line (with measures)',
+  25: 'polygon (with measures)',
+  28: 'multipoint (with measures)',
+  31: 'multipatch',
+};
+
+/**
+ * Checks a .shp's header and record structure without building geometries.
+ *
+ * @param bytes - the .shp file.
+ * @param fileLabel - how to name the file in messages, e.g. 'export/leases.shp'.
+ * @returns shape type, record and vertex counts, and the bytes to parse.
+ * @throws UploadError corrupt_shp (too short, not a .shp, broken record), shp_length_mismatch (header declares
+ *   more bytes than the file holds), unsupported_shape_type (multipatch).
+ * @example
+ * checkShp(shpBytes, 'leases.shp') // { shapeType: 5, records: 4, vertices: 46, … }
+ */
+export function checkShp(bytes: Uint8Array, fileLabel: string): ShpCheck {
+  if (bytes.length < 100) {
+    throw new UploadError(
+      'corrupt_shp',
+      `${fileLabel} is only ${formatCount(bytes.length)} bytes long, shorter than the 100-byte header every .shp starts with: the file is truncated or damaged. ${FIX_ADVICE}`,
+      { file: fileLabel, bytes: bytes.length },
+    );
+  }
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const fileCode = view.getInt32(0, false);
+  const version = view.getInt32(28, true);
+  if (fileCode !== FILE_CODE || version !== VERSION) {
+    throw new UploadError(
+      'corrupt_shp',
+      `${fileLabel} is not a readable shapefile: its header does not start with the shapefile signature (the file is damaged, or is another kind of file renamed .shp). ${FIX_ADVICE}`,
+      { file: fileLabel },
+    );
+  }
+  const declared = view.getInt32(24, false) * 2;
+  if (declared > bytes.length) {
+    throw new UploadError(
+      'shp_length_mismatch',
+      `${fileLabel} is incomplete: its header declares ${formatCount(declared)} bytes but the file holds ${formatCount(bytes.length)}. ` +
+        `The copy or export was cut short. ${FIX_ADVICE}`,
+      { file: fileLabel, declaredBytes: declared, actualBytes: bytes.length },
+    );
+  }
+  if (declared < 100) {
+    throw new UploadError('corrupt_shp', `${fileLabel} has a damaged header (it declares a length of ${declared} bytes). ${FIX_ADVICE}`, {
+      file: fileLabel,
+    });
+  }
+  const warnings: string[] = [];
+  if (declared < bytes.length) {
+    warnings.push(`${fileLabel} has ${formatCount(bytes.length - declared)} bytes after the end its header declares; they were ignored.`);
+  }
+  const shapeType = view.getInt32(32, true);
+  if (shapeType === 31) {
+    throw new UploadError(
+      'unsupported_shape_type',
+      `${fileLabel} holds multipatch (3-D surface) shapes, which this server does not read. Export the layer as polygons (2-D footprints) and upload again.`,
+      { file: fileLabel, shapeType },
+    );
+  }
+  if (!KNOWN_TYPES.has(shapeType)) {
+    throw new UploadError('corrupt_shp', `${fileLabel} has a damaged header: shape type ${shapeType} does not exist. ${FIX_ADVICE}`, {
+      file: fileLabel,
+      shapeType,
+    });
+  }
+
+  let p = 100;
+  let records = 0;
+  let vertices = 0;
+  const base = shapeType % 10; // 1 point, 3 polyline, 5 polygon, 8 multipoint (Z and M variants share the layout start)
+  while (p < declared) {
+    const n = records; // 0-based record index for messages
+    if (p + 8 > declared) throw brokenRecord(fileLabel, n, 'its record header is cut off');
+    const contentLength = view.getInt32(p + 4, false) * 2;
+    const start = p + 8;
+    const end = start + contentLength;
+    if (contentLength < 4 || end > declared) throw brokenRecord(fileLabel, n, 'it runs past the end of the file');
+    const recordType = view.getInt32(start, true);
+    if (recordType !== 0) {
+      if (recordType !== shapeType)
+        throw brokenRecord(fileLabel, n, `its shape type (${recordType}) differs from the file’s (${shapeType})`);
+      if (base === 1) {
+        if (contentLength < 20) throw brokenRecord(fileLabel, n, 'it is shorter than a point');
+        vertices += 1;
+      } else if (base === 8) {
+        if (contentLength < 40) throw brokenRecord(fileLabel, n, 'it is shorter than its header');
+        const points = view.getInt32(start + 36, true);
+        if (points < 0 || 40 + 16 * points > contentLength) throw brokenRecord(fileLabel, n, 'it declares more points than it holds');
+        vertices += points;
+      } else {
+        if (contentLength < 44) throw brokenRecord(fileLabel, n, 'it is shorter than its header');
+        const parts = view.getInt32(start + 36, true);
+        const points = view.getInt32(start + 40, true);
+        if (parts < 0 || points < 0 || 44 + 4 * parts + 16 * points > contentLength) {
+          throw brokenRecord(fileLabel, n, 'it declares more parts or points than it holds');
+        }
+        let previous = -1;
+        for (let k = 0; k < parts; k++) {
+          const first = view.getInt32(start + 44 + 4 * k, true);
+          if (first < 0 || first >= points || first <= previous || (k === 0 && first !== 0)) {
+            throw brokenRecord(fileLabel, n, 'its list of parts is inconsistent');
+          }
+          previous = first;
+        }
+        if (parts === 0 && points > 0) throw brokenRecord(fileLabel, n, 'it has points but no parts');
+        vertices += points;
+      }
+    }
+    records += 1;
+    p = end;
+  }
+  return { shapeType, records, vertices, body: bytes.subarray(0, declared), warnings };
+}
+
+/**
+ * Decodes the geometries of a checked .shp, one per record (null for null shapes), in the file's coordinates.
+ *
+ * @param check - the result of {@link checkShp}.
+ * @param fileLabel - how to name the file in messages.
+ * @returns one geometry (or null) per record; polygons' rings grouped into Polygon/MultiPolygon by the library.
+ * @throws UploadError corrupt_shp when decoding fails.
+ * @example
+ * parseCheckedShp(checkShp(bytes, 'leases.shp'), 'leases.shp')[0].type // 'Polygon'
+ */
+export function parseCheckedShp(check: ShpCheck, fileLabel: string): (Geometry | null)[] {
+  let geometries: (Geometry | null)[];
+  try {
+    const body = check.body;
+    geometries = parseShp(new DataView(body.buffer, body.byteOffset, body.byteLength) as never) as (Geometry | null)[];
+  } catch {
+    throw new UploadError('corrupt_shp', `${fileLabel} cannot be read: its shapes are damaged. ${FIX_ADVICE}`, { file: fileLabel });
+  }
+  if (geometries.length !== check.records) {
+    throw new UploadError(
+      'corrupt_shp',
+      `${fileLabel} cannot be read completely: ${formatCount(geometries.length)} of its ${formatCount(check.records)} shapes decoded. ${FIX_ADVICE}`,
+      {
+        file: fileLabel,
+      },
+    );
+  }
+  return geometries.map((g) => (g ? stripBbox(g) : null));
+}
+
+/**
+ * The human name of a shape type code, e.g. 5 → 'polygon'.
+ *
+ * @example
+ * shapeTypeName(13) // 'line (with heights)'
+ */
+export function shapeTypeName(code: number): string {
+  return TYPE_NAMES[code] ?? `type ${code}`;
+}
+
+/** @private */
+function brokenRecord(fileLabel: string, index: number, why: string): UploadError {
+  return new UploadError(
+    'corrupt_shp',
+    `${fileLabel} is damaged at shape ${formatCount(index)} (counting from 0): ${why}. The file was probably truncated or altered. ${FIX_ADVICE}`,
+    { file: fileLabel, record: index },
+  );
+}
+
+/** @private The library attaches a source-CRS bbox; it is dropped (it would be wrong after reprojection). */
+function stripBbox(g: Geometry): Geometry {
+  const { bbox: _bbox, ...rest } = g as Geometry & { bbox?: unknown };
+  return rest as Geometry;
+}
