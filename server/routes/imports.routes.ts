@@ -2,11 +2,12 @@ import type { NextFunction, Request, Response } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
 import { searchCrs } from '#shared/geometry/crs-catalogue';
+import { formatBytes } from '#shared/geometry/upload-limits';
 import { importConfirmBodySchema, importCrsBodySchema, importResponseSchema, uploadKindSchema } from '#shared/schemas/upload';
 import { previewImportFeatures } from '../db/repositories/import-features.repo';
 import type { Database } from '../db/client';
 import { defineRoute, type RouteContext } from '../http/route';
-import { AppError, PayloadTooLargeError, ValidationError } from '../lib/errors';
+import { AppError, ValidationError } from '../lib/errors';
 import type { ImportsService } from '../services/imports.service';
 
 const UPLOADERS = ['grower', 'adviser', 'regulator'] as const;
@@ -23,7 +24,13 @@ function multipartFile(maxBytes: number) {
     upload(req, res, (err: unknown) => {
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE') {
-          next(new PayloadTooLargeError(`The file is larger than this server takes (${Math.round(maxBytes / 1e6)} MB, setting UPLOAD_MAX_BYTES). Split it, or zip it if it is not zipped.`));
+          next(
+            new AppError(
+              413,
+              'file_too_large',
+              `The file is larger than ${formatBytes(maxBytes)}; this server takes at most ${formatBytes(maxBytes)} per upload (setting UPLOAD_MAX_BYTES). Split it into smaller files, or zip it if it is not zipped.`,
+            ),
+          );
         } else {
           next(new ValidationError(`The upload form is not right (${err.message}). Send one file in a field named "file".`));
         }

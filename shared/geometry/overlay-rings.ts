@@ -223,13 +223,8 @@ class EdgeGraph {
     const dx = fx < 0.5 ? -1 : 1;
     const dy = fy < 0.5 ? -1 : 1;
     const d2 = OVERLAY_MERGE_DISTANCE * OVERLAY_MERGE_DISTANCE;
-    for (const [ox, oy] of [
-      [0, 0],
-      [dx, 0],
-      [0, dy],
-      [dx, dy],
-    ]) {
-      const list = this.cells.get(cellKey(cx + ox, cy + oy));
+    for (let k = 0; k < 4; k += 1) {
+      const list = this.cells.get(cellKey(cx + (k & 1 ? dx : 0), cy + (k & 2 ? dy : 0)));
       if (!list) continue;
       for (const id of list) {
         const ex = this.xs[id] - x;
