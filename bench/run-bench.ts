@@ -5,12 +5,15 @@
  */
 import { baseline, type BenchResult, report } from './harness';
 import { scienceBenchmarks } from './science-bench';
+import { uploadBenchmarks } from './upload-bench';
 
 async function main() {
   await baseline();
   const results: BenchResult[] = [];
   const only = process.argv[2];
   if (!only || only === 'science') results.push(...(await scienceBenchmarks()));
+  const databaseUrl = process.env.DATABASE_URL;
+  if (databaseUrl && (!only || only === 'upload')) results.push(...(await uploadBenchmarks(databaseUrl)));
   report(results);
   const mem = process.memoryUsage();
   console.log(`peak-ish memory: rss ${(mem.rss / 1e6).toFixed(0)} MB, heap used ${(mem.heapUsed / 1e6).toFixed(0)} MB`);
