@@ -7,6 +7,7 @@ import { visibleLeases } from '../services/leases.service';
 import type { RiversService } from '../services/rivers.service';
 import type { ScreeningService } from '../services/screening.service';
 import type { SweepService } from '../services/sweep.service';
+import { leaseTile } from '../db/repositories/tiles.repo';
 
 const READERS = ['grower', 'adviser', 'regulator'] as const;
 const RATINGS = ['low', 'moderate', 'high', 'severe'] as const;
@@ -193,19 +194,10 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     query: z.strictObject({ riverId: z.uuid().optional() }),
     handler: async ({ user, params, query, res }) => {
       const { z: tz, x, y } = tileXY(params);
-      const tile = await db.execute<{ mvt: Buffer }>(sql`
-        WITH bounds AS (SELECT ST_TileEnvelope(${tz}, ${x}, ${y}) AS env),
-        rows AS (
-          SELECT l.id, l.lease_code AS lease, l.status, l.species,
-                 COALESCE((SELECT a.worst_rating FROM lease_annual_exposure a WHERE a.lease_id = l.id ${query.riverId ? sql`AND a.river_id = ${query.riverId}::uuid` : sql``}
-                           ORDER BY array_position(ARRAY['low','moderate','high','severe'], a.worst_rating) DESC LIMIT 1), 'none') AS rating,
-                 ST_AsMVTGeom(ST_Transform(l.geom, 3857), bounds.env, 4096, 64, true) AS geom
-            FROM leases l, bounds
-           WHERE l.geom && ST_Transform(bounds.env, 4326) AND ${visibleLeases(user!)})
-        SELECT ST_AsMVT(rows, 'leases', 4096, 'geom') AS mvt FROM rows WHERE geom IS NOT NULL`);
+      const mvt = await leaseTile(db, user!, tz, x, y, query.riverId);
       res.setHeader('Content-Type', 'application/vnd.mapbox-vector-tile');
       res.setHeader('Cache-Control', 'private, max-age=60');
-      res.send(tile.rows[0]?.mvt ?? Buffer.alloc(0));
+      res.send(mvt);
       return undefined;
     },
   });

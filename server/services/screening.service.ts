@@ -5,7 +5,7 @@
  * (computed in PostGIS), the field values over it and the engine's rating.
  */
 import { createHash } from 'node:crypto';
-import { sql } from 'drizzle-orm';
+import { type SQL, sql } from 'drizzle-orm';
 import type { Geometry } from 'geojson';
 import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared/biology/species-tolerance';
 import { buildFootprint } from '#shared/geometry/build-footprint';
@@ -72,6 +72,23 @@ export function plumeFor(settings: RiverSettings, flow: { discharge: number; dur
 function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
   if (species && (SPECIES_IDS as readonly string[]).includes(species)) return { tolerance: getSpeciesTolerance(species), known: true };
   return { tolerance: strictestSpecies(), known: false };
+}
+
+/**
+ * Fraction of each lease's area inside each band of a footprint, in PostGIS: bands cut into
+ * small GiST-indexed pieces, leases wholly inside a piece counted without an intersection,
+ * areas on the ellipsoid (geography). `where` filters the leases (alias l).
+ */
+export async function leaseBandFractions(db: Database, footprintId: string, where: SQL): Promise<Map<string, Record<string, number>>> {
+  const fractions = await db.execute<{ lease_id: string; fractions: Record<string, number> }>(sql`
+    WITH frac AS (
+      SELECT l.id AS lease_id, p.band_id,
+             SUM(CASE WHEN ST_CoveredBy(l.geom, p.geom) THEN l.area_m2 ELSE ST_Area(ST_Intersection(l.geom, p.geom)::geography) END) / NULLIF(l.area_m2, 0) AS fraction
+        FROM leases l JOIN footprint_band_pieces p ON p.footprint_id = ${footprintId}::uuid AND ST_Intersects(l.geom, p.geom)
+       WHERE ${where}
+       GROUP BY l.id, p.band_id)
+    SELECT lease_id, jsonb_object_agg(band_id, LEAST(1, fraction)) AS fractions FROM frac GROUP BY lease_id`);
+  return new Map(fractions.rows.map((r) => [r.lease_id, r.fractions]));
 }
 
 export function createScreeningService(deps: { db: Database }) {
@@ -178,15 +195,7 @@ export function createScreeningService(deps: { db: Database }) {
   /** Screens every scoped lease under one scenario's footprint, replacing earlier rows. */
   async function screenFootprint(river: RiverInputs, footprint: { id: string; plume: PlumeResult }, scenario: { id: string; aep: number | null; discharge: number; durationHours: number; name: string }, leaseIds?: string[]) {
     const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
-    const fractions = await db.execute<{ lease_id: string; fractions: Record<string, number> }>(sql`
-      WITH frac AS (
-        SELECT l.id AS lease_id, p.band_id,
-               SUM(CASE WHEN ST_CoveredBy(l.geom, p.geom) THEN l.area_m2 ELSE ST_Area(ST_Intersection(l.geom, p.geom)::geography) END) / NULLIF(l.area_m2, 0) AS fraction
-          FROM leases l JOIN footprint_band_pieces p ON p.footprint_id = ${footprint.id}::uuid AND ST_Intersects(l.geom, p.geom)
-         WHERE ${scopedLeases(river)} ${leaseFilter}
-         GROUP BY l.id, p.band_id)
-      SELECT lease_id, jsonb_object_agg(band_id, LEAST(1, fraction)) AS fractions FROM frac GROUP BY lease_id`);
-    const byLease = new Map(fractions.rows.map((r) => [r.lease_id, r.fractions]));
+    const byLease = await leaseBandFractions(db, footprint.id, sql`${scopedLeases(river)} ${leaseFilter}`);
     const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null }>(sql`
       SELECT l.id, l.species,
              ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * ST_Length(f.path::geography) AS s,

@@ -24,8 +24,8 @@ export interface MarkedRing {
  * @param box - [minX, minY, maxX, maxY] in metres
  * @returns the clipped ring and marks; an empty ring when nothing is inside
  * @example
- * clipRingToBox([[0, 0], [10, 0], [10, 10], [0, 10]], [1, 1, 1, 1], [5, -1, 20, 20]).points;
- * // => [[5, 0], [10, 0], [10, 10], [5, 10]]
+ * clipRingToBox([[0, 0], [10, 0], [10, 10], [0, 10]], [1, 2, 3, 4], [5, -1, 20, 20]);
+ * // => { points: [[5, 10], [5, 0], [10, 0], [10, 10]], marks: [0, 1, 2, 3] }
  * Source: (a) published: Sutherland & Hodgman 1974, "Reentrant polygon clipping",
  * Communications of the ACM 17(1), 32–42; the mark bookkeeping is (c).
  */
