@@ -22,7 +22,14 @@ for (let i = 0; i < VERTICES; i += 1) {
   const x = 300 * Math.sin(y / 950) + 120 * Math.sin(y / 260 + 1) + 40 * Math.sin(y / 47) + 20 * Math.sin(y / 23 + 2);
   coordinates.push([-70 + x / 84_000, 41 + y / 111_050]);
 }
-const plume = computePlume({ latitude: 41, discharge: 150, reducedGravity: 0.02, mouthWidth: 800, mouthDepth: 1.5, floodDurationHours: 48 });
+const plume = computePlume({
+  latitude: 41,
+  discharge: 150,
+  reducedGravity: 0.02,
+  mouthWidth: 800,
+  mouthDepth: 1.5,
+  floodDurationHours: 48,
+});
 const params = exposureParameters(
   { mixingLength: 12_000, t90DayHours: 6, t90NightHours: 48, indicator: { kind: 'constant', concentration: 1e4 } },
   { seaSalinity: 34, riverSalinity: 0 },

@@ -17,26 +17,33 @@
  *    the mouth, and the walk also goes upcoast for one bulge radius y_s/2 where the band
  *    width is that of the bulge alone (c).
  * 4. At arc length s along the real coast each band reaches offshore to
- *    offshoreDistanceWhere(plume, params, s, threshold). The walked coast is simplified
- *    (Douglas–Peucker, tolerance τ, by default 1 % of the narrowest band's widest point,
- *    0.5…20 m) and sampled (every path vertex, `alongSteps` even steps, the bulge circle,
- *    the bulge edge jump and each band's end); each segment gives a quad from τ + 1 m inside
- *    the land out to the band width on the sea side, each bend a fan that fills the outer
- *    gap. The band is the union of these pieces minus the land: land polygons are
- *    subtracted; shoreline lines (and island rings) cut the union into faces, and only the
- *    faces that touch the walked coast from the sea side are kept — so pieces that crossed a
- *    shoreline onto land, island interiors, and water reached only across land are dropped.
- *    With the same path and samples for every band, a band with a stricter threshold is
- *    never wider, so salinity bands nest exactly.
+ *    offshoreDistanceWhere(plume, params, s, threshold), measured along the coast normal as
+ *    the field defines it. The walked coast is simplified (Douglas–Peucker, tolerance τ, by
+ *    default 1 % of the narrowest band's widest point, 0.5…20 m) and sampled (every kept
+ *    vertex, `alongSteps` even steps, the bulge circle, and the field's jumps: mouth, bulge
+ *    edge, reach, each band's end); each segment gives a quad from τ + 1 m inside the land out
+ *    to the band width (see offset-strip: fans at convex bends, mitres at concave ones). The
+ *    band is the union of these pieces (cascaded, see union-rings) minus the land: land
+ *    polygons are subtracted; shoreline lines (and island rings) cut the union into faces,
+ *    and only the faces that touch the walked coast from the sea side are kept — so pieces
+ *    that crossed a shoreline onto land, island interiors, and water reached only across land
+ *    are dropped. Slivers under 2 m² go. With the same path and samples for every band, a
+ *    band with a stricter threshold is never wider, so salinity bands nest exactly.
  * 5. The bulge is the disc of diameter y_s touching the coast at the mouth, centred y_s/2
  *    seaward along the outflow (science.md §1.6; no downstream shift, matching the exposure
  *    field), minus land, keeping the part that touches the walked coast or holds the centre.
  * 6. Near the equator (turnsTo 'none' or regime 'equatorial-jet') there is no walk: each band
  *    is a half-disc seaward of the mouth of radius offshoreDistanceWhere(…, s = 0, …), with
  *    the same land handling, and a warning.
+ * 7. Back to EPSG:4326: edges along the coast keep the coast's own vertices (long input
+ *    segments are first divided every 250 m in lon/lat, so they keep their shape in metres),
+ *    and other edges are divided every 100 m, so the lon/lat polygons match the planar ones
+ *    to well under a millimetre and never overlap the coast's lon/lat segments.
  * Limits: straight-line offsets can reach across a peninsula narrower than the band into
- * water the walk reaches later; a shoreline that ends inside a band cannot separate land from
- * sea there (a warning says when the coast ends before the reach).
+ * water the walk reaches later; in a bay narrower than the band the normals cross beyond the
+ * bay's centre of curvature, so the band pinches there and spreads out again beyond it (the
+ * field's "offshore distance" is ambiguous there); a shoreline that ends inside a band cannot
+ * separate land from sea there (a warning says when the coast ends before the reach).
  */
 
 import type { Feature, LineString, MultiPolygon, Polygon, Position } from 'geojson';
@@ -163,12 +170,13 @@ const LANDWARD_MARGIN = 1;
  * @returns bulge, bands (properties: id, name, kind, threshold, maxOffshoreM, alongReachM),
  *   the walked coast, warnings and the mouth snap distance [m]; EPSG:4326
  * @example
- * const plume = computePlume({ latitude: 41, discharge: 150, reducedGravity: 0.05, mouthWidth: 400, mouthDepth: 2, floodDurationHours: 48 });
- * const params = exposureParameters({ mixingLength: 15000, t90DayHours: 6, t90NightHours: 48, indicator: { kind: 'constant', concentration: 1e4 } },
+ * const plume = computePlume({ latitude: 41, discharge: 150, reducedGravity: 0.02, mouthWidth: 800, mouthDepth: 1.5, floodDurationHours: 48 });
+ * const params = exposureParameters({ mixingLength: 12000, t90DayHours: 6, t90NightHours: 48, indicator: { kind: 'constant', concentration: 1e4 } },
  *   { seaSalinity: 34, riverSalinity: 0 }, 150);
  * buildFootprint({ coast: { type: 'LineString', coordinates: [[-70, 40.5], [-70, 41.6]] }, mouth: [-70, 41], outflowAzimuth: 270,
  *   plume, params, bands: defaultBandSpecs({ speciesSalinityThreshold: 12, indicatorStandard: 14 }) });
- * // => { bands: [4 features running north from the mouth, west of the coast], bulge: {…}, … }
+ * // => { bands: [4 features west of the coast, running north from the mouth; plume edge 23.5 km along,
+ * //     8.0 km wide at the bulge], bulge: { diameterM: 8028.6, … }, warnings: [], mouthSnapDistanceM: 0 }
  * Source: (c) derived: see the module comment; turning side (a) science.md §1.1; bulge disc
  * (a) Yankovsky & Chapman 1997 via science.md §1.6; fields (c) exposure-field.
  */
@@ -196,13 +204,18 @@ export function buildFootprint(input: FootprintInput): Footprint {
   const line = coast.lines[snap.line];
   const outflow: PlanarPoint = [Math.sin(rad(input.outflowAzimuth)), Math.cos(rad(input.outflowAzimuth))];
   const side = seaSideAtMouth(line, snap.segment, snap.t, outflow, warnings);
-  const context: Context = { coast: coast.lines, projection, seaSide: side.seaSide, marks: coast.lines.map((l) => new Array(l.points.length).fill(0)) };
+  const context: Context = {
+    coast: coast.lines,
+    projection,
+    seaSide: side.seaSide,
+    marks: coast.lines.map((l) => new Array(l.points.length).fill(0)),
+  };
 
   if (equatorial) return equatorialFootprint(input, context, snap, side.seaward, warnings, options);
 
   // Downstream: keep the sea on the left (turning right, north) or on the right (left, south).
   const seaOnLeftOfWalk = plume.turnsTo === 'right';
-  const direction: 1 | -1 = (side.seaSide > 0) === seaOnLeftOfWalk ? 1 : -1;
+  const direction: 1 | -1 = side.seaSide > 0 === seaOnLeftOfWalk ? 1 : -1;
   const down = walkCoast(line, snap, direction, walkLength);
   if (down.stop === 'line-end' && down.length < walkLength - 1) {
     warnings.push(
@@ -281,7 +294,8 @@ function checkInput(input: FootprintInput): void {
   if (!Number.isFinite(lon) || !Number.isFinite(lat) || lon < -180 || lon > 180 || lat < -90 || lat > 90) {
     throw new RangeError(`mouth must be [lon, lat] in degrees (got [${String(lon)}, ${String(lat)}])`);
   }
-  if (!Number.isFinite(input.outflowAzimuth)) throw new RangeError(`outflowAzimuth must be a finite number of degrees (got ${String(input.outflowAzimuth)})`);
+  if (!Number.isFinite(input.outflowAzimuth))
+    throw new RangeError(`outflowAzimuth must be a finite number of degrees (got ${String(input.outflowAzimuth)})`);
   const p = input.plume;
   for (const [name, value] of [
     ['plume.width', p.width],
@@ -289,7 +303,8 @@ function checkInput(input: FootprintInput): void {
   ] as const) {
     if (!(value > 0) || !Number.isFinite(value)) throw new RangeError(`${name} must be > 0 m (got ${String(value)})`);
   }
-  if (p.reach !== undefined && !(p.reach >= 0 && Number.isFinite(p.reach))) throw new RangeError(`plume.reach must be ≥ 0 m (got ${String(p.reach)})`);
+  if (p.reach !== undefined && !(p.reach >= 0 && Number.isFinite(p.reach)))
+    throw new RangeError(`plume.reach must be ≥ 0 m (got ${String(p.reach)})`);
   const ids = new Set<string>();
   for (const band of input.bands) {
     if (ids.has(band.id)) throw new RangeError(`band ids must be unique (repeated: ${band.id})`);
@@ -489,7 +504,13 @@ function bandEnd(plume: FootprintPlume, params: ExposureParameters, threshold: F
 }
 
 /** @private Upcoast arc length where the bulge part of a band ends, within [0, min(limit, bulge radius)]. */
-function upcoastEnd(plume: FootprintPlume, params: ExposureParameters, threshold: FieldThreshold, limit: number, bulgeRadius: number): number {
+function upcoastEnd(
+  plume: FootprintPlume,
+  params: ExposureParameters,
+  threshold: FieldThreshold,
+  limit: number,
+  bulgeRadius: number,
+): number {
   return lastPositive((s) => bandWidth(plume, params, threshold, -s, bulgeRadius), Math.min(limit, bulgeRadius));
 }
 
@@ -525,20 +546,20 @@ function clipToSea(
   const box = ringsBox(rings, 10);
   const { negative, barriers } = coastInBox(context, box);
   let broken = 0;
-  const run = (positive: PlanarPoint[][], extraNegative: OverlayLine[]) => {
-    const result = overlayRings({ positive, orientPositive: false, negative: [...negative, ...extraNegative], barriers });
+  const run = (positive: PlanarPoint[][], extraNegative: OverlayLine[], asFaces: boolean) => {
+    const result = overlayRings({ positive, orientPositive: !asFaces, negative: [...negative, ...extraNegative], barriers });
     broken += result.brokenRings;
     return result.faces.filter((f) => f.marked || (seed !== undefined && faceContains(f, seed)));
   };
   const union = unionRings(rings);
   broken += union.brokenRings;
-  let faces = run(union.rings, []);
+  let faces = run(union.rings, [], true);
   if (maxVertices !== undefined) {
     let step = Math.max(tolerance, 0.5);
     for (let round = 0; round < 12 && vertexCount(faces) > maxVertices; round += 1) {
       const outers = faces.map((f) => simplifyRing(f.outer, step));
       const holes = faces.flatMap((f) => f.holes.map((h) => ({ points: simplifyRing(h, step).reverse() })));
-      faces = run(unionRings(outers).rings, holes);
+      faces = run(unionRings(outers).rings, holes, true);
       step *= 2;
     }
     if (vertexCount(faces) > maxVertices) {
@@ -622,7 +643,11 @@ function vertexCount(faces: OverlayFace[]): number {
 /** @private Douglas–Peucker on a ring (its first vertex kept). */
 function simplifyRing(ring: PlanarPoint[], tolerance: number): PlanarPoint[] {
   const closed = [...ring, ring[0]];
-  const far = ring.reduce((best, p, i) => (Math.hypot(p[0] - ring[0][0], p[1] - ring[0][1]) > Math.hypot(ring[best][0] - ring[0][0], ring[best][1] - ring[0][1]) ? i : best), 0);
+  const far = ring.reduce(
+    (best, p, i) =>
+      Math.hypot(p[0] - ring[0][0], p[1] - ring[0][1]) > Math.hypot(ring[best][0] - ring[0][0], ring[best][1] - ring[0][1]) ? i : best,
+    0,
+  );
   const kept = simplifyPath(closed, tolerance, [far]);
   return kept.slice(0, -1).map((i) => closed[i]);
 }
@@ -692,7 +717,15 @@ function equatorialFootprint(
       return bandFeature(spec, [], context.projection, 0, 0);
     }
     const ring = halfDisc(snap.point, seaward, across, r, tolerance + LANDWARD_MARGIN, Math.max(tolerance / 2, 0.25));
-    const faces = clipToSea(context, [ring], options.maxVertices, tolerance, warnings, spec.id, offsetPoint(snap.point, seaward, Math.min(1, r / 2)));
+    const faces = clipToSea(
+      context,
+      [ring],
+      options.maxVertices,
+      tolerance,
+      warnings,
+      spec.id,
+      offsetPoint(snap.point, seaward, Math.min(1, r / 2)),
+    );
     return bandFeature(spec, faces, context.projection, r, r);
   });
   const coastPoints = [...backward.points].reverse().concat(forward.points.slice(1));

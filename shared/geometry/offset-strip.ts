@@ -96,7 +96,8 @@ export function offsetStrip(input: StripInput): PlanarPoint[][] {
       const radius = Math.min(widthEnd[k - 1], ws);
       if (j.turn < 0 && radius > 0) rings.push(fan(a, before, after, radius, arcTolerance));
       // Sharp bend towards the sea (no mitre): the land side is convex; keep the extension unbroken.
-      if (j.turn > 0 && !j.mitred && landward > 0) rings.push(fan(a, [-before[0], -before[1]], [-after[0], -after[1]], landward, arcTolerance));
+      if (j.turn > 0 && !j.mitred && landward > 0)
+        rings.push(fan(a, [-before[0], -before[1]], [-after[0], -after[1]], landward, arcTolerance));
     }
     const va = startVector[k];
     const vb = endVector[k];
@@ -148,8 +149,10 @@ function join(before: PlanarPoint | null, after: PlanarPoint | null, seaSide: 1 
   return { before, after, turn, straight: false, mitred: false };
 }
 
-/** @private Linear interpolation of two vectors. */
+/** @private Linear interpolation of two vectors (exact at f = 0 and f = 1, so neighbours share corners exactly). */
 function lerp(a: PlanarPoint, b: PlanarPoint, f: number): PlanarPoint {
+  if (f <= 0) return a;
+  if (f >= 1) return b;
   return [a[0] + f * (b[0] - a[0]), a[1] + f * (b[1] - a[1])];
 }
 

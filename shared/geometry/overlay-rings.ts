@@ -62,6 +62,13 @@ export interface OverlayInput {
    * e.g. faces of an earlier overlay.
    */
   readonly orientPositive?: boolean;
+  /**
+   * True: an edge of one positive ring that runs exactly back along an edge of another (the
+   * side two neighbouring pieces of a strip share) cancels it before the overlay. The winding
+   * number, and so the result, is unchanged, but a long chain of pieces then costs about as
+   * much as its outline. Default false.
+   */
+  readonly dissolveShared?: boolean;
 }
 
 /** One face of the result: a polygon with holes. */
@@ -116,6 +123,7 @@ export function overlayRings(input: OverlayInput): OverlayResult {
   const graph = new EdgeGraph();
   const orient = input.orientPositive ?? true;
   for (const ring of input.positive) graph.addRing(ring, KIND_POSITIVE, true, undefined, orient);
+  if (input.dissolveShared) graph.dissolveSharedPositive();
   for (const ring of input.negative ?? []) graph.addRing(ring.points, KIND_NEGATIVE, true, ring.marks, false);
   for (const line of input.barriers ?? []) graph.addRing(line.points, KIND_BARRIER, line.closed === true, line.marks, false);
   if (graph.positiveCount === 0) return { faces: [], brokenRings: 0 };
@@ -159,13 +167,7 @@ class EdgeGraph {
   private readonly bigPositiveEdges: number[] = [];
 
   /** Adds a ring or line; positive rings are made anticlockwise; small positive rings are indexed whole. */
-  addRing(
-    points: readonly PlanarPoint[],
-    kind: number,
-    closed: boolean,
-    marks: readonly number[] | undefined,
-    orient: boolean,
-  ): void {
+  addRing(points: readonly PlanarPoint[], kind: number, closed: boolean, marks: readonly number[] | undefined, orient: boolean): void {
     const n = points.length;
     if (n < 2 || (closed && n < 3)) return;
     let pts = points;
@@ -211,6 +213,46 @@ class EdgeGraph {
         for (let e = firstEdge; e < this.ea.length; e += 1) this.bigPositiveEdges.push(e);
       }
     }
+  }
+
+  /**
+   * Cancels pairs of opposite positive edges (a→b in one ring, b→a in another). Each ring's
+   * winding adds up, so removing a pair leaves every winding number as it was; the remaining
+   * positive edges are indexed as edges, not rings.
+   */
+  dissolveSharedPositive(): void {
+    const open = new Map<number, number[]>();
+    const removed = new Uint8Array(this.ea.length);
+    const key = (a: number, b: number) => a * 67_108_864 + b;
+    for (let e = 0; e < this.ea.length; e += 1) {
+      if (this.kind[e] !== KIND_POSITIVE) continue;
+      const twin = open.get(key(this.eb[e], this.ea[e]));
+      if (twin && twin.length > 0) {
+        removed[twin.pop() as number] = 1;
+        removed[e] = 1;
+        continue;
+      }
+      const k = key(this.ea[e], this.eb[e]);
+      const list = open.get(k);
+      if (list) list.push(e);
+      else open.set(k, [e]);
+    }
+    let out = 0;
+    for (let e = 0; e < this.ea.length; e += 1) {
+      if (removed[e]) continue;
+      this.ea[out] = this.ea[e];
+      this.eb[out] = this.eb[e];
+      this.kind[out] = this.kind[e];
+      this.mark[out] = this.mark[e];
+      out += 1;
+    }
+    this.ea.length = out;
+    this.eb.length = out;
+    this.kind.length = out;
+    this.mark.length = out;
+    this.smallRings.length = 0;
+    this.bigPositiveEdges.length = 0;
+    for (let e = 0; e < out; e += 1) if (this.kind[e] === KIND_POSITIVE) this.bigPositiveEdges.push(e);
   }
 
   /** Returns the id of the vertex at (x, y), merging with any vertex within the merge distance. */
@@ -403,7 +445,8 @@ class EdgeGraph {
           const ay = this.ys[this.ea[e]];
           const bx = this.xs[this.eb[e]];
           const by = this.ys[this.eb[e]];
-          if (x < Math.min(ax, bx) - best || x > Math.max(ax, bx) + best || y < Math.min(ay, by) - best || y > Math.max(ay, by) + best) continue;
+          if (x < Math.min(ax, bx) - best || x > Math.max(ax, bx) + best || y < Math.min(ay, by) - best || y > Math.max(ay, by) + best)
+            continue;
           if (exclude.includes(e)) continue;
           best = Math.min(best, segmentDistance(x, y, ax, ay, bx, by));
         }
@@ -449,7 +492,7 @@ class EdgeGraph {
         const mk = this.mark[e];
         if (mk !== 0) {
           const sameDirection = g.a === prev;
-          if ((mk > 0) === sameDirection) g.markAB = true;
+          if (mk > 0 === sameDirection) g.markAB = true;
           else g.markBA = true;
         }
         prev = v;
@@ -540,12 +583,14 @@ class WindingIndex {
   private readonly ringGrid = new Map<number, number[]>();
   private readonly negStrips: StripIndex;
   private readonly bigStrips: StripIndex;
+  private readonly rings: { ring: number[]; minX: number; minY: number; maxX: number; maxY: number }[];
 
   constructor(
-    private readonly graph: EdgeGraph,
-    private readonly rings: { ring: number[]; minX: number; minY: number; maxX: number; maxY: number }[],
+    graph: EdgeGraph,
+    rings: { ring: number[]; minX: number; minY: number; maxX: number; maxY: number }[],
     bigPositiveEdges: number[],
   ) {
+    this.rings = rings;
     const sizes = rings.map((r) => Math.max(r.maxX - r.minX, r.maxY - r.minY)).sort((p, q) => p - q);
     this.ringCell = Math.max(sizes.length ? sizes[Math.floor(sizes.length / 2)] : 1, 1e-6);
     rings.forEach((r, i) => {
@@ -589,11 +634,10 @@ class StripIndex {
   private readonly minY: number;
   private readonly height: number;
   private readonly strips: number[][];
+  private readonly graph: EdgeGraph;
 
-  constructor(
-    private readonly graph: EdgeGraph,
-    edges: number[],
-  ) {
+  constructor(graph: EdgeGraph, edges: number[]) {
+    this.graph = graph;
     let lo = Infinity;
     let hi = -Infinity;
     for (const e of edges) {
@@ -676,7 +720,8 @@ function traceRings(graph: EdgeGraph, pieces: DirectedPiece[]): { rings: TracedR
   });
   // Starts of pieces by small cells, to bridge a gap of a few micrometres left by rounding.
   const starts = new Map<number, number[]>();
-  const cellOf = (v: number, dx = 0, dy = 0) => cellKey(Math.floor(graph.xs[v] / HEAL_DISTANCE) + dx, Math.floor(graph.ys[v] / HEAL_DISTANCE) + dy);
+  const cellOf = (v: number, dx = 0, dy = 0) =>
+    cellKey(Math.floor(graph.xs[v] / HEAL_DISTANCE) + dx, Math.floor(graph.ys[v] / HEAL_DISTANCE) + dy);
   for (const v of outgoing.keys()) {
     const key = cellOf(v);
     const list = starts.get(key);
@@ -807,7 +852,12 @@ function assembleFaces(rings: TracedRing[], minArea: number): OverlayFace[] {
     const probe = insideProbe(hole.ring.points);
     const owner = outers.find(
       (o) =>
-        probe[0] >= o.box[0] && probe[0] <= o.box[2] && probe[1] >= o.box[1] && probe[1] <= o.box[3] && o.area > hole.area && pointInRing(o.ring.points, probe),
+        probe[0] >= o.box[0] &&
+        probe[0] <= o.box[2] &&
+        probe[1] >= o.box[1] &&
+        probe[1] <= o.box[3] &&
+        o.area > hole.area &&
+        pointInRing(o.ring.points, probe),
     );
     if (!owner) continue;
     owner.holes.push(hole.ring.points);

@@ -26,8 +26,10 @@ const FIRST_GROUP = 16;
 export function unionRings(rings: readonly (readonly PlanarPoint[])[]): { rings: PlanarPoint[][]; brokenRings: number } {
   if (rings.length === 0) return { rings: [], brokenRings: 0 };
   let broken = 0;
-  const merge = (group: readonly (readonly PlanarPoint[])[], orient: boolean): PlanarPoint[][] => {
-    const result = overlayRings({ positive: group, minArea: 1e-6, orientPositive: orient });
+  const merge = (group: readonly (readonly PlanarPoint[])[], first: boolean): PlanarPoint[][] => {
+    // First level: raw pieces, made anticlockwise, their shared sides cancelled; later levels:
+    // faces of earlier merges, taken as they are.
+    const result = overlayRings({ positive: group, minArea: 1e-6, orientPositive: first, dissolveShared: first });
     broken += result.brokenRings;
     return result.faces.flatMap((f) => [f.outer, ...f.holes]);
   };

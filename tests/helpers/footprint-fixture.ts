@@ -5,7 +5,7 @@
  */
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
-import type { Feature, FeatureCollection, Geometry, Position } from 'geojson';
+import type { Feature, FeatureCollection, Geometry, Polygon, Position } from 'geojson';
 import { type FootprintInput, type Footprint, buildFootprint } from '../../shared/geometry/build-footprint';
 import { defaultBandSpecs } from '../../shared/geometry/default-band-specs';
 import type { CoastGeoJson } from '../../shared/geometry/prepare-coast';
@@ -71,18 +71,23 @@ export const FOOTPRINT_STYLE: Record<string, Record<string, string | number>> = 
   'plume-edge': { stroke: '#6baed6', 'stroke-width': 1, fill: '#deebf7', 'fill-opacity': 0.9 },
   'brackish-margin': { stroke: '#2171b5', 'stroke-width': 1, fill: '#9ecae1', 'fill-opacity': 0.9 },
   'fresh-core': { stroke: '#08306b', 'stroke-width': 1, fill: '#2171b5', 'fill-opacity': 0.9 },
-  'indicator-over-standard': { stroke: '#d94801', 'stroke-width': 2, fill: '#fd8d3c', 'fill-opacity': 0.25 },
+  'indicator-over-standard': { stroke: '#d94801', 'stroke-width': 2, fill: '#fd8d3c', 'fill-opacity': 0.12 },
 };
 
 /** The expected-output collection of a case: inputs and results, coloured, coordinates rounded to 1e-6. */
 export function footprintCollection(c: FootprintCase, footprint: Footprint): FeatureCollection {
   const features: Feature[] = [];
   features.push({ type: 'Feature', properties: { role: 'coast', ...FOOTPRINT_STYLE.coast }, geometry: coastGeometry(c.coast) });
-  features.push({ type: 'Feature', properties: { role: 'mouth', ...FOOTPRINT_STYLE.mouth }, geometry: { type: 'Point', coordinates: c.mouth } });
+  features.push({
+    type: 'Feature',
+    properties: { role: 'mouth', ...FOOTPRINT_STYLE.mouth },
+    geometry: { type: 'Point', coordinates: c.mouth },
+  });
   for (const band of footprint.bands) {
     features.push({ ...band, properties: { role: 'band', ...band.properties, ...FOOTPRINT_STYLE[band.properties.id] } });
   }
-  if (footprint.bulge) features.push({ ...footprint.bulge, properties: { role: 'bulge', ...footprint.bulge.properties, ...FOOTPRINT_STYLE.bulge } });
+  if (footprint.bulge)
+    features.push({ ...footprint.bulge, properties: { role: 'bulge', ...footprint.bulge.properties, ...FOOTPRINT_STYLE.bulge } });
   features.push({
     ...footprint.path,
     properties: {
@@ -114,7 +119,9 @@ export function roundNumbers(value: unknown, key = ''): unknown {
   }
   if (Array.isArray(value)) return value.map((v) => roundNumbers(v, key));
   if (value && typeof value === 'object') {
-    return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, roundNumbers(v, k === 'coordinates' || key === 'coordinates' ? 'coordinates' : k)]));
+    return Object.fromEntries(
+      Object.entries(value).map(([k, v]) => [k, roundNumbers(v, k === 'coordinates' || key === 'coordinates' ? 'coordinates' : k)]),
+    );
   }
   return value;
 }
@@ -131,12 +138,13 @@ export function polygonPositions(geometry: Geometry): Position[] {
  * given; a closed shoreline ring as an island; an open shoreline closed on its land side
  * (away from the outflow) by two far corners half a degree away.
  */
-export function caseLand(c: FootprintCase): Feature<import('geojson').Polygon>[] {
-  const out: Feature<import('geojson').Polygon>[] = [];
+export function caseLand(c: FootprintCase): Feature<Polygon>[] {
+  const out: Feature<Polygon>[] = [];
   const seaward = [Math.sin((c.outflowAzimuth * Math.PI) / 180), Math.cos((c.outflowAzimuth * Math.PI) / 180)];
   const add = (g: Geometry) => {
     if (g.type === 'Polygon') out.push({ type: 'Feature', properties: {}, geometry: g });
-    else if (g.type === 'MultiPolygon') for (const p of g.coordinates) out.push({ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: p } });
+    else if (g.type === 'MultiPolygon')
+      for (const p of g.coordinates) out.push({ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: p } });
     else if (g.type === 'LineString' || g.type === 'MultiLineString') {
       for (const line of g.type === 'LineString' ? [g.coordinates] : g.coordinates) {
         const first = line[0];

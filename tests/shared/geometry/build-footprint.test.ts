@@ -65,7 +65,8 @@ function projectedArea(f: Feature<Polygon | MultiPolygon> | null): number {
         const [a, b] = [ring[k], ring[k + 1]];
         const metres = Math.hypot((b[0] - a[0]) * 111_320 * Math.cos((a[1] * Math.PI) / 180), (b[1] - a[1]) * 110_574);
         const pieces = Math.max(1, Math.ceil(metres / 20));
-        for (let j = 0; j < pieces; j += 1) xy.push(projection.forward([a[0] + ((b[0] - a[0]) * j) / pieces, a[1] + ((b[1] - a[1]) * j) / pieces]));
+        for (let j = 0; j < pieces; j += 1)
+          xy.push(projection.forward([a[0] + ((b[0] - a[0]) * j) / pieces, a[1] + ((b[1] - a[1]) * j) / pieces]));
       }
       xy.push(xy[0]);
       let sum = 0;
@@ -118,40 +119,43 @@ describe('buildFootprint fixtures', () => {
     }
   });
 
-  it.each(NAMES.filter((n) => !n.startsWith('equator')))('%s: nothing upcoast beyond the bulge, nothing beyond reach + bulge radius', (name) => {
-    const c = readFootprintCase(name);
-    const input = footprintInput(c);
-    const fp = result(name);
-    const projection = localProjection(c.mouth);
-    const coastLine = mainCoastLine(c.coast).map((p) => projection.forward(p));
-    const arcOf = arcPosition(coastLine);
-    const path = fp.path.geometry.coordinates.map((p) => projection.forward(p));
-    const mouth = path[0];
-    const s0 = arcOf(mouth).arc;
-    const sign = Math.sign(arcOf(path[Math.min(5, path.length - 1)]).arc - s0) || 1;
-    // Downstream direction at the mouth: along the walked coast.
-    const ahead = path[Math.min(3, path.length - 1)];
-    const length = Math.hypot(ahead[0] - mouth[0], ahead[1] - mouth[1]);
-    const downstream = [(ahead[0] - mouth[0]) / length, (ahead[1] - mouth[1]) / length];
-    const radius = input.plume.bulgeOffshoreExtent / 2;
-    const reach = input.plume.reach ?? Number.POSITIVE_INFINITY;
-    const tolerance = 50;
-    for (const b of fp.bands) {
-      for (const p of polygonPositions(b.geometry)) {
-        const xy = projection.forward(p);
-        // Every vertex on the downstream side of the mouth, give or take the bulge radius.
-        const along = (xy[0] - mouth[0]) * downstream[0] + (xy[1] - mouth[1]) * downstream[1];
-        expect(along, `${b.properties.id} vertex ${p.join(',')}`).toBeGreaterThanOrEqual(-radius - tolerance);
-        // Near the coast, measured along it: not upcoast of the bulge, not past reach + bulge radius.
-        const near = arcOf(xy);
-        if (near.distance > 200) continue;
-        const s = (near.arc - s0) * sign;
-        expect(s, `${b.properties.id} coast vertex ${p.join(',')}`).toBeGreaterThanOrEqual(-radius - tolerance);
-        expect(s).toBeLessThanOrEqual(reach + radius + tolerance);
+  it.each(NAMES.filter((n) => !n.startsWith('equator')))(
+    '%s: nothing upcoast beyond the bulge, nothing beyond reach + bulge radius',
+    (name) => {
+      const c = readFootprintCase(name);
+      const input = footprintInput(c);
+      const fp = result(name);
+      const projection = localProjection(c.mouth);
+      const coastLine = mainCoastLine(c.coast).map((p) => projection.forward(p));
+      const arcOf = arcPosition(coastLine);
+      const path = fp.path.geometry.coordinates.map((p) => projection.forward(p));
+      const mouth = path[0];
+      const s0 = arcOf(mouth).arc;
+      const sign = Math.sign(arcOf(path[Math.min(5, path.length - 1)]).arc - s0) || 1;
+      // Downstream direction at the mouth: along the walked coast.
+      const ahead = path[Math.min(3, path.length - 1)];
+      const length = Math.hypot(ahead[0] - mouth[0], ahead[1] - mouth[1]);
+      const downstream = [(ahead[0] - mouth[0]) / length, (ahead[1] - mouth[1]) / length];
+      const radius = input.plume.bulgeOffshoreExtent / 2;
+      const reach = input.plume.reach ?? Number.POSITIVE_INFINITY;
+      const tolerance = 50;
+      for (const b of fp.bands) {
+        for (const p of polygonPositions(b.geometry)) {
+          const xy = projection.forward(p);
+          // Every vertex on the downstream side of the mouth, give or take the bulge radius.
+          const along = (xy[0] - mouth[0]) * downstream[0] + (xy[1] - mouth[1]) * downstream[1];
+          expect(along, `${b.properties.id} vertex ${p.join(',')}`).toBeGreaterThanOrEqual(-radius - tolerance);
+          // Near the coast, measured along it: not upcoast of the bulge, not past reach + bulge radius.
+          const near = arcOf(xy);
+          if (near.distance > 200) continue;
+          const s = (near.arc - s0) * sign;
+          expect(s, `${b.properties.id} coast vertex ${p.join(',')}`).toBeGreaterThanOrEqual(-radius - tolerance);
+          expect(s).toBeLessThanOrEqual(reach + radius + tolerance);
+        }
+        expect(b.properties.alongReachM).toBeLessThanOrEqual(reach + 1e-6);
       }
-      expect(b.properties.alongReachM).toBeLessThanOrEqual(reach + 1e-6);
-    }
-  });
+    },
+  );
 
   it.each(NAMES)('%s: salinity bands nest (fresh core ⊆ brackish margin ⊆ plume edge)', (name) => {
     const fp = result(name);

@@ -9,20 +9,59 @@ const area = (rings: PlanarPoint[][]) => unionRings(rings).rings.reduce((s, r) =
 
 describe('offsetStrip', () => {
   it('makes one quad per segment, sea on the left of a northward path = west', () => {
-    expect(offsetStrip({ points: [[0, 0], [0, 10]], widthStart: [4], widthEnd: [2], seaSide: 1, landward: 1, arcTolerance: 0.1 })).toEqual([
-      [[1, 0], [1, 10], [-2, 10], [-4, 0]],
+    expect(
+      offsetStrip({
+        points: [
+          [0, 0],
+          [0, 10],
+        ],
+        widthStart: [4],
+        widthEnd: [2],
+        seaSide: 1,
+        landward: 1,
+        arcTolerance: 0.1,
+      }),
+    ).toEqual([
+      [
+        [1, 0],
+        [1, 10],
+        [-2, 10],
+        [-4, 0],
+      ],
     ]);
   });
 
   it('adds a quarter-disc fan outside a convex right-angle bend (area 10·3 + 10·3 + π·3²/4 + landward)', () => {
     // North then east, sea on the left (north-west side): the bend is convex to the sea.
-    const rings = offsetStrip({ points: [[0, 0], [0, 10], [10, 10]], widthStart: [3, 3], widthEnd: [3, 3], seaSide: 1, landward: 0, arcTolerance: 1e-4 });
+    const rings = offsetStrip({
+      points: [
+        [0, 0],
+        [0, 10],
+        [10, 10],
+      ],
+      widthStart: [3, 3],
+      widthEnd: [3, 3],
+      seaSide: 1,
+      landward: 0,
+      arcTolerance: 1e-4,
+    });
     expect(area(rings)).toBeCloseTo(60 + (Math.PI * 9) / 4, 2);
   });
 
   it('mitres a concave right-angle bend: two 10 × 3 strips overlapping in a 3 × 3 square', () => {
     // North then west, sea on the left (inside the bend).
-    const rings = offsetStrip({ points: [[0, 0], [0, 10], [-10, 10]], widthStart: [3, 3], widthEnd: [3, 3], seaSide: 1, landward: 0, arcTolerance: 1e-3 });
+    const rings = offsetStrip({
+      points: [
+        [0, 0],
+        [0, 10],
+        [-10, 10],
+      ],
+      widthStart: [3, 3],
+      widthEnd: [3, 3],
+      seaSide: 1,
+      landward: 0,
+      arcTolerance: 1e-3,
+    });
     expect(area(rings)).toBeCloseTo(60 - 9, 6);
   });
 
@@ -44,8 +83,44 @@ describe('offsetStrip', () => {
   });
 
   it('leaves out segments with zero width and rejects bad arguments', () => {
-    expect(offsetStrip({ points: [[0, 0], [0, 10]], widthStart: [0], widthEnd: [0], seaSide: 1, landward: 1, arcTolerance: 1 })).toEqual([]);
-    expect(() => offsetStrip({ points: [[0, 0], [0, 10]], widthStart: [-1], widthEnd: [0], seaSide: 1, landward: 1, arcTolerance: 1 })).toThrow(RangeError);
-    expect(() => offsetStrip({ points: [[0, 0], [0, 10]], widthStart: [1], widthEnd: [1], seaSide: 1, landward: 1, arcTolerance: 0 })).toThrow(RangeError);
+    expect(
+      offsetStrip({
+        points: [
+          [0, 0],
+          [0, 10],
+        ],
+        widthStart: [0],
+        widthEnd: [0],
+        seaSide: 1,
+        landward: 1,
+        arcTolerance: 1,
+      }),
+    ).toEqual([]);
+    expect(() =>
+      offsetStrip({
+        points: [
+          [0, 0],
+          [0, 10],
+        ],
+        widthStart: [-1],
+        widthEnd: [0],
+        seaSide: 1,
+        landward: 1,
+        arcTolerance: 1,
+      }),
+    ).toThrow(RangeError);
+    expect(() =>
+      offsetStrip({
+        points: [
+          [0, 0],
+          [0, 10],
+        ],
+        widthStart: [1],
+        widthEnd: [1],
+        seaSide: 1,
+        landward: 1,
+        arcTolerance: 0,
+      }),
+    ).toThrow(RangeError);
   });
 });

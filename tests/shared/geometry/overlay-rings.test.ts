@@ -39,7 +39,18 @@ describe('overlayRings', () => {
   });
 
   it('splits by a barrier and flags the marked side', () => {
-    const { faces } = overlayRings({ positive: [square(0, 0, 4)], barriers: [{ points: [[2, -1], [2, 5]], marks: [1] }] });
+    const { faces } = overlayRings({
+      positive: [square(0, 0, 4)],
+      barriers: [
+        {
+          points: [
+            [2, -1],
+            [2, 5],
+          ],
+          marks: [1],
+        },
+      ],
+    });
     expect(faces.map((f) => f.area)).toEqual([8, 8]);
     const marked = faces.filter((f) => f.marked);
     expect(marked).toHaveLength(1);
@@ -47,7 +58,18 @@ describe('overlayRings', () => {
   });
 
   it('keeps one face round a dangling barrier, with no spike, and takes its mark', () => {
-    const { faces, brokenRings } = overlayRings({ positive: [square(0, 0, 4)], barriers: [{ points: [[2, -1], [2, 2]], marks: [1] }] });
+    const { faces, brokenRings } = overlayRings({
+      positive: [square(0, 0, 4)],
+      barriers: [
+        {
+          points: [
+            [2, -1],
+            [2, 2],
+          ],
+          marks: [1],
+        },
+      ],
+    });
     expect(brokenRings).toBe(0);
     expect(faces).toHaveLength(1);
     expect(faces[0].area).toBeCloseTo(16, 12);
@@ -64,6 +86,15 @@ describe('overlayRings', () => {
     const { faces } = overlayRings({ positive: [square(0, 0, 1), square(0, 0, 1), square(0, 0.5, 1)], minArea: 0 });
     expect(faces).toHaveLength(1);
     expect(faces[0].area).toBeCloseTo(1.5, 12);
+  });
+
+  it('cancels sides shared by neighbouring pieces (dissolveShared) without changing the result', () => {
+    const pieces = [square(0, 0, 1), square(1, 0, 1), square(2, 0, 1), square(0.5, 0.5, 1)];
+    const plain = overlayRings({ positive: pieces, minArea: 0 });
+    const dissolved = overlayRings({ positive: pieces, minArea: 0, dissolveShared: true });
+    expect(totalArea(dissolved.faces)).toBeCloseTo(totalArea(plain.faces), 12);
+    expect(totalArea(dissolved.faces)).toBeCloseTo(3.5, 12);
+    expect(dissolved.faces).toHaveLength(1);
   });
 
   it('drops faces smaller than minArea', () => {
@@ -112,7 +143,15 @@ describe('overlayRings', () => {
 
 describe('unionRings', () => {
   it('unions neighbours by cascading, as one ring (area 6)', () => {
-    const { rings, brokenRings } = unionRings([square(0, 0, 2), [[1, 0], [3, 0], [3, 2], [1, 2]]]);
+    const { rings, brokenRings } = unionRings([
+      square(0, 0, 2),
+      [
+        [1, 0],
+        [3, 0],
+        [3, 2],
+        [1, 2],
+      ],
+    ]);
     expect(brokenRings).toBe(0);
     expect(rings).toHaveLength(1);
     expect(ringArea(rings[0])).toBeCloseTo(6, 12);
@@ -120,7 +159,13 @@ describe('unionRings', () => {
 
   it('unions 1000 overlapping strips along a line into one rectangle', () => {
     const strips: PlanarPoint[][] = [];
-    for (let i = 0; i < 1000; i += 1) strips.push([[i, 0], [i + 1.5, 0], [i + 1.5, 5], [i, 5]]);
+    for (let i = 0; i < 1000; i += 1)
+      strips.push([
+        [i, 0],
+        [i + 1.5, 0],
+        [i + 1.5, 5],
+        [i, 5],
+      ]);
     const { rings } = unionRings(strips);
     expect(rings).toHaveLength(1);
     expect(ringArea(rings[0])).toBeCloseTo(1000.5 * 5, 6);

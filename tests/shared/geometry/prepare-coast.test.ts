@@ -26,8 +26,14 @@ describe('prepareCoast', () => {
       {
         type: 'MultiLineString',
         coordinates: [
-          [[-70, 40.99], [-70, 41]],
-          [[-70, 41.01], [-70, 41]],
+          [
+            [-70, 40.99],
+            [-70, 41],
+          ],
+          [
+            [-70, 41.01],
+            [-70, 41],
+          ],
         ],
       },
       projection,
@@ -39,7 +45,18 @@ describe('prepareCoast', () => {
   });
 
   it('treats a closed shoreline as a ring (an island) and divides segments longer than 250 m', () => {
-    const coast = prepareCoast({ type: 'LineString', coordinates: [[-70, 41], [-69.99, 41], [-69.99, 41.01], [-70, 41]] }, projection);
+    const coast = prepareCoast(
+      {
+        type: 'LineString',
+        coordinates: [
+          [-70, 41],
+          [-69.99, 41],
+          [-69.99, 41.01],
+          [-70, 41],
+        ],
+      },
+      projection,
+    );
     expect(coast.lines[0].closed).toBe(true);
     const pts = coast.lines[0].points;
     for (let i = 0; i < pts.length; i += 1) {
@@ -57,8 +74,19 @@ describe('prepareCoast', () => {
         geometry: {
           type: 'Polygon',
           coordinates: [
-            [[-70, 41], [-70, 41.01], [-69.99, 41.01], [-69.99, 41], [-70, 41]],
-            [[-69.996, 41.004], [-69.994, 41.004], [-69.994, 41.006], [-69.996, 41.004]],
+            [
+              [-70, 41],
+              [-70, 41.01],
+              [-69.99, 41.01],
+              [-69.99, 41],
+              [-70, 41],
+            ],
+            [
+              [-69.996, 41.004],
+              [-69.994, 41.004],
+              [-69.994, 41.006],
+              [-69.996, 41.004],
+            ],
           ],
         },
       },
@@ -72,11 +100,37 @@ describe('prepareCoast', () => {
 
   it('skips pieces outside the window and rejects bad coordinates', () => {
     const coast = prepareCoast(
-      { type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: [[-60, 10], [-60, 10.1]] } }] },
+      {
+        type: 'FeatureCollection',
+        features: [
+          {
+            type: 'Feature',
+            properties: {},
+            geometry: {
+              type: 'LineString',
+              coordinates: [
+                [-60, 10],
+                [-60, 10.1],
+              ],
+            },
+          },
+        ],
+      },
       projection,
       { centre: [-70, 41], radius: 50_000 },
     );
     expect(coast.lines).toEqual([]);
-    expect(() => prepareCoast({ type: 'LineString', coordinates: [[-70, 95], [-70, 41]] }, projection)).toThrow(/EPSG:4326/);
+    expect(() =>
+      prepareCoast(
+        {
+          type: 'LineString',
+          coordinates: [
+            [-70, 95],
+            [-70, 41],
+          ],
+        },
+        projection,
+      ),
+    ).toThrow(/EPSG:4326/);
   });
 });

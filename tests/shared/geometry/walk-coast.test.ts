@@ -3,12 +3,40 @@ import { describe, expect, it } from 'vitest';
 import { snapToCoast } from '../../../shared/geometry/snap-to-coast';
 import { walkCoast } from '../../../shared/geometry/walk-coast';
 
-const line = { points: [[0, 0], [0, 10], [10, 10]] as [number, number][], closed: false };
-const square = { points: [[0, 0], [10, 0], [10, 10], [0, 10]] as [number, number][], closed: true };
+const line = {
+  points: [
+    [0, 0],
+    [0, 10],
+    [10, 10],
+  ] as [number, number][],
+  closed: false,
+};
+const square = {
+  points: [
+    [0, 0],
+    [10, 0],
+    [10, 10],
+    [0, 10],
+  ] as [number, number][],
+  closed: true,
+};
 
 describe('snapToCoast', () => {
   it('projects onto the nearest segment', () => {
-    expect(snapToCoast([{ points: [[0, -10], [0, 10]], closed: false }], [-3, 2])).toEqual({ line: 0, segment: 0, t: 0.6, point: [0, 2], distance: 3 });
+    expect(
+      snapToCoast(
+        [
+          {
+            points: [
+              [0, -10],
+              [0, 10],
+            ],
+            closed: false,
+          },
+        ],
+        [-3, 2],
+      ),
+    ).toEqual({ line: 0, segment: 0, t: 0.6, point: [0, 2], distance: 3 });
   });
   it('looks at every line, including the closing segment of a ring', () => {
     const snap = snapToCoast([line, square], [-1, 5]);
@@ -21,7 +49,11 @@ describe('snapToCoast', () => {
 describe('walkCoast', () => {
   it('walks forwards for the length asked', () => {
     expect(walkCoast(line, { segment: 0, t: 0.5, point: [0, 5] }, 1, 8)).toEqual({
-      points: [[0, 5], [0, 10], [3, 10]],
+      points: [
+        [0, 5],
+        [0, 10],
+        [3, 10],
+      ],
       along: [0, 5, 8],
       segments: [0, 1],
       length: 8,
@@ -30,7 +62,11 @@ describe('walkCoast', () => {
   });
   it('walks backwards and stops where the line ends', () => {
     expect(walkCoast(line, { segment: 1, t: 0.5, point: [5, 10] }, -1, 100)).toEqual({
-      points: [[5, 10], [0, 10], [0, 0]],
+      points: [
+        [5, 10],
+        [0, 10],
+        [0, 0],
+      ],
       along: [0, 5, 15],
       segments: [1, 0],
       length: 15,

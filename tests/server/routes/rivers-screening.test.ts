@@ -1,0 +1,196 @@
+/**
+ * Rivers, flow records, scenarios, footprints and screenings over HTTP, on the invented demo
+ * region (loaded by the same code as npm start).
+ */
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { seedDemoRegion } from '../../../server/db/seed-demo-region';
+import { createTestApp, signIn, type TestApp } from '../../helpers/test-app';
+
+let t: TestApp;
+type Agent = Awaited<ReturnType<typeof signIn>>['agent'];
+let regulator: Agent;
+let grower: Agent;
+let grower2: Agent;
+let adviser: Agent;
+let amberlinId: string;
+
+beforeAll(async () => {
+  t = await createTestApp();
+  await seedDemoRegion(t.db.db);
+  regulator = (await signIn(t.app, 'regulator@brackline.test')).agent;
+  grower = (await signIn(t.app, 'grower@brackline.test')).agent;
+  grower2 = (await signIn(t.app, 'grower2@brackline.test')).agent;
+  adviser = (await signIn(t.app, 'adviser@brackline.test')).agent;
+  const rivers = await regulator.get('/api/v1/rivers').expect(200);
+  amberlinId = rivers.body.items.find((r: { name: string }) => r.name === 'Amberlin River').id;
+}, 120_000);
+afterAll(async () => {
+  await t.close();
+});
+
+const newRiver = { name: 'Test Creek', mouthLongitude: -38.6, mouthLatitude: 41.1, outflowAzimuthDeg: 270, mouthWidth: 40, mouthDepth: 2 };
+
+describe('rivers', () => {
+  it('creates a river and marks the documented defaults it uses', async () => {
+    const res = await adviser.post('/api/v1/rivers').send(newRiver).expect(201);
+    expect(res.body.defaultsUsed).toEqual(expect.arrayContaining(['seaSalinity', 'mixingLength', 't90DayHours', 'alongshoreShare']));
+    expect(res.body.settings.seaSalinity).toBe(34);
+    const changed = await adviser.patch(`/api/v1/rivers/${res.body.id}`).send({ seaSalinity: 33 }).expect(200);
+    expect(changed.body.defaultsUsed).not.toContain('seaSalinity');
+    expect(changed.body.version).toBe(res.body.version + 1);
+  });
+
+  it.each([
+    [{ ...newRiver, outflowAzimuthDeg: 400 }, /outflowAzimuthDeg must be between 0 and 360/],
+    [{ ...newRiver, mouthLatitude: 95 }, /latitude must be between -90 and 90/],
+    [{ ...newRiver, shelfSlope: 2 }, /shelfSlope must be between 0 and 0.5/],
+    [{ ...newRiver, seaSalinity: 50 }, /seaSalinity must be between 0 and 42/],
+    [{ ...newRiver, alongshoreShare: 0.1 }, /alongshoreShare must be between 0.3 and 1/],
+    [{ ...newRiver, mouthWidth: 0 }, /mouthWidth must be greater than 0/],
+    [{ ...newRiver, colour: 'blue' }, /colour/],
+  ])('refuses bad settings with a message naming the field (%#)', async (body, message) => {
+    const res = await adviser.post('/api/v1/rivers').send(body).expect(400);
+    expect(res.body.error.message).toMatch(message);
+  });
+
+  it("only the river's creator or the jurisdiction's regulator may change it", async () => {
+    const res = await grower.patch(`/api/v1/rivers/${amberlinId}`).send({ mixingLength: 1000 }).expect(403);
+    expect(res.body.error.message).toMatch(/creator or a regulator/);
+    await grower2.get(`/api/v1/rivers/${amberlinId}`).expect(200);
+  });
+
+  it('a user of no jurisdiction does not see the region’s rivers', async () => {
+    await request(t.app).post('/api/v1/account/sign-up').send({ name: 'Elsewhere', email: 'elsewhere@brackline.test', password: 'elsewhere-pw-1' });
+    const other = (await signIn(t.app, 'elsewhere@brackline.test', 'elsewhere-pw-1')).agent;
+    await other.get(`/api/v1/rivers/${amberlinId}`).expect(404);
+  });
+});
+
+describe('flow records and scenarios', () => {
+  it('reports row problems and stores nothing until the user accepts them', async () => {
+    const river = await adviser.post('/api/v1/rivers').send({ ...newRiver, name: 'Messy Brook' }).expect(201);
+    const csv = readFileSync(path.resolve(import.meta.dirname, '../../../demo-data/flows/tolley-brook-daily.csv'), 'utf8').split('\n');
+    csv.splice(100, 0, '1991-01-05,abc', 'not-a-date,5', '1991-01-07,-3');
+    const messy = csv.join('\n');
+    const refused = await adviser.post(`/api/v1/rivers/${river.body.id}/flow-records?units=m3s`).set('Content-Type', 'text/csv').send(messy).expect(422);
+    expect(refused.body.error.message).toMatch(/3 of \d+ rows have problems/);
+    expect(refused.body.error.details.problems.map((p: { row: number }) => p.row)).toEqual([101, 102, 103]);
+    expect(refused.body.error.details.problems[0].reason).toMatch(/not a number/);
+    const none = await adviser.get(`/api/v1/rivers/${river.body.id}/scenarios`).expect(200);
+    expect(none.body.items).toEqual([]);
+    // The river has no coast of its own, and none in its (adviser's) jurisdiction is a line… the demo shoreline serves it.
+    const accepted = await adviser
+      .post(`/api/v1/rivers/${river.body.id}/flow-records?units=m3s&acceptProblems=true`)
+      .set('Content-Type', 'text/csv')
+      .send(messy)
+      .expect(201);
+    expect(accepted.body.problems).toHaveLength(3);
+    expect(accepted.body.fit.n).toBe(35);
+    const scenarios = await adviser.get(`/api/v1/rivers/${river.body.id}/scenarios`).expect(200);
+    const aeps = scenarios.body.items.filter((s: { kind: string }) => s.kind === 'aep').map((s: { aep: number }) => s.aep).sort();
+    expect(aeps).toEqual([0.01, 0.02, 0.04, 0.1, 0.2, 0.5]);
+    expect(scenarios.body.items.filter((s: { kind: string }) => s.kind === 'seasonal')).toHaveLength(4);
+  });
+
+  it('adds, edits and deletes a typed scenario; fitted ones cannot be deleted', async () => {
+    const created = await regulator.post(`/api/v1/rivers/${amberlinId}/scenarios`).send({ name: 'Storm of record', discharge: 3200, durationHours: 96 }).expect(201);
+    expect(created.body.kind).toBe('manual');
+    const edited = await regulator.patch(`/api/v1/scenarios/${created.body.id}`).send({ durationHours: 72 }).expect(200);
+    expect(edited.body.durationHours).toBe(72);
+    await regulator.delete(`/api/v1/scenarios/${created.body.id}`).expect(204);
+    const fitted = (await regulator.get(`/api/v1/rivers/${amberlinId}/scenarios`)).body.items.find((s: { kind: string }) => s.kind === 'aep');
+    const refused = await regulator.delete(`/api/v1/scenarios/${fitted.id}`).expect(403);
+    expect(refused.body.error.message).toMatch(/upload a new record/);
+  });
+});
+
+describe('screening the demo region', () => {
+  it('every demo lease has a screening for every scenario of each river', async () => {
+    const counts = await t.db.pool.query(`
+      select r.name, (select count(*) from scenarios s where s.river_id = r.id)::int as scenarios,
+             (select count(*) from screenings x where x.river_id = r.id)::int as screenings,
+             (select count(*) from leases l where l.jurisdiction_id = r.jurisdiction_id and l.lease_code like 'FB-%')::int as leases
+        from rivers r where r.name in ('Amberlin River', 'Tolley Brook')`);
+    for (const row of counts.rows) {
+      expect(row.scenarios).toBeGreaterThanOrEqual(10);
+      expect(row.screenings).toBeGreaterThanOrEqual(row.scenarios * row.leases);
+    }
+  });
+
+  it('gives every rating its reasons, and never calls a site safe', async () => {
+    const res = await regulator.get(`/api/v1/screenings?riverId=${amberlinId}&limit=5000`).expect(200);
+    expect(res.body.items.length).toBeGreaterThan(100);
+    for (const s of res.body.items) {
+      expect(['low', 'moderate', 'high', 'severe']).toContain(s.rating);
+      expect(s.reasons.length).toBeGreaterThan(0);
+      expect(s.reasons.join(' ')).not.toMatch(/\bsafe\b/i);
+      expect(s.modelVersion).toMatch(/^brackline-model-/);
+    }
+  });
+
+  it('a grower sees only the screenings of leases it may see', async () => {
+    const mine = await grower.get('/api/v1/screenings?limit=5000').expect(200);
+    const codes = new Set(mine.body.items.map((s: { leaseCode: string }) => s.leaseCode));
+    const own = await grower.get('/api/v1/leases?limit=5000&withGeometry=false').expect(200);
+    const ownCodes = new Set(own.body.items.map((l: { leaseId: string }) => l.leaseId));
+    for (const c of codes) expect(ownCodes.has(c)).toBe(true);
+    expect(codes.size).toBeGreaterThan(0);
+  });
+
+  it('returns a footprint as GeoJSON for a scenario and for a typed flow, with its inputs', async () => {
+    const scenarios = (await grower.get(`/api/v1/rivers/${amberlinId}/scenarios`)).body.items;
+    const tenYear = scenarios.find((s: { aep: number | null }) => s.aep === 0.1);
+    const fp = await grower.get(`/api/v1/footprints?riverId=${amberlinId}&scenarioId=${tenYear.id}`).expect(200);
+    expect(fp.body.type).toBe('FeatureCollection');
+    expect(fp.body.properties.modelVersion).toMatch(/^brackline-model-/);
+    expect(fp.body.properties.plume.turnsTo).toBe('right');
+    const bandIds = fp.body.features.map((f: { id: string }) => f.id);
+    expect(bandIds).toContain('plume-edge');
+    const adhoc = await grower.get(`/api/v1/footprints?riverId=${amberlinId}&discharge=500&durationHours=48`).expect(200);
+    expect(adhoc.body.properties.discharge).toBe(500);
+    const again = await grower.get(`/api/v1/footprints?riverId=${amberlinId}&discharge=500&durationHours=48`).expect(200);
+    expect(again.body.properties.footprintId).toBe(adhoc.body.properties.footprintId);
+  });
+
+  it('sweeps flows for one lease: bands are entered at rising flows', async () => {
+    const lease = (await grower.get('/api/v1/leases?q=FB-001')).body.items[0];
+    const sweep = await grower.get(`/api/v1/leases/${lease.id}/sweep?riverId=${amberlinId}`).expect(200);
+    expect(sweep.body.curve.length).toBe(60);
+    const flows = sweep.body.curve.map((p: { discharge: number }) => p.discharge);
+    expect([...flows].sort((a, b) => a - b)).toEqual(flows);
+    const enters = Object.fromEntries(sweep.body.bands.map((b: { bandId: string; entersAtDischarge: number | null }) => [b.bandId, b.entersAtDischarge]));
+    // Any river water arrives no later than water fresh enough to harm the species.
+    const plumeEdge = enters['plume-edge'];
+    for (const [id, q] of Object.entries(enters)) if (q !== null && id.startsWith('salinity')) expect(plumeEdge).not.toBeNull();
+    expect(sweep.body.note).toMatch(/typical flood duration/);
+  });
+
+  it('refuses a sweep of a lease the user may not see', async () => {
+    const lease = (await grower.get('/api/v1/leases?q=FB-001')).body.items[0];
+    await grower2.get(`/api/v1/leases/${lease.id}/sweep?riverId=${amberlinId}`).expect(404);
+  });
+
+  it('serves lease vector tiles', async () => {
+    const res = await regulator.get('/api/v1/tiles/leases/10/402/383.mvt').buffer(true).parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/vnd.mapbox-vector-tile/);
+    expect((res.body as Buffer).length).toBeGreaterThan(100);
+  });
+
+  it('annualises exposure across the flood-frequency scenarios', async () => {
+    const res = await grower.get('/api/v1/screenings/annual').expect(200);
+    expect(res.body.items.length).toBeGreaterThan(0);
+    for (const a of res.body.items) {
+      expect(a.expectedDaysPerYear).toBeGreaterThanOrEqual(0);
+      expect(a.probabilityAnyExposure).toBeGreaterThanOrEqual(0);
+      expect(a.probabilityAnyExposure).toBeLessThanOrEqual(1);
+    }
+  });
+});
