@@ -9,6 +9,8 @@ import { loadEnv, uploadLimitsFromEnv } from './env';
 import { startSmtpFake, type SmtpFake } from './fakes/smtp-fake';
 import { logger } from './lib/logger';
 import { createMailer } from './mail/mailer';
+import { createPgBossScreeningJobs } from './jobs/screening-jobs';
+import { createScreeningService } from './services/screening.service';
 
 async function main() {
   let env: ReturnType<typeof loadEnv>;
@@ -34,7 +36,11 @@ async function main() {
       process.exit(1);
     }
   }
-  const app = createApp({ env, db: dbHandle, mailer, uploadLimits: uploadLimitsFromEnv() });
+  // Screening runs in pg-boss workers on the same PostgreSQL (WORKERS=false leaves it to other processes).
+  const jobs = await createPgBossScreeningJobs(env.DATABASE_URL, dbHandle.db, createScreeningService({ db: dbHandle.db }), {
+    work: process.env.WORKERS !== 'false',
+  });
+  const app = createApp({ env, db: dbHandle, mailer, uploadLimits: uploadLimitsFromEnv(), jobs });
   const server: Server = app.listen(env.PORT, env.HOST);
   server.on('error', (err: NodeJS.ErrnoException) => {
     console.error(
@@ -58,6 +64,7 @@ async function main() {
     const force = setTimeout(() => process.exit(1), 10_000);
     force.unref();
     server.close(async () => {
+      await jobs.stop().catch(() => undefined);
       await smtp?.stop();
       mailer.close();
       await dbHandle.pool.end();
