@@ -132,6 +132,8 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
       daylightFraction: r.daylightFraction,
       indicator: r.indicator,
       alongshoreShare: r.alongshoreShare,
+      // Demo value (invented): near-field mixing halves the river water's share at the mouth.
+      nearFieldFreshwaterFraction: 0.5,
       gaugeName: r.gauge.name,
       gaugeCode: r.gauge.code,
     });

@@ -55,7 +55,7 @@ export function plumeFor(settings: RiverSettings, flow: { discharge: number; dur
     alongshoreShare: settings.alongshoreShare,
     floodDurationHours: flow.durationHours,
   });
-  const params = exposureParameters(
+  const base = exposureParameters(
     {
       mixingLength: settings.mixingLength,
       t90DayHours: settings.t90DayHours,
@@ -66,6 +66,7 @@ export function plumeFor(settings: RiverSettings, flow: { discharge: number; dur
     { seaSalinity: settings.seaSalinity, riverSalinity: settings.riverSalinity },
     flow.discharge,
   );
+  const params: ExposureParameters = { ...base, sourceFreshwaterFraction: settings.nearFieldFreshwaterFraction ?? 1 };
   return { plume, params };
 }
 

@@ -584,6 +584,15 @@ function coastInBox(context: Context, box: number[]): { negative: OverlayLine[];
     const pts = line.points;
     const n = pts.length;
     const count = line.closed ? n : n - 1;
+    // An open shoreline that ends inside the box cannot part land from sea there, so its ends
+    // are carried on straight, in the direction of their last segment, past the box (c).
+    const reachOut = 2 * Math.hypot(box[2] - box[0], box[3] - box[1]);
+    const extend = (end: PlanarPoint, before: PlanarPoint): PlanarPoint => {
+      const dx = end[0] - before[0];
+      const dy = end[1] - before[1];
+      const len = Math.hypot(dx, dy) || 1;
+      return [end[0] + (dx / len) * reachOut, end[1] + (dy / len) * reachOut];
+    };
     let run: PlanarPoint[] = [];
     let runMarks: number[] = [];
     const flush = () => {
@@ -604,9 +613,19 @@ function coastInBox(context: Context, box: number[]): { negative: OverlayLine[];
         flush();
         continue;
       }
-      if (run.length === 0) run.push(a);
+      if (run.length === 0) {
+        if (!line.closed && i === 0 && n >= 2) {
+          run.push(extend(a, b));
+          runMarks.push(0);
+        }
+        run.push(a);
+      }
       run.push(b);
       runMarks.push(marks[i]);
+      if (!line.closed && i === count - 1 && n >= 2) {
+        run.push(extend(b, a));
+        runMarks.push(0);
+      }
     }
     flush();
   });

@@ -16,7 +16,18 @@ export const RIVER_WATER_DEFAULTS = {
   seaTemperature: { value: 10, unit: '°C', label: 'c', source: 'common practice: a temperate winter coast' },
 } as const;
 
-export const RIVER_DEFAULTS = { ...RIVER_WATER_DEFAULTS, ...RIVER_PARAMETER_DEFAULTS } as const;
+/** The freshwater fraction of the water leaving the mouth region, before alongshore mixing. */
+export const NEAR_FIELD_DEFAULT = {
+  nearFieldFreshwaterFraction: {
+    value: 1,
+    unit: '',
+    label: 'c',
+    source:
+      'common practice: undiluted river water at the mouth, the cautious bound; near-field mixing usually lowers it (Horner-Devine, Hetland & MacDonald 2015, a), and calibration can fit it',
+  },
+} as const;
+
+export const RIVER_DEFAULTS = { ...RIVER_WATER_DEFAULTS, ...RIVER_PARAMETER_DEFAULTS, ...NEAR_FIELD_DEFAULT } as const;
 export type DefaultableField = keyof typeof RIVER_DEFAULTS;
 export const DEFAULTABLE_FIELDS = Object.keys(RIVER_DEFAULTS) as DefaultableField[];
 
@@ -46,6 +57,10 @@ const settingsShape = {
   daylightFraction: numberField('daylightFraction', '', 'Fraction of the day in daylight', { min: 0, max: 1 }).optional(),
   indicator: IndicatorSpecSchema.optional(),
   alongshoreShare: numberField('alongshoreShare', '', 'Share of the discharge carried on into the coastal current', { min: 0.3, max: 1 }).optional(),
+  nearFieldFreshwaterFraction: numberField('nearFieldFreshwaterFraction', '', 'Freshwater fraction of the water leaving the mouth region (1 = undiluted river water)', {
+    min: 0.05,
+    max: 1,
+  }).optional(),
   gaugeName: z.string().trim().max(120, { error: 'gaugeName must be at most 120 characters' }).optional(),
   gaugeCode: z.string().trim().max(60, { error: 'gaugeCode must be at most 60 characters' }).optional(),
   coastId: z.uuid({ error: 'coastId must be a coast id (UUID)' }).optional(),

@@ -158,7 +158,7 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
       </div>
 
       {canEdit && selectedIds.length > 0 && (
-        <div className="flex flex-wrap items-center gap-2 rounded-md bg-deep-50 p-2 text-sm" role="region" aria-label="Bulk actions">
+        <section className="flex flex-wrap items-center gap-2 rounded-md bg-deep-50 p-2 text-sm" aria-label="Bulk actions">
           <span>{selectedIds.length} selected:</span>
           <Button variant="secondary" onClick={() => bulkStatus.mutate('held')} disabled={bulkStatus.isPending}>
             Mark held
@@ -167,7 +167,7 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
             Mark candidate
           </Button>
           {bulkStatus.isPending && <span role="status">Saving {selectedIds.length} leases…</span>}
-        </div>
+        </section>
       )}
       {bulkStatus.isError && <Notice tone="problem">{(bulkStatus.error as Error).message}</Notice>}
 
