@@ -497,3 +497,39 @@ export const screeningRuns = pgTable(
   },
   (t) => [index('screening_runs_river_idx').on(t.riverId, t.queuedAt)],
 );
+
+// ---------------------------------------------------------------------------------------------
+// Monitoring stations and samples (loaded with the demo region; calibration builds on them).
+
+export const stations = pgTable(
+  'stations',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    code: text('code').notNull(),
+    name: text('name'),
+    jurisdictionId: uuid('jurisdiction_id').references(() => jurisdictions.id),
+    ownerId: text('owner_id').references(() => users.id),
+    geom: geometryColumn('geom', 'Point').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('stations_owner_code_idx').on(t.ownerId, t.code), index('stations_geom_idx').using('gist', t.geom)],
+);
+
+export const samples = pgTable(
+  'samples',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    stationId: uuid('station_id')
+      .notNull()
+      .references(() => stations.id, { onDelete: 'cascade' }),
+    sampledAt: timestamp('sampled_at', { withTimezone: true }).notNull(),
+    salinity: doublePrecision('salinity'),
+    /** Indicator count per 100 mL; with `indicatorCensored` it is a detection limit ("<2", ">1600"). */
+    indicator: doublePrecision('indicator'),
+    indicatorCensored: text('indicator_censored', { enum: ['below', 'above'] }),
+    indicatorName: text('indicator_name').notNull().default('E. coli'),
+    method: text('method'),
+    temperature: doublePrecision('temperature'),
+  },
+  (t) => [uniqueIndex('samples_station_time_idx').on(t.stationId, t.sampledAt)],
+);

@@ -106,6 +106,29 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
        WHERE NOT EXISTS (SELECT 1 FROM closure_zones WHERE name = ${p.ZONE_NAME} AND jurisdiction_id = ${jurisdiction.id}::uuid)`);
   }
 
+  // Monitoring stations and their samples (detection limits kept as censored values).
+  const stationFile = readJson('monitoring/stations.geojson');
+  for (const f of stationFile.features) {
+    await db.execute(sql`
+      INSERT INTO stations (code, name, jurisdiction_id, owner_id, geom)
+      VALUES (${f.properties.STATION_ID}, ${f.properties.NAME ?? null}, ${jurisdiction.id}::uuid, ${regulator.id},
+              ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify(f.geometry)}), 4326))
+      ON CONFLICT (owner_id, code) DO NOTHING`);
+  }
+  const sampleRows = readFileSync(path.join(DEMO_DIR, 'monitoring/samples.csv'), 'utf8').trim().split(/\r?\n/).slice(1);
+  const parsedSamples = sampleRows.map((line) => {
+    const [station, at, salinity, ecoli, method, temperature] = line.split(',');
+    const censored = ecoli.startsWith('<') ? 'below' : ecoli.startsWith('>') ? 'above' : null;
+    return { station, at, salinity: salinity === '' ? null : Number(salinity), indicator: Number(ecoli.replace(/^[<>]/, '')), censored, method, temperature: temperature === '' ? null : Number(temperature) };
+  });
+  await db.execute(sql`
+    INSERT INTO samples (station_id, sampled_at, salinity, indicator, indicator_censored, method, temperature)
+    SELECT st.id, x.at, x.salinity, x.indicator, x.censored, x.method, x.temperature
+      FROM jsonb_to_recordset(${JSON.stringify(parsedSamples)}::jsonb)
+           AS x(station text, at timestamptz, salinity double precision, indicator double precision, censored text, method text, temperature double precision)
+      JOIN stations st ON st.code = x.station AND st.owner_id = ${regulator.id}
+    ON CONFLICT (station_id, sampled_at) DO NOTHING`);
+
   // Rivers with their flow records (this also makes the scenarios), then screening.
   const screening = createScreeningService({ db });
   const jobs = createInlineScreeningJobs(db, screening);

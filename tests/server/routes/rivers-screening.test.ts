@@ -120,6 +120,13 @@ describe('screening the demo region', () => {
     }
   });
 
+  it('loads the demo monitoring stations and samples, keeping detection limits as censored values', async () => {
+    const r = await t.db.pool.query("select (select count(*) from stations)::int as stations, (select count(*) from samples)::int as samples, (select count(*) from samples where indicator_censored is not null)::int as censored");
+    expect(r.rows[0].stations).toBe(8);
+    expect(r.rows[0].samples).toBe(309);
+    expect(r.rows[0].censored).toBe(22);
+  });
+
   it('gives every rating its reasons, and never calls a site safe', async () => {
     const res = await regulator.get(`/api/v1/screenings?riverId=${amberlinId}&limit=5000`).expect(200);
     expect(res.body.items.length).toBeGreaterThan(100);
