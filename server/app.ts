@@ -19,6 +19,7 @@ import { errorHandler } from './middleware/error-handler';
 import { registerAccountRoutes } from './routes/account.routes';
 import { registerAdminRoutes } from './routes/admin.routes';
 import { registerCalcRoutes } from './routes/calc.routes';
+import { registerCoastRoutes } from './routes/coasts.routes';
 import { registerImportRoutes } from './routes/imports.routes';
 import { registerLeaseRoutes } from './routes/leases.routes';
 import { registerRiverRoutes } from './routes/rivers.routes';
@@ -124,6 +125,7 @@ export function createApp(deps: AppDeps): Express {
   registerLeaseRoutes(ctx, createLeasesService(db, { onLeasesChanged: leasesChanged }));
   const rivers = createRiversService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) });
   registerRiverRoutes(ctx, rivers, jobs);
+  registerCoastRoutes(ctx, db);
   registerScreeningRoutes(ctx, db, rivers, screening, createSweepService({ db, screening }));
 
   const openApi = buildOpenApiDocument(registry);

@@ -64,6 +64,7 @@ export const importKeys = {
   detail: (id: string) => queryOptions({ queryKey: [...importKeys.all, id] as const, queryFn: () => api<ImportResult>(`/imports/${id}`) }),
   preview: (id: string, status: string) =>
     queryOptions({ queryKey: [...importKeys.all, id, 'preview', status] as const, queryFn: () => api<FeatureCollection>(`/imports/${id}/preview`) }),
+  coasts: () => queryOptions({ queryKey: ['coasts'] as const, queryFn: () => api<FeatureCollection>('/coasts'), staleTime: 5 * 60_000 }),
   crsSearch: (q: string) =>
     queryOptions({
       queryKey: ['crs', q] as const,

@@ -164,10 +164,18 @@ function PreviewAndConfirm({
   const repaired = result.features.filter((f) => f.repaired);
   const onLand = result.features.filter((f) => f.onLand);
   const words = KIND_WORDS[result.kind];
+  const coasts = useQuery(importKeys.coasts());
   const layers = useMemo(
-    () => (preview.data ? [{ id: 'upload', label: `${words.plural} in ${result.fileName}`, data: preview.data, fill: 'rgba(47,122,102,0.35)', stroke: '#1f5548' }] : []),
-    [preview.data, result.fileName, words.plural],
+    () => [
+      ...(coasts.data?.features.length ? [{ id: 'coast', label: 'Known coastline, for reference', data: coasts.data, fill: 'rgba(234,220,191,0.6)', stroke: '#9c7a3f', strokeWidth: 1 }] : []),
+      ...(preview.data ? [{ id: 'upload', label: `${words.plural} in ${result.fileName}`, data: preview.data, fill: 'rgba(47,122,102,0.35)', stroke: '#1f5548' }] : []),
+    ],
+    [preview.data, coasts.data, result.fileName, words.plural],
   );
+  const all = result.features.map((f) => f.bbox);
+  const centre = all.length
+    ? [(Math.min(...all.map((b) => b[0])) + Math.max(...all.map((b) => b[2]))) / 2, (Math.min(...all.map((b) => b[1])) + Math.max(...all.map((b) => b[3]))) / 2]
+    : null;
 
   if (pickCrs) return <ChooseCrs result={result} onChosen={(r) => { setPickCrs(false); onChangeCrs(r); }} />;
 
@@ -203,6 +211,10 @@ function PreviewAndConfirm({
           <button type="button" className="text-deep-700 underline" onClick={() => setPickCrs(true)}>
             change
           </button>
+        </dd>
+        <dt className="font-semibold">Lands around</dt>
+        <dd data-testid="lands-around">
+          {centre ? `${Math.abs(centre[1]).toFixed(3)}° ${centre[1] >= 0 ? 'N' : 'S'}, ${Math.abs(centre[0]).toFixed(3)}° ${centre[0] >= 0 ? 'E' : 'W'}` : '—'}
         </dd>
         <dt className="font-semibold">Area</dt>
         <dd>{areas.length ? `${formatArea(Math.min(...areas))} to ${formatArea(Math.max(...areas))}` : '—'}</dd>
