@@ -4,7 +4,7 @@ import type { VectorMapProps } from './vector-map';
 
 const VectorMap = lazy(() => import('./vector-map'));
 
-export type { MapLayerSpec, VectorMapProps } from './vector-map';
+export type { MapLayerSpec, MapSelection, VectorMapProps } from './vector-map';
 
 /** The vector map, with its OpenLayers code fetched only when a map is shown. */
 export function LazyVectorMap(props: VectorMapProps) {
@@ -13,4 +13,10 @@ export function LazyVectorMap(props: VectorMapProps) {
       <VectorMap {...props} />
     </Suspense>
   );
+}
+
+/** The drawn map inside `container` as a PNG (loads the map module only when asked). */
+export async function mapImageOf(container: HTMLElement | null) {
+  const mod = await import('./vector-map');
+  return mod.mapImage(container);
 }

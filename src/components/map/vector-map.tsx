@@ -23,24 +23,98 @@ export interface MapLayerSpec {
   dashed?: boolean;
   /** Property shown as a label on each feature. */
   labelProperty?: string;
+  /** Property holding a per-feature fill colour (overrides `fill`). */
+  fillProperty?: string;
+  /** Property holding a per-feature outline colour (overrides `stroke`). */
+  strokeProperty?: string;
+  /** Left out of the map's own legend (the page draws its own). */
+  hideInLegend?: boolean;
+}
+
+export interface MapSelection {
+  layerId: string;
+  properties: Record<string, unknown>;
+  /** Pixel of the click inside the map. */
+  pixel: [number, number];
 }
 
 export interface VectorMapProps {
   layers: MapLayerSpec[];
-  height?: number;
+  height?: number | string;
   ariaLabel: string;
+  /** Fit the view to these layers only (default: all). */
+  fitTo?: string[];
+  /** 'always' re-fits whenever the layers change; 'once' only the first time there is something to show. */
+  fit?: 'always' | 'once';
+  maxZoom?: number;
+  /** Called with the top-most clicked feature of a clickable layer, or null for a click on empty water. */
+  onSelect?: (selection: MapSelection | null) => void;
+  clickableLayers?: string[];
+  /** Written to the map's data-drawn attribute once these layers are on the map (for tests and printing). */
+  drawnKey?: string;
+  showLegend?: boolean;
 }
 
 const geojson = new GeoJSON({ dataProjection: 'EPSG:4326', featureProjection: 'EPSG:3857' });
 
-export default function VectorMap({ layers, height = 320, ariaLabel }: VectorMapProps) {
+/** The map's canvases flattened into one PNG data URL, or null if there is no map in `container`. */
+export function mapImage(container: HTMLElement | null): { dataUrl: string; width: number; height: number } | null {
+  const canvases = container ? [...container.querySelectorAll<HTMLCanvasElement>('.ol-layer canvas, canvas.ol-layer')] : [];
+  if (!canvases.length) return null;
+  const width = canvases[0].width;
+  const height = canvases[0].height;
+  const out = document.createElement('canvas');
+  out.width = width;
+  out.height = height;
+  const ctx = out.getContext('2d');
+  if (!ctx) return null;
+  ctx.fillStyle = '#eef3f8';
+  ctx.fillRect(0, 0, width, height);
+  for (const c of canvases) if (c.width > 0) ctx.drawImage(c, 0, 0, width, height);
+  return { dataUrl: out.toDataURL('image/png'), width, height };
+}
+
+export default function VectorMap({
+  layers,
+  height = 320,
+  ariaLabel,
+  fitTo,
+  fit = 'always',
+  maxZoom = 16,
+  onSelect,
+  clickableLayers,
+  drawnKey,
+  showLegend = true,
+}: VectorMapProps) {
   const target = useRef<HTMLDivElement>(null);
   const mapRef = useRef<OlMap | null>(null);
+  const fitted = useRef(false);
+  const selectRef = useRef(onSelect);
+  selectRef.current = onSelect;
+  const clickableRef = useRef(clickableLayers);
+  clickableRef.current = clickableLayers;
 
   useEffect(() => {
     if (!target.current) return;
     const map = new OlMap({ target: target.current, view: new View({ center: [0, 0], zoom: 2 }), controls: undefined });
     mapRef.current = map;
+    map.on('singleclick', (event) => {
+      const handler = selectRef.current;
+      if (!handler) return;
+      let found: MapSelection | null = null;
+      map.forEachFeatureAtPixel(
+        event.pixel,
+        (feature, layer) => {
+          const layerId = String(layer?.get('id') ?? '');
+          if (clickableRef.current && !clickableRef.current.includes(layerId)) return undefined;
+          const { geometry: _g, ...properties } = feature.getProperties();
+          found = { layerId, properties, pixel: [event.pixel[0], event.pixel[1]] };
+          return true;
+        },
+        { hitTolerance: 3 },
+      );
+      handler(found);
+    });
     return () => {
       map.setTarget(undefined);
       mapRef.current = null;
@@ -54,22 +128,26 @@ export default function VectorMap({ layers, height = 320, ariaLabel }: VectorMap
     const extentSource = new VectorSource();
     for (const spec of layers) {
       const source = new VectorSource({ features: geojson.readFeatures(spec.data) });
-      extentSource.addFeatures(source.getFeatures());
+      if (!fitTo || fitTo.includes(spec.id)) extentSource.addFeatures(source.getFeatures());
       map.addLayer(
         new VectorLayer({
           source,
           properties: { id: spec.id },
           style: (feature) =>
             new Style({
-              fill: new Fill({ color: spec.fill }),
-              stroke: new Stroke({ color: spec.stroke, width: spec.strokeWidth ?? 2, lineDash: spec.dashed ? [6, 4] : undefined }),
+              fill: new Fill({ color: (spec.fillProperty && (feature.get(spec.fillProperty) as string)) || spec.fill }),
+              stroke: new Stroke({
+                color: (spec.strokeProperty && (feature.get(spec.strokeProperty) as string)) || spec.stroke,
+                width: spec.strokeWidth ?? 2,
+                lineDash: spec.dashed ? [6, 4] : undefined,
+              }),
               text: spec.labelProperty
                 ? new Text({
                     text: String(feature.get(spec.labelProperty) ?? ''),
                     font: '12px "Merriweather Sans", sans-serif',
                     fill: new Fill({ color: '#0c2238' }),
                     stroke: new Stroke({ color: '#ffffff', width: 3 }),
-                    overflow: false,
+                    overflow: true,
                   })
                 : undefined,
             }),
@@ -77,26 +155,30 @@ export default function VectorMap({ layers, height = 320, ariaLabel }: VectorMap
       );
     }
     const extent = extentSource.getExtent();
-    if (extent && extentSource.getFeatures().length && Number.isFinite(extent[0])) {
-      map.getView().fit(extent, { padding: [24, 24, 24, 24], maxZoom: 16 });
+    if ((fit === 'always' || !fitted.current) && extent && extentSource.getFeatures().length && Number.isFinite(extent[0])) {
+      map.getView().fit(extent, { padding: [24, 24, 24, 24], maxZoom });
+      fitted.current = true;
     }
-  }, [layers]);
+    if (target.current) {
+      if (drawnKey) target.current.dataset.drawn = drawnKey;
+      else delete target.current.dataset.drawn;
+    }
+  }, [layers, fitTo, fit, maxZoom, drawnKey]);
 
+  const legend = layers.filter((l) => !l.hideInLegend);
   return (
     <figure className="m-0">
       <div ref={target} role="img" aria-label={ariaLabel} style={{ height }} className="w-full rounded-md border border-shell-300 bg-deep-50" />
-      <figcaption className="mt-2 flex flex-wrap gap-4 text-xs text-shell-700">
-        {layers.map((l) => (
-          <span key={l.id} className="flex items-center gap-1">
-            <span
-              aria-hidden
-              className="inline-block h-3 w-5"
-              style={{ background: l.fill, border: `2px ${l.dashed ? 'dashed' : 'solid'} ${l.stroke}` }}
-            />
-            {l.label}
-          </span>
-        ))}
-      </figcaption>
+      {showLegend && legend.length > 0 && (
+        <figcaption className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-shell-700">
+          {legend.map((l) => (
+            <span key={l.id} className="flex items-center gap-1">
+              <span aria-hidden className="inline-block h-3 w-5" style={{ background: l.fill, border: `2px ${l.dashed ? 'dashed' : 'solid'} ${l.stroke}` }} />
+              {l.label}
+            </span>
+          ))}
+        </figcaption>
+      )}
     </figure>
   );
 }
