@@ -10,6 +10,9 @@ import { ResetPasswordPage } from '../features/auth/components/reset-password-pa
 import { SignInPage } from '../features/auth/components/sign-in-page';
 import { SignUpPage } from '../features/auth/components/sign-up-page';
 import { PlumeCalculatorPage } from '../features/calculator/components/plume-calculator-page';
+import { ComparePage } from '../features/compare/components/compare-page';
+import { ExposureMapPage } from '../features/exposure-map/components/exposure-map-page';
+import { LeaseReportPage } from '../features/lease-report/components/lease-report-page';
 import { NotFoundPage } from './routes/not-found-page';
 import { LeasesRoute } from './routes/leases-route';
 import { OverviewPage } from './routes/overview-page';
@@ -33,6 +36,9 @@ export function createRouter() {
       children: [
         { path: '/', element: <OverviewPage />, errorElement: <RouteError /> },
         { path: '/leases', element: <LeasesRoute />, errorElement: <RouteError /> },
+        { path: '/leases/:id', element: <LeaseReportPage />, errorElement: <RouteError /> },
+        { path: '/map', element: <ExposureMapPage />, errorElement: <RouteError /> },
+        { path: '/compare', element: <ComparePage />, errorElement: <RouteError /> },
         { path: '/plume-calculator', element: <PlumeCalculatorPage />, errorElement: <RouteError /> },
         { path: '/admin/people', element: <PeoplePage />, errorElement: <RouteError /> },
         { path: '/admin/outbox', element: <OutboxPage />, errorElement: <RouteError /> },

@@ -13,16 +13,22 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
   grower: [
     { to: '/', label: 'Overview' },
     { to: '/leases', label: 'Leases' },
+    { to: '/map', label: 'Exposure map' },
+    { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
   ],
   adviser: [
     { to: '/', label: 'Overview' },
     { to: '/leases', label: 'Leases' },
+    { to: '/map', label: 'Exposure map' },
+    { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
   ],
   regulator: [
     { to: '/', label: 'Overview' },
     { to: '/leases', label: 'Leases' },
+    { to: '/map', label: 'Exposure map' },
+    { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
   ],
   admin: [

@@ -9,6 +9,7 @@ import { createApp } from '../../server/app';
 import { createDb } from '../../server/db/client';
 import { runMigrations } from '../../server/db/migrate';
 import { seedDemo } from '../../server/db/seed';
+import { seedDemoRegion } from '../../server/db/seed-demo-region';
 import { loadEnv } from '../../server/env';
 import { startSmtpFake } from '../../server/fakes/smtp-fake';
 import { createMailer } from '../../server/mail/mailer';
@@ -26,6 +27,8 @@ export default async function setup(project: TestProject) {
   await runMigrations(url);
   const db = createDb(url, 5);
   await seedDemo(db.db);
+  // The Fennick Bay region (coast, rivers, flow records, scenarios, leases, screenings) for the report and map tests.
+  await seedDemoRegion(db.db);
   const smtp = await startSmtpFake(db.db, 0);
   const env = loadEnv({
     NODE_ENV: 'test',

@@ -14,10 +14,10 @@ afterAll(async () => {
 });
 
 const EXPECTED_NAV = {
-  grower: { sees: ['Overview', 'Leases', 'Plume calculator'], doesNotSee: ['People', 'Outbox'] },
-  adviser: { sees: ['Overview', 'Leases', 'Plume calculator'], doesNotSee: ['People', 'Outbox'] },
-  regulator: { sees: ['Overview', 'Leases', 'Plume calculator'], doesNotSee: ['People', 'Outbox'] },
-  admin: { sees: ['Overview', 'People', 'Outbox', 'Audit log'], doesNotSee: ['Plume calculator', 'Leases'] },
+  grower: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox'] },
+  adviser: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox'] },
+  regulator: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox'] },
+  admin: { sees: ['Overview', 'People', 'Outbox', 'Audit log'], doesNotSee: ['Plume calculator', 'Leases', 'Exposure map', 'Compare'] },
 } as const;
 
 describe('each demo role signs in and sees its own navigation', () => {

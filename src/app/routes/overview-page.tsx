@@ -1,7 +1,12 @@
+import { useQuery } from '@tanstack/react-query';
+import { Link } from 'react-router-dom';
 import { Cautions } from '../../components/ui/cautions';
 import { PageHeader } from '../../components/ui/page-header';
-import { Empty } from '../../components/ui/states';
+import { RatingBadge, RatingLegend, ratingRank } from '../../components/ui/rating-badge';
+import { Empty, LoadError, Loading } from '../../components/ui/states';
 import { useMe } from '../../features/account/api/get-me';
+import { type AnnualRow, exposureKeys } from '../../lib/exposure-api';
+import { fmtNumber } from '../../lib/format';
 
 const QUESTION = {
   grower: 'How exposed are my leases to river flood water?',
@@ -10,6 +15,90 @@ const QUESTION = {
   admin: 'Who is using Brackline, and is everything running?',
 } as const;
 
+interface LeaseSummary {
+  leaseId: string;
+  leaseCode: string;
+  worst: AnnualRow['worstRating'];
+  worstRiver: string;
+  expectedDays: number;
+  chance: number;
+}
+
+/** One row per lease: its worst rating over every river, and the yearly figures summed over rivers. */
+function summarise(rows: AnnualRow[]): LeaseSummary[] {
+  const m = new Map<string, LeaseSummary>();
+  for (const r of rows) {
+    const s = m.get(r.leaseId) ?? { leaseId: r.leaseId, leaseCode: r.leaseCode, worst: null, worstRiver: '', expectedDays: 0, chance: 0 };
+    if (ratingRank(r.worstRating) > ratingRank(s.worst)) {
+      s.worst = r.worstRating;
+      s.worstRiver = r.riverName;
+    }
+    s.expectedDays += r.expectedDaysPerYear ?? 0;
+    // Rivers flood independently here: the chance of no exposure is the product over rivers.
+    s.chance = 1 - (1 - s.chance) * (1 - (r.probabilityAnyExposure ?? 0));
+    m.set(r.leaseId, s);
+  }
+  return [...m.values()].sort(
+    (a, b) => ratingRank(b.worst) - ratingRank(a.worst) || b.expectedDays - a.expectedDays || a.leaseCode.localeCompare(b.leaseCode),
+  );
+}
+
+function chanceWords(p: number): string {
+  if (p <= 0) return 'Not at any screened flood';
+  if (p >= 0.99) return 'Most years';
+  return `${fmtNumber(p * 100, p < 0.1 ? 1 : 0)}% a year (about 1 year in ${fmtNumber(1 / p, 0)})`;
+}
+
+function LeasesByRating() {
+  const annual = useQuery(exposureKeys.annual());
+  if (annual.isPending) return <Loading what="Loading your leases’ ratings…" />;
+  if (annual.isError) return <LoadError error={annual.error} retry={() => annual.refetch()} />;
+  const rows = summarise(annual.data.items);
+  if (!rows.length) {
+    return (
+      <Empty title="No screened leases yet">
+        Upload your lease boundaries on the{' '}
+        <Link className="font-semibold text-deep-700 underline" to="/leases">
+          Leases
+        </Link>{' '}
+        page; they are screened against every river of your area.
+      </Empty>
+    );
+  }
+  return (
+    <div className="overflow-x-auto rounded-lg border border-sand-200 bg-white">
+      <table className="w-full border-collapse text-sm" aria-label="Leases by worst rating">
+        <thead>
+          <tr className="border-b border-sand-200 text-left">
+            <th className="p-2">Lease</th>
+            <th className="p-2">Worst rating, any flood</th>
+            <th className="p-2">From</th>
+            <th className="p-2">Expected days a year below tolerance</th>
+            <th className="p-2">Chance a year of salinity below tolerance</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((r) => (
+            <tr key={r.leaseId} className="border-b border-shell-100 hover:bg-sand-50">
+              <td className="p-2">
+                <Link className="font-semibold text-deep-700 underline" to={`/leases/${r.leaseId}`}>
+                  {r.leaseCode}
+                </Link>
+              </td>
+              <td className="p-2">
+                <RatingBadge rating={r.worst} />
+              </td>
+              <td className="p-2">{r.worstRiver || '—'}</td>
+              <td className="p-2">{fmtNumber(r.expectedDays, r.expectedDays < 10 ? 1 : 0)}</td>
+              <td className="p-2">{chanceWords(r.chance)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
 export function OverviewPage() {
   const me = useMe();
   const role = me.data?.role ?? 'grower';
@@ -17,11 +106,36 @@ export function OverviewPage() {
     <div className="space-y-6">
       <PageHeader title="Overview" question={QUESTION[role]} />
       <Cautions />
-      <Empty title="Nothing to show yet">
-        {role === 'admin'
-          ? 'Invite advisers and regulators from the People page; e-mail sent by Brackline appears in the Outbox.'
-          : 'Your leases, active closures and latest alerts will appear here once leases are screened. Meanwhile, try the plume calculator.'}
-      </Empty>
+      {role === 'admin' ? (
+        <Empty title="Nothing to show yet">
+          Invite advisers and regulators from the People page; e-mail sent by Brackline appears in the Outbox.
+        </Empty>
+      ) : (
+        <>
+          <section aria-labelledby="by-rating" className="space-y-2">
+            <div className="flex flex-wrap items-end justify-between gap-2">
+              <h2 id="by-rating" className="text-lg font-semibold text-deep-900">
+                {role === 'regulator' ? 'Leases of your jurisdiction' : role === 'adviser' ? 'Your clients’ leases' : 'Your leases'}, worst
+                first
+              </h2>
+              <RatingLegend />
+            </div>
+            <p className="text-xs text-shell-700">
+              The worst rating over every flood scenario of every river, whether from low salinity or from the faecal indicator. The yearly
+              figures count salinity below the species’ tolerance only, weighing each flood by how often it happens.
+            </p>
+            <LeasesByRating />
+          </section>
+          <section aria-labelledby="alerts" className="space-y-2">
+            <h2 id="alerts" className="text-lg font-semibold text-deep-900">
+              Latest alerts
+            </h2>
+            <Empty title="No alerts yet">
+              When a river’s flow puts one of your leases in a plume band, the alert will appear here and by e-mail.
+            </Empty>
+          </section>
+        </>
+      )}
     </div>
   );
 }

@@ -1,0 +1,85 @@
+import { readFileSync } from 'node:fs';
+import type { BrowserContext } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { DEMO_PASSWORD } from '../../server/db/seed';
+import { openBrowser, screenshot, signInThroughForm, watchErrors } from './browser';
+
+const baseUrl = inject('baseUrl');
+let browser: BrowserContext;
+beforeAll(async () => {
+  browser = await openBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe('a grower reads a lease report and the exposure map', () => {
+  it('opens FB-001 from the leases table, sees ratings and reasons, and downloads the PDF', async () => {
+    await browser.clearCookies();
+    const page = await browser.newPage();
+    const errors = watchErrors(page);
+    await signInThroughForm(page, baseUrl, 'grower@brackline.test', DEMO_PASSWORD);
+    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    // The overview lists the grower's leases by worst rating.
+    await page.getByRole('table', { name: 'Leases by worst rating' }).waitFor();
+    await screenshot(page, 'overview-grower-ratings');
+
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Leases' }).click();
+    await page.getByRole('table', { name: 'Leases' }).getByRole('link', { name: 'FB-001' }).click();
+    await page.getByRole('heading', { name: 'Lease FB-001' }).waitFor();
+    await page.getByText('How exposed is FB-001 to flood water?').waitFor();
+
+    const table = page.getByRole('table', { name: 'Exposure per flood' });
+    await table.waitFor();
+    expect(await table.locator('tbody tr').count()).toBeGreaterThan(3);
+    const ratings = await table.locator('tbody [data-rating]').allTextContents();
+    expect(ratings.length).toBeGreaterThan(3);
+    for (const r of ratings) expect(r).toMatch(/^(Low|Moderate|High|Severe)$/);
+    const reasons = await page.getByTestId('reasons').locator('li').allTextContents();
+    expect(reasons.length).toBeGreaterThan(0);
+    expect(reasons.join(' ')).toMatch(/salinity|indicator/i);
+    expect(reasons.join(' ')).not.toMatch(/\bsafe\b/i);
+    expect(await page.getByRole('complementary', { name: 'Cautions' }).first().isVisible()).toBe(true);
+    await page.waitForSelector('[role="img"][data-drawn]');
+    await screenshot(page, 'lease-report');
+
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download PDF' }).click()]);
+    expect(download.suggestedFilename()).toMatch(/^brackline-FB-001-.*\.pdf$/);
+    const file = await download.path();
+    const pdf = readFileSync(file);
+    expect(pdf.subarray(0, 4).toString('latin1')).toBe('%PDF');
+    const text = pdf.toString('latin1');
+    expect(text).toContain('FB-001');
+    expect(text).toContain('Saltreed Oysters');
+    expect(text).toMatch(/screening-level estimates/);
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it('moves the flow slider on the exposure map and sees the plume bands redrawn', async () => {
+    const page = await browser.newPage();
+    const errors = watchErrors(page);
+    await page.goto(`${baseUrl}/map`);
+    await page.getByRole('heading', { name: 'Exposure map' }).waitFor();
+    const map = page.locator('[role="img"][data-drawn]');
+    await map.waitFor();
+    const before = await map.getAttribute('data-drawn');
+    const flowBefore = await page.getByTestId('flow-value').textContent();
+    expect(before).toBeTruthy();
+    await screenshot(page, 'exposure-map');
+
+    const slider = page.getByRole('slider');
+    await slider.focus();
+    await page.keyboard.press('Home');
+    await page.waitForFunction((prev) => {
+      const el = document.querySelector('[role="img"][data-drawn]');
+      return el && el.getAttribute('data-drawn') !== prev;
+    }, before);
+    expect(await page.getByTestId('flow-value').textContent()).not.toBe(flowBefore);
+    expect(await page.getByRole('combobox', { name: 'Flood scenario' }).inputValue()).toBe('');
+    await page.getByTestId('footprint-warnings').waitFor();
+    await screenshot(page, 'exposure-map-low-flow');
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
