@@ -63,7 +63,7 @@ up() {
       fail "Port $PGPORT on 127.0.0.1 is already in use by another program. Choose another port with PGPORT, e.g. PGPORT=54339 npm start"
     fi
     runas "$PGBIN/pg_ctl" -D "$PGDATA" -l "$PGDATA/server.log" -w -t 60 start \
-      -o "-c listen_addresses=127.0.0.1 -p $PGPORT -k $PGDATA -c fsync=off -c synchronous_commit=off -c full_page_writes=off -c max_connections=200" >/dev/null \
+      -o "-c listen_addresses=127.0.0.1 -p $PGPORT -k $PGDATA -c fsync=off -c synchronous_commit=off -c full_page_writes=off -c max_connections=200 -c jit=off" >/dev/null \
       || fail "PostgreSQL did not start; see $PGDATA/server.log"
     say "PostgreSQL started on 127.0.0.1:$PGPORT"
   fi

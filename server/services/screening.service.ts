@@ -75,18 +75,30 @@ function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known
   return { tolerance: strictestSpecies(), known: false };
 }
 
+/** The band a lease of each species is scored against, and the fallback for unknown species. */
+function speciesBandMap(): { map: Record<string, string>; fallback: string } {
+  const map: Record<string, string> = {};
+  for (const id of SPECIES_IDS) map[id] = salinityBandId(getSpeciesTolerance(id).chronicLowerSalinity);
+  return { map, fallback: salinityBandId(strictestSpecies().chronicLowerSalinity) };
+}
+
 /**
- * Fraction of each lease's area inside each band of a footprint, in PostGIS: bands cut into
- * small GiST-indexed pieces, leases wholly inside a piece counted without an intersection,
- * areas on the ellipsoid (geography). `where` filters the leases (alias l).
+ * Fraction of each lease's area inside the bands a screening needs (plume edge, indicator over
+ * the standard, and the "salinity under N" band of the lease's species), in PostGIS: bands cut
+ * into small GiST-indexed pieces; a lease wholly inside a piece counts 1 without an intersection;
+ * otherwise the area ratio of intersection to lease. The ratio is taken in lon/lat: for a lease
+ * a few hundred metres across the scale factors of both areas cancel to better than 1e-4 (c),
+ * which saves the ellipsoidal area of every partial piece. `where` filters the leases (alias l).
  */
 export async function leaseBandFractions(db: Database, footprintId: string, where: SQL): Promise<Map<string, Record<string, number>>> {
+  const { map, fallback } = speciesBandMap();
   const fractions = await db.execute<{ lease_id: string; fractions: Record<string, number> }>(sql`
     WITH frac AS (
       SELECT l.id AS lease_id, p.band_id,
-             SUM(CASE WHEN ST_CoveredBy(l.geom, p.geom) THEN l.area_m2 ELSE ST_Area(ST_Intersection(l.geom, p.geom)::geography) END) / NULLIF(l.area_m2, 0) AS fraction
+             SUM(CASE WHEN ST_CoveredBy(l.geom, p.geom) THEN 1.0 ELSE ST_Area(ST_Intersection(l.geom, p.geom)) / NULLIF(ST_Area(l.geom), 0) END) AS fraction
         FROM leases l JOIN footprint_band_pieces p ON p.footprint_id = ${footprintId}::uuid AND ST_Intersects(l.geom, p.geom)
        WHERE ${where}
+         AND (p.band_id IN ('plume-edge', 'indicator-over-standard') OR p.band_id = COALESCE(${JSON.stringify(map)}::jsonb ->> l.species, ${fallback}))
        GROUP BY l.id, p.band_id)
     SELECT lease_id, jsonb_object_agg(band_id, LEAST(1, fraction)) AS fractions FROM frac GROUP BY lease_id`);
   return new Map(fractions.rows.map((r) => [r.lease_id, r.fractions]));
