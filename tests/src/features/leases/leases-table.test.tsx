@@ -1,0 +1,90 @@
+// @vitest-environment jsdom
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { act, cleanup, fireEvent, render, screen, waitFor, within } from '@testing-library/react';
+import { MemoryRouter } from 'react-router-dom';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { LeasesTable } from '../../../../src/features/leases/components/leases-table';
+
+const LEASES = [
+  { id: '1', leaseId: 'FB-002', holder: 'Saltreed Oysters', species: 'pacific-oyster', status: 'held', areaM2: 52_000 },
+  { id: '2', leaseId: 'FB-001', holder: 'Saltreed Oysters', species: 'blue-mussel', status: 'candidate', areaM2: 91_000 },
+  { id: '3', leaseId: 'FB-003', holder: 'Carrick Mussel Lines', species: 'blue-mussel', status: 'held', areaM2: 14_000 },
+].map((l) => ({ ...l, notes: null, ownerId: 'u', ownerName: 'Ida Marsh', onLand: false, importId: null, createdAt: '', updatedAt: '' }));
+
+/** A stand-in for GET /api/v1/leases that sorts and filters as the server does. */
+function fakeLeasesApi(url: string) {
+  const u = new URL(url, 'http://localhost');
+  const q = u.searchParams.get('q')?.toLowerCase();
+  const status = u.searchParams.get('status');
+  const sort = (u.searchParams.get('sort') ?? 'leaseId') as keyof (typeof LEASES)[number];
+  const desc = u.searchParams.get('order') === 'desc';
+  const items = LEASES.filter((l) => (!q || l.leaseId.toLowerCase().includes(q) || l.holder.toLowerCase().includes(q)) && (!status || l.status === status)).sort((a, b) => {
+    const x = a[sort] as string | number;
+    const y = b[sort] as string | number;
+    return (x < y ? -1 : x > y ? 1 : 0) * (desc ? -1 : 1);
+  });
+  return { items, total: items.length };
+}
+
+const requests: string[] = [];
+beforeEach(() => {
+  requests.length = 0;
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async (url: string) => {
+      requests.push(url);
+      return new Response(JSON.stringify(fakeLeasesApi(url)), { status: 200, headers: { 'Content-Type': 'application/json' } });
+    }),
+  );
+});
+afterEach(() => {
+  cleanup();
+  vi.unstubAllGlobals();
+});
+
+function renderTable() {
+  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+  render(
+    <QueryClientProvider client={client}>
+      <MemoryRouter>
+        <LeasesTable canEdit />
+      </MemoryRouter>
+    </QueryClientProvider>,
+  );
+}
+
+const leaseIdsShown = () => within(screen.getByRole('table', { name: 'Leases' })).getAllByRole('link').map((a) => a.textContent);
+
+describe('LeasesTable', () => {
+  it('lists leases sorted by lease id, then by area when the header is clicked', async () => {
+    renderTable();
+    await waitFor(() => expect(leaseIdsShown()).toEqual(['FB-001', 'FB-002', 'FB-003']));
+    const areaButton = screen.getByRole('button', { name: /Area/ });
+    await act(async () => fireEvent.click(areaButton));
+    await waitFor(() => expect(requests.at(-1)).toMatch(/sort=areaM2/));
+    const order = new URL(requests.at(-1)!, 'http://x').searchParams.get('order');
+    await waitFor(() => expect(leaseIdsShown()).toEqual(order === 'desc' ? ['FB-001', 'FB-002', 'FB-003'] : ['FB-003', 'FB-002', 'FB-001']));
+    const header = areaButton.closest('th')!;
+    expect(header.getAttribute('aria-sort')).toBe(order === 'desc' ? 'descending' : 'ascending');
+  });
+
+  it('filters by text and by status through the server', async () => {
+    renderTable();
+    await waitFor(() => expect(leaseIdsShown()).toHaveLength(3));
+    fireEvent.change(screen.getByLabelText('Find a lease'), { target: { value: 'carrick' } });
+    await waitFor(() => expect(leaseIdsShown()).toEqual(['FB-003']));
+    expect(requests.at(-1)).toMatch(/q=carrick/);
+    fireEvent.change(screen.getByLabelText('Find a lease'), { target: { value: '' } });
+    fireEvent.change(screen.getByRole('combobox', { name: 'Status' }), { target: { value: 'candidate' } });
+    await waitFor(() => expect(leaseIdsShown()).toEqual(['FB-001']));
+    expect(requests.at(-1)).toMatch(/status=candidate/);
+  });
+
+  it('shows an empty state that says how to clear the filters', async () => {
+    renderTable();
+    await waitFor(() => expect(leaseIdsShown()).toHaveLength(3));
+    fireEvent.change(screen.getByLabelText('Find a lease'), { target: { value: 'no-such-lease' } });
+    await screen.findByText('No lease matches these filters');
+    expect(screen.getByText(/Clear the search or the status filter/)).toBeTruthy();
+  });
+});
