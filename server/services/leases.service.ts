@@ -156,5 +156,5 @@ export function toCsv(header: string[], rows: (string | number | boolean | null)
     const safe = /^[=+\-@]/.test(s) && typeof v === 'string' ? `'${s}` : s;
     return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
   };
-  return [header, ...rows].map((r) => r.map(cell).join(',')).join('\r\n') + '\r\n';
+  return `${[header, ...rows].map((r) => r.map(cell).join(',')).join('\r\n')}\r\n`;
 }

@@ -6,6 +6,7 @@ import { mkdirSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { type BrowserContext, chromium, type Page } from 'playwright-core';
+import { afterAll, beforeAll } from 'vitest';
 
 export const SCREENSHOT_DIR = path.resolve(import.meta.dirname, '../../screenshots');
 
@@ -47,4 +48,19 @@ export async function signInThroughForm(page: Page, baseUrl: string, email: stri
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in', exact: true }).click();
+}
+
+/** One browser per test file: opened before its tests, closed after them. */
+export function browserForThisFile(): () => BrowserContext {
+  let context: BrowserContext | undefined;
+  beforeAll(async () => {
+    context = await openBrowser();
+  });
+  afterAll(async () => {
+    await context?.close();
+  });
+  return () => {
+    if (!context) throw new Error('The browser is not open yet: call browser() inside a test.');
+    return context;
+  };
 }

@@ -1,22 +1,15 @@
 import { readFileSync } from 'node:fs';
-import type { BrowserContext } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/db/seed';
-import { openBrowser, screenshot, signInThroughForm, watchErrors } from './browser';
+import { screenshot, signInThroughForm, browserForThisFile, watchErrors } from './browser';
 
 const baseUrl = inject('baseUrl');
-let browser: BrowserContext;
-beforeAll(async () => {
-  browser = await openBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = browserForThisFile();
 
 describe('a grower reads a lease report and the exposure map', () => {
   it('opens FB-001 from the leases table, sees ratings and reasons, and downloads the PDF', async () => {
-    await browser.clearCookies();
-    const page = await browser.newPage();
+    await browser().clearCookies();
+    const page = await browser().newPage();
     const errors = watchErrors(page);
     await signInThroughForm(page, baseUrl, 'grower@brackline.test', DEMO_PASSWORD);
     await page.getByRole('heading', { name: 'Overview' }).waitFor();
@@ -57,7 +50,7 @@ describe('a grower reads a lease report and the exposure map', () => {
   });
 
   it('moves the flow slider on the exposure map and sees the plume bands redrawn', async () => {
-    const page = await browser.newPage();
+    const page = await browser().newPage();
     const errors = watchErrors(page);
     await page.goto(`${baseUrl}/map`);
     await page.getByRole('heading', { name: 'Exposure map' }).waitFor();

@@ -1,20 +1,13 @@
-import type { BrowserContext } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/db/seed';
-import { openBrowser, screenshot, signInThroughForm, watchErrors } from './browser';
+import { screenshot, signInThroughForm, browserForThisFile, watchErrors } from './browser';
 
 const baseUrl = inject('baseUrl');
-let browser: BrowserContext;
-beforeAll(async () => {
-  browser = await openBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = browserForThisFile();
 
 describe('plume calculator', () => {
   it('computes in the browser as the grower types, and flips the turn south of the equator', async () => {
-    const page = await browser.newPage();
+    const page = await browser().newPage();
     const errors = watchErrors(page);
     await signInThroughForm(page, baseUrl, 'grower@brackline.test', DEMO_PASSWORD);
     await page.getByRole('link', { name: 'Plume calculator' }).click();

@@ -1,17 +1,9 @@
-import type { BrowserContext } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/db/seed';
-import { openBrowser, screenshot, signInThroughForm, watchErrors } from './browser';
+import { screenshot, signInThroughForm, browserForThisFile, watchErrors } from './browser';
 
 const baseUrl = inject('baseUrl');
-let browser: BrowserContext;
-
-beforeAll(async () => {
-  browser = await openBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = browserForThisFile();
 
 const EXPECTED_NAV = {
   grower: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox'] },
@@ -22,9 +14,9 @@ const EXPECTED_NAV = {
 
 describe('each demo role signs in and sees its own navigation', () => {
   it.each(Object.keys(EXPECTED_NAV) as (keyof typeof EXPECTED_NAV)[])('%s', async (role) => {
-    const page = await browser.newPage();
+    const page = await browser().newPage();
     const errors = watchErrors(page);
-    await browser.clearCookies();
+    await browser().clearCookies();
     await signInThroughForm(page, baseUrl, `${role}@brackline.test`, DEMO_PASSWORD);
     await page.getByRole('heading', { name: 'Overview' }).waitFor();
     const nav = page.getByRole('navigation', { name: 'Main' });
@@ -47,8 +39,8 @@ describe('each demo role signs in and sees its own navigation', () => {
 
 describe('sign-in problems', () => {
   it('shows a clear message for a wrong password', async () => {
-    await browser.clearCookies();
-    const page = await browser.newPage();
+    await browser().clearCookies();
+    const page = await browser().newPage();
     await signInThroughForm(page, baseUrl, 'grower@brackline.test', 'not-the-right-one');
     const alert = page.getByRole('alert').first();
     await alert.waitFor();
@@ -58,8 +50,8 @@ describe('sign-in problems', () => {
   });
 
   it('sends an anonymous visitor to sign-in', async () => {
-    await browser.clearCookies();
-    const page = await browser.newPage();
+    await browser().clearCookies();
+    const page = await browser().newPage();
     await page.goto(`${baseUrl}/admin/people`);
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
     expect(page.url()).toContain('/sign-in');
@@ -69,8 +61,8 @@ describe('sign-in problems', () => {
 
 describe('sign-up', () => {
   it('a new grower creates an account and lands on the overview', async () => {
-    await browser.clearCookies();
-    const page = await browser.newPage();
+    await browser().clearCookies();
+    const page = await browser().newPage();
     await page.goto(`${baseUrl}/sign-up`);
     await page.getByLabel('Your name').fill('Nell Brine');
     await page.getByLabel('E-mail').fill(`nell.${Date.now()}@brackline.test`);

@@ -1,23 +1,16 @@
 import path from 'node:path';
-import type { BrowserContext } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { openBrowser, screenshot, watchErrors } from './browser';
+import { describe, expect, inject, it } from 'vitest';
+import { browserForThisFile, screenshot, watchErrors } from './browser';
 
 const baseUrl = inject('baseUrl');
-let browser: BrowserContext;
-beforeAll(async () => {
-  browser = await openBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = browserForThisFile();
 
 describe('uploading leases through the browser', () => {
   it('a grower uploads the demo shapefile (UTM 24N), maps attributes and sees the leases listed', async () => {
-    const page = await browser.newPage();
+    const page = await browser().newPage();
     const errors = watchErrors(page);
     // A fresh grower, so the leases table starts empty (the demo growers hold the Fennick Bay leases).
-    await browser.clearCookies();
+    await browser().clearCookies();
     await page.goto(`${baseUrl}/sign-up`);
     await page.getByLabel('Your name').fill('Wren Tidewell');
     await page.getByLabel('E-mail').fill(`wren.${Date.now()}@brackline.test`);

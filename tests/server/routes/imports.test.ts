@@ -1,5 +1,4 @@
 import { sql } from 'drizzle-orm';
-import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ellipsoidalArea } from '../../../shared/geometry/polygon-area';
 import { createTestApp, signIn, type TestApp } from '../../helpers/test-app';
