@@ -65,9 +65,9 @@ export function report(results: BenchResult[]): void {
   console.log(`\nbaseline (sort 200 000 doubles): ${base.toFixed(2)} ms median\n`);
   const rows = results.map((r) => ({
     benchmark: r.name,
-    'median ms': r.medianMs.toFixed(2),
-    'p90 ms': r.p90Ms.toFixed(2),
-    '× baseline': r.ratioToBaseline.toFixed(3),
+    'median ms': Number.isNaN(r.medianMs) ? '' : r.medianMs.toFixed(2),
+    'p90 ms': Number.isNaN(r.p90Ms) ? '' : r.p90Ms.toFixed(2),
+    '× baseline': Number.isNaN(r.ratioToBaseline) ? '' : r.ratioToBaseline.toFixed(3),
     target: r.targetMs !== undefined ? `≤ ${r.targetMs} ms ${r.medianMs <= r.targetMs ? '(met)' : '(missed)'}` : '',
     note: r.note ?? '',
   }));

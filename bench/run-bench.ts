@@ -5,6 +5,7 @@
  */
 import { baseline, type BenchResult, report } from './harness';
 import { scienceBenchmarks } from './science-bench';
+import { clientBenchmarks } from './client-bench';
 import { screeningBenchmarks } from './screening-bench';
 import { uploadBenchmarks } from './upload-bench';
 
@@ -16,6 +17,7 @@ async function main() {
   const databaseUrl = process.env.DATABASE_URL;
   if (databaseUrl && (!only || only === 'upload')) results.push(...(await uploadBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'screening')) results.push(...(await screeningBenchmarks(databaseUrl)));
+  if (databaseUrl && (!only || only === 'client')) results.push(...(await clientBenchmarks(databaseUrl)));
   report(results);
   const mem = process.memoryUsage();
   console.log(`peak-ish memory: rss ${(mem.rss / 1e6).toFixed(0)} MB, heap used ${(mem.heapUsed / 1e6).toFixed(0)} MB`);

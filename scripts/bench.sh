@@ -6,4 +6,6 @@ ensure_node_modules
 bash scripts/pg.sh up brackline_bench
 export DATABASE_URL="$(db_url brackline_bench)"
 npx tsx server/db/migrate.ts
+# The client benchmarks measure the production build.
+npx vite build --logLevel warn
 npx tsx bench/run-bench.ts "$@"
