@@ -24,6 +24,7 @@ import { registerImportRoutes } from './routes/imports.routes';
 import { registerLeaseRoutes } from './routes/leases.routes';
 import { registerRiverRoutes } from './routes/rivers.routes';
 import { registerScreeningRoutes } from './routes/screening.routes';
+import { registerSharingRoutes } from './routes/sharing.routes';
 import { createInlineScreeningJobs, type ScreeningJobs } from './jobs/screening-jobs';
 import { createRiversService } from './services/rivers.service';
 import { createScreeningService } from './services/screening.service';
@@ -31,6 +32,7 @@ import { createSweepService } from './services/sweep.service';
 import { createAccountsService } from './services/accounts.service';
 import { createImportsService } from './services/imports.service';
 import { createLeasesService } from './services/leases.service';
+import { createSharingService } from './services/sharing.service';
 import { DEFAULT_UPLOAD_LIMITS, type UploadLimits } from '#shared/geometry/upload-limits';
 
 export interface AppDeps {
@@ -122,6 +124,7 @@ export function createApp(deps: AppDeps): Express {
   const jobs = deps.jobs ?? createInlineScreeningJobs(db, screening);
   const leasesChanged = (ids: string[]) => jobs.enqueueLeases(ids);
   registerImportRoutes(ctx, db, createImportsService({ db, limits: uploadLimits, onLeasesChanged: leasesChanged }), uploadLimits.maxCompressedBytes);
+  registerSharingRoutes(ctx, createSharingService(db));
   registerLeaseRoutes(ctx, createLeasesService(db, { onLeasesChanged: leasesChanged }));
   const rivers = createRiversService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) });
   registerRiverRoutes(ctx, rivers, jobs);

@@ -2,8 +2,10 @@
  * The database schema (Drizzle). Auth.js tables follow the adapter's documented
  * PostgreSQL layout; the user row carries Brackline's own role and session version.
  */
+import { sql } from 'drizzle-orm';
 import {
   boolean,
+  check,
   customType,
   doublePrecision,
   index,
@@ -264,6 +266,23 @@ export const leaseShares = pgTable(
     grantedAt: timestamp('granted_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [primaryKey({ columns: [t.leaseId, t.granteeId] }), index('lease_shares_grantee_idx').on(t.granteeId)],
+);
+
+/** A note on a lease by its holder or an adviser it is shared with; newest first on the lease page. */
+export const leaseNotes = pgTable(
+  'lease_notes',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    leaseId: uuid('lease_id')
+      .notNull()
+      .references(() => leases.id, { onDelete: 'cascade' }),
+    authorId: text('author_id')
+      .notNull()
+      .references(() => users.id),
+    body: text('body').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('lease_notes_lease_idx').on(t.leaseId, t.createdAt), check('lease_notes_body_length', sql`char_length(${t.body}) BETWEEN 1 AND 4000`)],
 );
 
 export const coasts = pgTable(

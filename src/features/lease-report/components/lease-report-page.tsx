@@ -13,7 +13,9 @@ import { bandsToDraw } from '../../../lib/bands';
 import { exposureKeys, type ScreeningRow } from '../../../lib/exposure-api';
 import { fmtArea, fmtFlow, fmtNumber, speciesName, speciesPlural } from '../../../lib/format';
 import { orderScenarios, speciesBandId, useLeaseReport } from '../api/use-lease-report';
+import { useMe } from '../../account/api/get-me';
 import { ExposureTable } from './exposure-table';
+import { LeaseNotes } from './lease-notes';
 import { SalinityChart } from './salinity-chart';
 
 /** The worst-rated scenario, the most frequent first among equals: the one a grower meets soonest. */
@@ -26,6 +28,7 @@ function headline(rows: ScreeningRow[]): ScreeningRow | undefined {
 export function LeaseReportPage() {
   const { id = '' } = useParams();
   const { lease, screenings, rivers } = useLeaseReport(id);
+  const me = useMe();
   const [riverChoice, setRiverChoice] = useState<string>();
   const [scenarioChoice, setScenarioChoice] = useState<string>();
   const [pdfState, setPdfState] = useState<'idle' | 'working' | 'failed'>('idle');
@@ -330,6 +333,8 @@ export function LeaseReportPage() {
           </section>
         </>
       )}
+
+      <LeaseNotes leaseId={l.id} canWrite={l.ownerId === me.data?.id || me.data?.role === 'adviser'} />
 
       <Cautions />
     </article>

@@ -1,5 +1,6 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { Lease, LeaseUpdate } from '#shared/schemas/lease';
+import type { ShareLeases, ShareResult } from '#shared/schemas/sharing';
 import { api } from '../../../lib/api-client';
 
 export interface LeaseListParams {
@@ -29,4 +30,9 @@ export const leaseKeys = {
 
 export function updateLease(id: string, patch: LeaseUpdate) {
   return api<Lease>(`/leases/${id}`, { method: 'PATCH', json: patch });
+}
+
+/** Shares the chosen leases with an adviser's or regulator's account, by e-mail. */
+export function shareLeases(input: ShareLeases) {
+  return api<ShareResult>('/leases/shares', { method: 'POST', json: input });
 }

@@ -17,7 +17,9 @@ import type { Lease } from '#shared/schemas/lease';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { Empty, LoadError, Loading } from '../../../components/ui/states';
+import type { ShareResult } from '#shared/schemas/sharing';
 import { leaseKeys, updateLease } from '../api/leases-api';
+import { ShareLeasesForm } from './share-leases-form';
 
 const features = tableFeatures({ rowSortingFeature, rowPaginationFeature, columnVisibilityFeature, rowSelectionFeature });
 const helper = createColumnHelper<typeof features, Lease>();
@@ -59,6 +61,7 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
   const [status, setStatus] = useState<'' | 'held' | 'candidate'>('');
   const [rowSelection, setRowSelection] = useState<RowSelectionState>({});
   const [columnVisibility, setColumnVisibility] = useState<Record<string, boolean>>({});
+  const [lastShare, setLastShare] = useState<ShareResult | null>(null);
   const q = useDeferredValue(search);
   const searchId = useId();
   const statusId = useId();
@@ -167,7 +170,20 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
             Mark candidate
           </Button>
           {bulkStatus.isPending && <span role="status">Saving {selectedIds.length} leases…</span>}
+          <ShareLeasesForm
+            leaseIds={selectedIds}
+            onShared={(r) => {
+              setLastShare(r);
+              setRowSelection({});
+            }}
+          />
         </section>
+      )}
+      {lastShare && (
+        <Notice tone="done" title="Shared">
+          {lastShare.shared} {lastShare.shared === 1 ? 'lease is' : 'leases are'} now shared with {lastShare.grantee.name ?? lastShare.grantee.email} (
+          {lastShare.grantee.email}). They see {lastShare.shared === 1 ? 'it' : 'them'} in their leases table and can write notes.
+        </Notice>
       )}
       {bulkStatus.isError && <Notice tone="problem">{(bulkStatus.error as Error).message}</Notice>}
 

@@ -1,0 +1,15 @@
+import { queryOptions } from '@tanstack/react-query';
+import type { LeaseNote, NoteCreate } from '#shared/schemas/sharing';
+import { api } from '../../../lib/api-client';
+
+export const leaseNoteKeys = {
+  list: (leaseId: string) =>
+    queryOptions({
+      queryKey: ['leases', 'notes', leaseId] as const,
+      queryFn: () => api<{ items: LeaseNote[] }>(`/leases/${leaseId}/notes`),
+    }),
+};
+
+export function addLeaseNote(leaseId: string, note: NoteCreate) {
+  return api<LeaseNote>(`/leases/${leaseId}/notes`, { method: 'POST', json: note });
+}
