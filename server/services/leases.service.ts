@@ -27,6 +27,8 @@ const SORT_COLUMNS: Record<LeaseListQuery['sort'], string> = {
   status: 'l.status',
   areaM2: 'l.area_m2',
   createdAt: 'l.created_at',
+  worstRating: "array_position(ARRAY['low','moderate','high','severe'], x.worst_rating)",
+  expectedDaysPerYear: 'x.expected_days',
 };
 
 type LeaseRow = {
@@ -41,6 +43,9 @@ type LeaseRow = {
   area_m2: number;
   on_land: boolean;
   import_id: string | null;
+  worst_rating: string | null;
+  expected_days: number | null;
+  probability_any: number | null;
   created_at: Date;
   updated_at: Date;
   geometry?: string;
@@ -59,17 +64,26 @@ function toLease(r: LeaseRow): Lease {
     areaM2: r.area_m2,
     onLand: r.on_land,
     importId: r.import_id,
+    worstRating: (r.worst_rating as Lease['worstRating']) ?? null,
+    expectedDaysPerYear: r.expected_days,
+    probabilityAnyExposure: r.probability_any,
     createdAt: new Date(r.created_at).toISOString(),
     updatedAt: new Date(r.updated_at).toISOString(),
     ...(r.geometry ? { geometry: JSON.parse(r.geometry) } : {}),
   };
 }
 
+/** Across every river that screens a lease: its worst rating and the largest annualised figures. */
 const SELECT_LEASE = (withGeometry: boolean) => sql`
   SELECT l.id, l.lease_code, l.holder, l.species, l.status, l.notes, l.owner_id, u.name AS owner_name,
-         l.area_m2, l.on_land, l.import_id, l.created_at, l.updated_at
+         l.area_m2, l.on_land, l.import_id, l.created_at, l.updated_at,
+         x.worst_rating, x.expected_days, x.probability_any
          ${withGeometry ? sql`, ST_AsGeoJSON(l.geom, 7) AS geometry` : sql``}
-    FROM leases l JOIN users u ON u.id = l.owner_id`;
+    FROM leases l JOIN users u ON u.id = l.owner_id
+    LEFT JOIN LATERAL (
+      SELECT (ARRAY['low','moderate','high','severe'])[max(array_position(ARRAY['low','moderate','high','severe'], a.worst_rating))] AS worst_rating,
+             max(a.expected_days_per_year) AS expected_days, max(a.probability_any_exposure) AS probability_any
+        FROM lease_annual_exposure a WHERE a.lease_id = l.id) x ON true`;
 
 export function createLeasesService(db: Database, hooks: { onLeasesChanged?: (ids: string[]) => Promise<void> } = {}) {
   function filters(user: CurrentUser, q: Partial<LeaseListQuery>): SQL {

@@ -4,7 +4,7 @@ import { z } from 'zod';
 export const leaseStatusSchema = z.enum(['held', 'candidate'], { error: 'status must be "held" or "candidate"' });
 export type LeaseStatus = z.infer<typeof leaseStatusSchema>;
 
-export const LEASE_SORT_FIELDS = ['leaseId', 'holder', 'species', 'status', 'areaM2', 'createdAt'] as const;
+export const LEASE_SORT_FIELDS = ['leaseId', 'holder', 'species', 'status', 'areaM2', 'createdAt', 'worstRating', 'expectedDaysPerYear'] as const;
 
 export const leaseListQuerySchema = z.strictObject({
   q: z.string().trim().max(120, { error: 'q must be at most 120 characters' }).optional().describe('Search in lease id and holder'),
@@ -34,6 +34,9 @@ export const leaseSchema = z.object({
   areaM2: z.number().describe('Area on the WGS84 ellipsoid (m²)'),
   onLand: z.boolean().describe('True when the lease lies wholly on land of a known coast'),
   importId: z.string().nullable(),
+  worstRating: z.enum(['low', 'moderate', 'high', 'severe']).nullable().describe('Worst rating over every scenario of every river that screens the lease; null before screening'),
+  expectedDaysPerYear: z.number().nullable().describe('Expected days a year below the species salinity tolerance (largest over rivers)'),
+  probabilityAnyExposure: z.number().nullable().describe('Annual chance of any days below tolerance (largest over rivers)'),
   createdAt: z.string(),
   updatedAt: z.string(),
   geometry: z.unknown().optional().describe('GeoJSON MultiPolygon in EPSG:4326'),

@@ -191,6 +191,15 @@ describe('screening the demo region', () => {
     expect((res.body as Buffer).length).toBeGreaterThan(100);
   });
 
+  it('lists leases with their worst rating and annual figures, sortable by rating', async () => {
+    const res = await grower.get('/api/v1/leases?sort=worstRating&order=desc&withGeometry=false').expect(200);
+    const order = ['low', 'moderate', 'high', 'severe'];
+    const ratings = res.body.items.map((l: { worstRating: string | null }) => l.worstRating);
+    expect(ratings.every((r: string | null) => r !== null)).toBe(true);
+    expect([...ratings].sort((a, b) => order.indexOf(b) - order.indexOf(a))).toEqual(ratings);
+    expect(res.body.items[0].expectedDaysPerYear).toBeGreaterThanOrEqual(0);
+  });
+
   it('annualises exposure across the flood-frequency scenarios', async () => {
     const res = await grower.get('/api/v1/screenings/annual').expect(200);
     expect(res.body.items.length).toBeGreaterThan(0);

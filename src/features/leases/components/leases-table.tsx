@@ -15,6 +15,7 @@ import { useDeferredValue, useId, useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { Lease } from '#shared/schemas/lease';
 import { Button } from '../../../components/ui/button';
+import { RatingBadge } from '../../../components/ui/rating-badge';
 import { Notice } from '../../../components/ui/notice';
 import { Empty, LoadError, Loading } from '../../../components/ui/states';
 import type { ShareResult } from '#shared/schemas/sharing';
@@ -47,10 +48,34 @@ const columns = helper.columns([
     header: 'Area (ha)',
     cell: (c) => (c.getValue() / 10_000).toLocaleString(undefined, { maximumFractionDigits: 2, minimumFractionDigits: 2 }),
   }),
+  helper.accessor('worstRating', {
+    id: 'worstRating',
+    header: 'Worst rating',
+    cell: (c) => (c.getValue() ? <RatingBadge rating={c.getValue()} size="sm" /> : <span className="text-shell-700">Not screened yet</span>),
+  }),
+  helper.accessor('expectedDaysPerYear', {
+    id: 'expectedDaysPerYear',
+    header: 'Days a year below tolerance',
+    cell: (c) => {
+      const days = c.getValue();
+      const chance = c.row.original.probabilityAnyExposure;
+      if (days === null || days === undefined) return '—';
+      return `${days.toLocaleString(undefined, { maximumFractionDigits: 1 })}${chance ? ` (${Math.round(chance * 100)}% of years)` : ''}`;
+    },
+  }),
   helper.accessor('ownerName', { id: 'ownerName', header: 'Account', enableSorting: false, cell: (c) => c.getValue() ?? '—' }),
 ]);
 
-const COLUMN_LABELS: Record<string, string> = { leaseId: 'Lease id', holder: 'Holder', species: 'Species', status: 'Status', areaM2: 'Area', ownerName: 'Account' };
+const COLUMN_LABELS: Record<string, string> = {
+  leaseId: 'Lease id',
+  holder: 'Holder',
+  species: 'Species',
+  status: 'Status',
+  areaM2: 'Area',
+  worstRating: 'Worst rating',
+  expectedDaysPerYear: 'Days a year below tolerance',
+  ownerName: 'Account',
+};
 
 /** Leases you may see, sorted, filtered and paged on the server so thousands of rows stay quick. */
 export function LeasesTable({ canEdit }: { canEdit: boolean }) {
