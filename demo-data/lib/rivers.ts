@@ -39,6 +39,9 @@ export interface RiverSpec {
   inland: [number, number][];
 }
 
+/** One river as written to rivers/rivers.json (read by the loader and the tests). */
+export type RiverJson = Omit<RiverSpec, 'name' | 'flow' | 'inland'> & { name: string; mouth: [number, number] };
+
 /** The rivers; the larger first. */
 export const RIVER_TABLE: readonly RiverSpec[] = [
   {

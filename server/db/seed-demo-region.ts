@@ -7,6 +7,7 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { eq, sql } from 'drizzle-orm';
+import type { RiverJson } from '../../demo-data/lib/rivers';
 import type { CurrentUser } from '../http/route';
 import { createInlineScreeningJobs } from '../jobs/screening-jobs';
 import { createRiversService } from '../services/rivers.service';
@@ -18,26 +19,6 @@ import { DEMO_JURISDICTION } from './seed';
 const DEMO_DIR = path.resolve(import.meta.dirname, '../../demo-data');
 const readJson = (file: string) => JSON.parse(readFileSync(path.join(DEMO_DIR, file), 'utf8'));
 
-interface DemoRiver {
-  name: string;
-  mouth: [number, number];
-  outflowAzimuthDeg: number;
-  mouthWidthM: number;
-  mouthDepthM: number;
-  riverSalinity: number;
-  riverTemperature: number;
-  seaSalinity: number;
-  seaTemperature: number;
-  shelfSlope: number;
-  indicator: { kind: 'power-law'; coefficient: number; exponent: number } | { kind: 'constant'; concentration: number };
-  t90DayHours: number;
-  t90NightHours: number;
-  daylightFraction: number;
-  alongshoreShare: number;
-  mixingLengthM: number;
-  gauge: { name: string; code: string };
-  flowRecordFile: string;
-}
 
 async function userByEmail(db: Database, email: string): Promise<CurrentUser> {
   const [u] = await db.select().from(users).where(eq(users.email, email));
@@ -133,7 +114,7 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
   const screening = createScreeningService({ db });
   const jobs = createInlineScreeningJobs(db, screening);
   const rivers = createRiversService({ db });
-  const riverData = readJson('rivers/rivers.json').rivers as DemoRiver[];
+  const riverData = readJson('rivers/rivers.json').rivers as RiverJson[];
   for (const r of riverData) {
     const existing = await db.execute<{ id: string }>(sql`SELECT id FROM rivers WHERE name = ${r.name} AND jurisdiction_id = ${jurisdiction.id}::uuid`);
     if (existing.rows.length) continue;

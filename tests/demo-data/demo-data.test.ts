@@ -14,6 +14,7 @@ import { annualMaxima } from '../../shared/hydrology/annual-maxima';
 import { parseFlowRecord } from '../../shared/hydrology/parse-flow-record';
 import { PlumeRequestSchema } from '../../shared/schemas/plume';
 import { RiverParametersSchema } from '../../shared/schemas/river-parameters';
+import type { RiverJson } from '../../demo-data/lib/rivers';
 
 const DIR = path.resolve(import.meta.dirname, '../../demo-data');
 const file = (p: string) => path.join(DIR, p);
@@ -21,27 +22,6 @@ const readJson = <T>(p: string): T => JSON.parse(readFileSync(file(p), 'utf8')) 
 
 const GROWER_NAMES = ['Saltreed Oysters', 'Carrick Mussel Lines', 'Skerrow Clam Company', 'Gullstone Shellfish'];
 
-interface RiverJson {
-  name: string;
-  slug: string;
-  mouth: [number, number];
-  outflowAzimuthDeg: number;
-  mouthWidthM: number;
-  mouthDepthM: number;
-  riverSalinity: number;
-  riverTemperature: number;
-  seaSalinity: number;
-  seaTemperature: number;
-  shelfSlope: number;
-  indicator: { kind: 'power-law'; coefficient: number; exponent: number };
-  t90DayHours: number;
-  t90NightHours: number;
-  daylightFraction: number;
-  alongshoreShare: number;
-  mixingLengthM: number;
-  gauge: { name: string; code: string };
-  flowRecordFile: string;
-}
 
 const land = readJson<FeatureCollection<MultiPolygon>>('coast/fennick-land.geojson');
 const shore = readJson<FeatureCollection<MultiLineString>>('coast/fennick-shoreline.geojson');
