@@ -156,7 +156,13 @@ export default function VectorMap({
     }
     const extent = extentSource.getExtent();
     if ((fit === 'always' || !fitted.current) && extent && extentSource.getFeatures().length && Number.isFinite(extent[0])) {
-      map.getView().fit(extent, { padding: [24, 24, 24, 24], maxZoom });
+      // A map mounted by a lazy chunk may not be laid out yet; fitting a zero-size map zooms
+      // in to maxZoom, so measure first and fit again once the map has a size.
+      const fitExtent = () => map.getView().fit(extent, { padding: [24, 24, 24, 24], maxZoom, size: map.getSize() });
+      map.updateSize();
+      const size = map.getSize();
+      if (size && size[0] > 0 && size[1] > 0) fitExtent();
+      else map.once('change:size', fitExtent);
       fitted.current = true;
     }
     if (target.current) {
