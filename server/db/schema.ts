@@ -552,3 +552,61 @@ export const samples = pgTable(
   },
   (t) => [uniqueIndex('samples_station_time_idx').on(t.stationId, t.sampledAt)],
 );
+
+// ---------------------------------------------------------------------------------------------
+// Gauges and their readings (regulator's closure checks and the paid alerts both read them),
+// and the in-app inbox (closure notices and alerts both land there).
+
+export const gauges = pgTable(
+  'gauges',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    riverId: uuid('river_id')
+      .notNull()
+      .references(() => rivers.id, { onDelete: 'cascade' }),
+    /** The gauge's own code, unique per river (e.g. "AMB-01"). */
+    code: text('code').notNull(),
+    name: text('name').notNull(),
+    /** SHA-256 of the per-gauge upload token; the token itself is shown once. */
+    tokenHash: text('token_hash'),
+    location: geometryColumn('location', 'Point'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('gauges_river_code_idx').on(t.riverId, t.code)],
+);
+
+export const gaugeReadings = pgTable(
+  'gauge_readings',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    gaugeId: uuid('gauge_id')
+      .notNull()
+      .references(() => gauges.id, { onDelete: 'cascade' }),
+    observedAt: timestamp('observed_at', { withTimezone: true }).notNull(),
+    /** Discharge in m³/s. */
+    discharge: doublePrecision('discharge').notNull(),
+    source: text('source', { enum: ['token', 'csv', 'feed', 'manual'] }).notNull(),
+    receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('gauge_readings_gauge_time_idx').on(t.gaugeId, t.observedAt)],
+);
+
+export const inboxMessages = pgTable(
+  'inbox_messages',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ['notice', 'alert', 'invitation', 'note'] }).notNull(),
+    title: text('title').notNull(),
+    body: text('body').notNull(),
+    /** An in-app path to open (e.g. /leases/…), or null. */
+    link: text('link'),
+    /** Dedupe: the same key is never delivered twice to the same user. */
+    dedupeKey: text('dedupe_key'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    readAt: timestamp('read_at', { withTimezone: true }),
+  },
+  (t) => [index('inbox_user_idx').on(t.userId, t.createdAt), uniqueIndex('inbox_user_dedupe_idx').on(t.userId, t.dedupeKey)],
+);
