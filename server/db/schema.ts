@@ -315,6 +315,17 @@ export const closureZones = pgTable(
     sourceProperties: jsonb('source_properties').$type<Record<string, unknown>>(),
     geom: geometryColumn('geom', 'MultiPolygon').notNull(),
     areaM2: doublePrecision('area_m2').notNull(),
+    /** The river whose flow closes the zone, and the gauge whose readings are checked against the trigger. */
+    riverId: uuid('river_id').references(() => rivers.id, { onDelete: 'set null' }),
+    gaugeId: uuid('gauge_id').references(() => gauges.id, { onDelete: 'set null' }),
+    /** The management plan's trigger flow, m³/s: at or above it the zone closes. */
+    triggerFlow: doublePrecision('trigger_flow'),
+    /** Minimum days a closure lasts before a reopening may be considered. */
+    minClosureDays: doublePrecision('min_closure_days'),
+    /** The indicator standard for the zone, count per 100 mL (the band the trigger sweep measures). */
+    indicatorStandard: doublePrecision('indicator_standard'),
+    status: text('status', { enum: ['open', 'closed', 'reopening-pending'] }).notNull().default('open'),
+    statusSince: timestamp('status_since', { withTimezone: true }).notNull().defaultNow(),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('closure_zones_geom_idx').using('gist', t.geom)],

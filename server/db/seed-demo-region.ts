@@ -146,4 +146,23 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
     log(`${r.name}: flow record and scenarios loaded; screening…`);
     await jobs.enqueueRiver(river.id);
   }
+
+  // A gauge per river (from its settings), and each closure zone linked to its river, gauge and plan values.
+  await db.execute(sql`
+    INSERT INTO gauges (river_id, code, name, location)
+    SELECT r.id, r.settings->>'gaugeCode', r.settings->>'gaugeName', r.mouth
+      FROM rivers r
+     WHERE r.jurisdiction_id = ${jurisdiction.id}::uuid AND r.settings->>'gaugeCode' IS NOT NULL
+    ON CONFLICT (river_id, code) DO NOTHING`);
+  await db.execute(sql`
+    UPDATE closure_zones z
+       SET river_id = r.id,
+           gauge_id = (SELECT g.id FROM gauges g WHERE g.river_id = r.id ORDER BY g.created_at LIMIT 1),
+           trigger_flow = (z.source_properties->>'TRIGGER_M3S')::float8,
+           min_closure_days = (z.source_properties->>'CLOSURE_DAYS')::float8,
+           -- NSSP approved-area geometric mean, 14 MPN/100 mL (science.md §6, a).
+           indicator_standard = 14
+      FROM rivers r
+     WHERE r.name = z.source_properties->>'RIVER' AND r.jurisdiction_id = z.jurisdiction_id
+       AND z.jurisdiction_id = ${jurisdiction.id}::uuid AND z.river_id IS NULL`);
 }
