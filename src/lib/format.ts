@@ -48,3 +48,8 @@ export function speciesPlural(id: string | null | undefined): string {
   if (!id || !isSpeciesId(id)) return 'this species';
   return getSpeciesTolerance(id).commonNamePlural;
 }
+
+/** A date and time in the reader's locale, e.g. "2 Dec 2026, 05:40". */
+export function fmtDateTime(iso: string | Date): string {
+  return new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
+}

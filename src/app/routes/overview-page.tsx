@@ -6,7 +6,8 @@ import { RatingBadge, RatingLegend, ratingRank } from '../../components/ui/ratin
 import { Empty, LoadError, Loading } from '../../components/ui/states';
 import { useMe } from '../../features/account/api/get-me';
 import { type AnnualRow, exposureKeys } from '../../lib/exposure-api';
-import { fmtNumber } from '../../lib/format';
+import { fmtDateTime, fmtNumber } from '../../lib/format';
+import { inboxKeys } from '../../lib/inbox-api';
 
 const QUESTION = {
   grower: 'How exposed are my leases to river flood water?',
@@ -99,6 +100,81 @@ function LeasesByRating() {
   );
 }
 
+const STATUS_WORDS = { open: 'Open', closed: 'Closed', 'reopening-pending': 'Waiting to reopen' } as const;
+
+function ClosuresNearMyLeases() {
+  const closures = useQuery(inboxKeys.nearbyClosures());
+  if (closures.isPending) return <Loading what="Checking closures near your leases…" />;
+  if (closures.isError) return <LoadError error={closures.error} retry={() => closures.refetch()} />;
+  const km = fmtNumber(closures.data.distanceM / 1000, 0);
+  if (!closures.data.items.length) {
+    return (
+      <Empty title="No closure in force near your leases">
+        No zone within {km} km of a lease you can see is closed or waiting to reopen. The shellfish authority’s own notices decide whether
+        you may harvest.
+      </Empty>
+    );
+  }
+  return (
+    <ul className="space-y-2" aria-label="Closures near your leases">
+      {closures.data.items.map((z) => (
+        <li key={z.zoneId} className="rounded-lg border-l-4 border-sand-600 bg-white p-3 shadow-sm">
+          <p className="font-semibold text-deep-900">
+            {z.zoneName}: {STATUS_WORDS[z.status].toLowerCase()} since {fmtDateTime(z.since)}
+            {z.riverName ? ` (flow of ${z.riverName})` : ''}
+          </p>
+          <p className="mt-1 text-sm text-shell-900">
+            Your leases in or within {km} km of it:{' '}
+            {z.leases.map((l, i) => (
+              <span key={l.leaseId}>
+                {i > 0 && ', '}
+                <Link className="font-semibold text-deep-700 underline" to={`/leases/${l.leaseId}`}>
+                  {l.leaseCode}
+                </Link>{' '}
+                ({l.distanceM === 0 ? 'inside' : `${fmtNumber(l.distanceM / 1000, 1)} km`})
+              </span>
+            ))}
+          </p>
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+function LatestMessages() {
+  const inbox = useQuery(inboxKeys.list());
+  if (inbox.isPending) return <Loading what="Loading your latest alerts and notices…" />;
+  if (inbox.isError) return <LoadError error={inbox.error} retry={() => inbox.refetch()} />;
+  const latest = inbox.data.items.filter((m) => m.kind === 'alert' || m.kind === 'notice').slice(0, 5);
+  if (!latest.length) {
+    return (
+      <Empty title="No alerts or notices yet">
+        When a river’s flow puts one of your leases in a plume band, or the authority closes a zone you hold a lease in, it appears here and
+        by e-mail.
+      </Empty>
+    );
+  }
+  return (
+    <ul className="space-y-2" aria-label="Latest alerts and notices">
+      {latest.map((m) => (
+        <li key={m.id} className="rounded-lg border border-sand-200 bg-white p-3">
+          <p className="font-semibold text-deep-900">
+            {m.title}
+            {m.readAt === null && <span className="ml-2 text-xs text-deep-700">(unread)</span>}
+          </p>
+          <p className="text-xs text-shell-700">{fmtDateTime(m.createdAt)}</p>
+          <p className="mt-1 line-clamp-2 text-sm text-shell-900">{m.body}</p>
+        </li>
+      ))}
+      <li>
+        <Link className="text-sm font-semibold text-deep-700 underline" to="/inbox">
+          All messages in the inbox
+        </Link>
+      </li>
+    </ul>
+  );
+}
+
 export function OverviewPage() {
   const me = useMe();
   const role = me.data?.role ?? 'grower';
@@ -126,13 +202,17 @@ export function OverviewPage() {
             </p>
             <LeasesByRating />
           </section>
+          <section aria-labelledby="closures" className="space-y-2">
+            <h2 id="closures" className="text-lg font-semibold text-deep-900">
+              Closures in force near your leases
+            </h2>
+            <ClosuresNearMyLeases />
+          </section>
           <section aria-labelledby="alerts" className="space-y-2">
             <h2 id="alerts" className="text-lg font-semibold text-deep-900">
-              Latest alerts
+              Latest alerts and notices
             </h2>
-            <Empty title="No alerts yet">
-              When a river’s flow puts one of your leases in a plume band, the alert will appear here and by e-mail.
-            </Empty>
+            <LatestMessages />
           </section>
         </>
       )}

@@ -1,8 +1,9 @@
-import { useQueryClient } from '@tanstack/react-query';
-import { NavLink, Navigate, Outlet, useLocation } from 'react-router-dom';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { Link, NavLink, Navigate, Outlet, useLocation } from 'react-router-dom';
 import { NAVIGATION, ROLE_LABEL } from '../../config/navigation';
 import { useMe } from '../../features/account/api/get-me';
 import { signOut } from '../../lib/auth-client';
+import { inboxKeys } from '../../lib/inbox-api';
 import { LoadError, Loading } from '../ui/states';
 
 export function BrandMark() {
@@ -14,6 +15,26 @@ export function BrandMark() {
       </svg>
       Brackline
     </span>
+  );
+}
+
+/** The header's way to the inbox, with the unread count read out to screen readers too. */
+function InboxLink() {
+  const inbox = useQuery(inboxKeys.list());
+  const unread = inbox.data?.unread ?? 0;
+  return (
+    <Link
+      to="/inbox"
+      className="rounded border border-deep-300 px-3 py-1 hover:bg-deep-700"
+      aria-label={unread ? `Inbox, ${unread} unread` : 'Inbox'}
+    >
+      Inbox
+      {unread > 0 && (
+        <span className="ml-2 rounded-full bg-sand-100 px-2 py-0.5 text-xs font-bold text-deep-900" aria-hidden>
+          {unread}
+        </span>
+      )}
+    </Link>
   );
 }
 
@@ -48,6 +69,7 @@ export function AppShell() {
                 {ROLE_LABEL[user.role]}
               </span>
             </span>
+            <InboxLink />
             <button type="button" onClick={handleSignOut} className="rounded border border-deep-300 px-3 py-1 hover:bg-deep-700">
               Sign out
             </button>
@@ -85,7 +107,9 @@ export function PublicShell() {
       <div className="mx-auto max-w-md">
         <div className="mb-6 text-white">
           <BrandMark />
-          <p className="mt-2 text-sm text-deep-100">Where a river's flood water goes along the coast, and what it does to each shellfish lease.</p>
+          <p className="mt-2 text-sm text-deep-100">
+            Where a river's flood water goes along the coast, and what it does to each shellfish lease.
+          </p>
         </div>
         <div className="rounded-lg bg-white p-6 shadow-lg">
           <Outlet />

@@ -1,0 +1,16 @@
+import { nearbyClosureListSchema } from '#shared/schemas/closures';
+import type { Database } from '../db/client';
+import { defineRoute, type RouteContext } from '../http/route';
+import { nearbyClosures } from '../services/nearby-closures.service';
+
+export function registerOverviewRoutes(ctx: RouteContext, db: Database): void {
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/overview/closures',
+    summary: 'Zones closed or waiting to reopen that hold or lie near leases you can see',
+    tags: ['overview', 'zones'],
+    access: { roles: ['grower', 'adviser', 'regulator'] },
+    response: nearbyClosureListSchema,
+    handler: ({ user }) => nearbyClosures(db, user!),
+  });
+}

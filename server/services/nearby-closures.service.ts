@@ -1,0 +1,45 @@
+/**
+ * Zones currently closed or waiting to reopen, with the caller's visible leases inside them or
+ * near them (geodesic distance), for the overview. A zone with no lease of the caller nearby is left out.
+ */
+import { sql } from 'drizzle-orm';
+import { NEARBY_CLOSURE_DISTANCE_M, type NearbyClosureList, type ZoneStatus } from '#shared/schemas/closures';
+import type { Database } from '../db/client';
+import type { CurrentUser } from '../http/route';
+import { visibleLeases } from './leases.service';
+
+type Row = {
+  zone_id: string;
+  zone_name: string;
+  status: ZoneStatus;
+  since: Date;
+  river_name: string | null;
+  lease_id: string;
+  lease_code: string;
+  distance_m: number;
+};
+
+export async function nearbyClosures(db: Database, user: CurrentUser): Promise<NearbyClosureList> {
+  const rows = await db.execute<Row>(sql`
+    SELECT z.id AS zone_id, z.name AS zone_name, z.status, z.status_since AS since, r.name AS river_name,
+           l.id AS lease_id, l.lease_code, ST_Distance(z.geom::geography, l.geom::geography) AS distance_m
+      FROM closure_zones z
+      LEFT JOIN rivers r ON r.id = z.river_id
+      JOIN leases l ON ST_DWithin(z.geom::geography, l.geom::geography, ${NEARBY_CLOSURE_DISTANCE_M})
+     WHERE z.status <> 'open' AND ${visibleLeases(user)}
+     ORDER BY z.status_since DESC, z.name, distance_m, l.lease_code`);
+  const byZone = new Map<string, NearbyClosureList['items'][number]>();
+  for (const r of rows.rows) {
+    const zone = byZone.get(r.zone_id) ?? {
+      zoneId: r.zone_id,
+      zoneName: r.zone_name,
+      status: r.status,
+      since: new Date(r.since).toISOString(),
+      riverName: r.river_name,
+      leases: [],
+    };
+    zone.leases.push({ leaseId: r.lease_id, leaseCode: r.lease_code, distanceM: Number(r.distance_m) });
+    byZone.set(r.zone_id, zone);
+  }
+  return { items: [...byZone.values()], distanceM: NEARBY_CLOSURE_DISTANCE_M };
+}

@@ -1,0 +1,22 @@
+/** Closure zones that are closed (or waiting to reopen) near the caller's leases, for the overview. */
+import { z } from 'zod';
+
+export const ZONE_STATUSES = ['open', 'closed', 'reopening-pending'] as const;
+export type ZoneStatus = (typeof ZONE_STATUSES)[number];
+
+/** How far from a lease a closed zone still counts as "near" it, in metres (common practice: a bay-scale distance). */
+export const NEARBY_CLOSURE_DISTANCE_M = 5000;
+
+export const nearbyClosureSchema = z.object({
+  zoneId: z.string(),
+  zoneName: z.string(),
+  status: z.enum(ZONE_STATUSES),
+  since: z.string(),
+  riverName: z.string().nullable(),
+  leases: z
+    .array(z.object({ leaseId: z.string(), leaseCode: z.string(), distanceM: z.number().describe('0 when the lease overlaps the zone') }))
+    .describe('Your visible leases inside or within the nearby distance of the zone, nearest first'),
+});
+export type NearbyClosure = z.infer<typeof nearbyClosureSchema>;
+export const nearbyClosureListSchema = z.object({ items: z.array(nearbyClosureSchema), distanceM: z.number() });
+export type NearbyClosureList = z.infer<typeof nearbyClosureListSchema>;

@@ -1,0 +1,77 @@
+/** Closed zones near the caller's leases, for the overview: only leases the caller may see, only zones not open. */
+import { sql } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestApp, signIn, type TestApp } from '../../helpers/test-app';
+
+type Agent = Awaited<ReturnType<typeof signIn>>['agent'];
+let t: TestApp;
+let grower: Agent;
+let grower2: Agent;
+let regulator: Agent;
+
+async function userId(email: string): Promise<string> {
+  const r = await t.db.pool.query('select id from users where email = $1', [email]);
+  return r.rows[0].id;
+}
+
+/** A 200 m square lease whose south-west corner is at (lon, lat). */
+async function addLease(email: string, code: string, lon: number, lat: number, status: 'held' | 'candidate'): Promise<string> {
+  const j = await t.db.pool.query("select id from jurisdictions where slug = 'fennick-coast'");
+  const r = await t.db.pool.query(
+    `insert into leases (lease_code, holder, species, status, owner_id, jurisdiction_id, geom, area_m2)
+     select $1, 'Test holder', 'pacific-oyster', $2::lease_status, $3, $6::uuid, g, ST_Area(g::geography)
+       from (select ST_Multi(ST_MakeEnvelope($4::float8, $5::float8, $4::float8 + 0.0024, $5::float8 + 0.0018, 4326)) as g) x returning id`,
+    [code, status, await userId(email), lon, lat, j.rows[0].id],
+  );
+  return r.rows[0].id;
+}
+
+beforeAll(async () => {
+  t = await createTestApp();
+  await t.db.db.execute(sql`DELETE FROM leases`);
+  await t.db.db.execute(sql`DELETE FROM closure_zones`);
+  const j = await t.db.pool.query("select id from jurisdictions where slug = 'fennick-coast'");
+  // One closed zone (a 0.02° square) and one open zone beside it.
+  await t.db.pool.query(
+    `insert into closure_zones (name, jurisdiction_id, geom, area_m2, status, status_since)
+     select n, $1::uuid, g, ST_Area(g::geography), s, now() from (values
+       ('Closed test zone', ST_Multi(ST_MakeEnvelope(-38.70, 41.10, -38.68, 41.12, 4326)), 'closed'),
+       ('Open test zone', ST_Multi(ST_MakeEnvelope(-38.60, 41.10, -38.58, 41.12, 4326)), 'open')) v(n, g, s)`,
+    [j.rows[0].id],
+  );
+  await addLease('grower@brackline.test', 'IN-ZONE', -38.695, 41.105, 'held');
+  // About 2.5 km east of the closed zone's edge (0.03° of longitude at 41.1°N ≈ 2.52 km): near.
+  await addLease('grower@brackline.test', 'NEAR', -38.65, 41.11, 'candidate');
+  // About 25 km away: not near.
+  await addLease('grower@brackline.test', 'FAR', -38.38, 41.11, 'held');
+  await addLease('grower2@brackline.test', 'OTHER-CANDIDATE', -38.69, 41.11, 'candidate');
+  grower = (await signIn(t.app, 'grower@brackline.test')).agent;
+  grower2 = (await signIn(t.app, 'grower2@brackline.test')).agent;
+  regulator = (await signIn(t.app, 'regulator@brackline.test')).agent;
+});
+afterAll(async () => {
+  await t.close();
+});
+
+describe('GET /overview/closures', () => {
+  it("lists the closed zone with the grower's leases inside or near it, nearest first, and not the open zone", async () => {
+    const res = await grower.get('/api/v1/overview/closures').expect(200);
+    expect(res.body.distanceM).toBe(5000);
+    expect(res.body.items).toHaveLength(1);
+    const zone = res.body.items[0];
+    expect(zone.zoneName).toBe('Closed test zone');
+    expect(zone.status).toBe('closed');
+    expect(zone.leases.map((l: { leaseCode: string }) => l.leaseCode)).toEqual(['IN-ZONE', 'NEAR']);
+    expect(zone.leases[0].distanceM).toBe(0);
+    // Geodesic distance from -38.68 to -38.65 at ~41.11°N: about 2.52 km (0.03° × 111.32 km × cos 41.11°, common practice).
+    expect(zone.leases[1].distanceM).toBeGreaterThan(2400);
+    expect(zone.leases[1].distanceM).toBeLessThan(2600);
+  });
+
+  it("never shows another grower's candidate lease, to a grower or to the regulator", async () => {
+    const g2 = await grower2.get('/api/v1/overview/closures').expect(200);
+    expect(g2.body.items[0].leases.map((l: { leaseCode: string }) => l.leaseCode)).toEqual(['OTHER-CANDIDATE']);
+    const reg = await regulator.get('/api/v1/overview/closures').expect(200);
+    expect(reg.body.items[0].leases.map((l: { leaseCode: string }) => l.leaseCode)).toEqual(['IN-ZONE']);
+  });
+});
