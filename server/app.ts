@@ -86,10 +86,7 @@ export function createApp(deps: AppDeps): Express {
     deps.authRateLimit ?? { limit: 60, windowMs: 10 * 60_000 },
     'Too many sign-in attempts from this address. Wait ten minutes, then try again.',
   );
-  const calcLimiter = limited(
-    deps.calcRateLimit ?? { limit: 300, windowMs: 60_000 },
-    'Too many calculator requests. Wait a minute, then try again.',
-  );
+  const calcLimiter = limited(deps.calcRateLimit ?? { limit: 300, windowMs: 60_000 }, 'Too many calculator requests. Wait a minute, then try again.');
 
   const authConfig = createAuthConfig({
     db,
@@ -125,19 +122,11 @@ export function createApp(deps: AppDeps): Express {
   registerAccountRoutes(ctx, accounts);
   registerAdminRoutes(ctx, db, accounts);
   registerCalcRoutes(ctx);
-  const uploadLimits = {
-    ...DEFAULT_UPLOAD_LIMITS,
-    ...Object.fromEntries(Object.entries(deps.uploadLimits ?? {}).filter(([, v]) => v !== undefined)),
-  };
+  const uploadLimits = { ...DEFAULT_UPLOAD_LIMITS, ...Object.fromEntries(Object.entries(deps.uploadLimits ?? {}).filter(([, v]) => v !== undefined)) };
   const screening = createScreeningService({ db });
   const jobs = deps.jobs ?? createInlineScreeningJobs(db, screening);
   const leasesChanged = (ids: string[]) => jobs.enqueueLeases(ids);
-  registerImportRoutes(
-    ctx,
-    db,
-    createImportsService({ db, limits: uploadLimits, onLeasesChanged: leasesChanged }),
-    uploadLimits.maxCompressedBytes,
-  );
+  registerImportRoutes(ctx, db, createImportsService({ db, limits: uploadLimits, onLeasesChanged: leasesChanged }), uploadLimits.maxCompressedBytes);
   registerSharingRoutes(ctx, createSharingService(db));
   registerLeaseRoutes(ctx, createLeasesService(db, { onLeasesChanged: leasesChanged }));
   const rivers = createRiversService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) });
@@ -151,13 +140,9 @@ export function createApp(deps: AppDeps): Express {
   router.get('/openapi.json', (_req, res) => {
     res.json(openApi);
   });
-  router.use((req, _res, next) =>
-    next(new NotFoundError(`No API route ${req.method} ${API_BASE}${req.path}. See ${API_BASE}/openapi.json for the routes.`)),
-  );
+  router.use((req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${API_BASE}${req.path}. See ${API_BASE}/openapi.json for the routes.`)));
   app.use(API_BASE, router);
-  app.use('/api', (req, _res, next) =>
-    next(new NotFoundError(`No API route ${req.method} /api${req.path}. The API lives under ${API_BASE}.`)),
-  );
+  app.use('/api', (req, _res, next) => next(new NotFoundError(`No API route ${req.method} /api${req.path}. The API lives under ${API_BASE}.`)));
 
   const dist = path.resolve(import.meta.dirname, '../dist');
   if (env.SERVE_CLIENT && existsSync(path.join(dist, 'index.html'))) {
