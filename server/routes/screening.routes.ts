@@ -126,14 +126,16 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/screenings/annual',
-    summary: 'Annualised exposure per lease and river: expected days per year below tolerance and the chance of any exposure',
+    summary: 'Annualised exposure per lease and river: expected days a year below the salinity tolerance and above the indicator standard, and the chance a year of each',
     tags: ['screenings'],
     access: { roles: READERS },
     query: z.strictObject({ leaseId: z.uuid().optional(), riverId: z.uuid().optional() }),
     handler: async ({ user, query }) => {
       const rows = await db.execute(sql`
         SELECT a.lease_id AS "leaseId", l.lease_code AS "leaseCode", a.river_id AS "riverId", r.name AS "riverName",
-               a.expected_days_per_year AS "expectedDaysPerYear", a.probability_any_exposure AS "probabilityAnyExposure", a.worst_rating AS "worstRating", a.details
+               a.expected_days_per_year AS "expectedDaysPerYear", a.probability_any_exposure AS "probabilityAnyExposure", a.worst_rating AS "worstRating",
+               (a.details->'indicator'->>'expectedDaysPerYear')::float8 AS "indicatorDaysPerYear",
+               (a.details->'indicator'->>'probabilityOfAnyExposure')::float8 AS "probabilityIndicatorAboveStandard", a.details
           FROM lease_annual_exposure a JOIN leases l ON l.id = a.lease_id JOIN rivers r ON r.id = a.river_id
          WHERE ${visibleLeases(user!)} ${query.leaseId ? sql`AND a.lease_id = ${query.leaseId}::uuid` : sql``} ${query.riverId ? sql`AND a.river_id = ${query.riverId}::uuid` : sql``}
          ORDER BY l.lease_code`);
@@ -187,14 +189,17 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/tiles/leases/:z/:x/:y',
-    summary: 'Leases you may see as Mapbox Vector Tiles (layer "leases": lease id, status, species, worst rating)',
+    summary: 'Leases you may see as Mapbox Vector Tiles (layer "leases": id, lease, status, species, rating at a scenario or worst)',
     tags: ['tiles'],
     access: { roles: READERS },
     params: tileParams,
-    query: z.strictObject({ riverId: z.uuid().optional() }),
+    query: z.strictObject({
+      riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }).optional(),
+      scenarioId: z.uuid({ error: 'scenarioId must be a scenario id (UUID)' }).optional().describe('Rate each lease at this flood scenario'),
+    }),
     handler: async ({ user, params, query, res }) => {
       const { z: tz, x, y } = tileXY(params);
-      const mvt = await leaseTile(db, user!, tz, x, y, query.riverId);
+      const mvt = await leaseTile(db, user!, tz, x, y, query.riverId, query.scenarioId);
       res.setHeader('Content-Type', 'application/vnd.mapbox-vector-tile');
       res.setHeader('Cache-Control', 'private, max-age=60');
       res.send(mvt);

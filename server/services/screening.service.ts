@@ -41,7 +41,10 @@ export interface FlowSpec {
 }
 
 /** The water and plume inputs of the engine for a river at one flow. */
-export function plumeFor(settings: RiverSettings, flow: { discharge: number; durationHours: number }): { plume: PlumeResult; params: ExposureParameters } {
+export function plumeFor(
+  settings: RiverSettings,
+  flow: { discharge: number; durationHours: number },
+): { plume: PlumeResult; params: ExposureParameters } {
   const plume = computePlume({
     latitude: settings.mouthLatitude,
     discharge: flow.discharge,
@@ -108,7 +111,15 @@ export function createScreeningService(deps: { db: Database }) {
   const { db } = deps;
 
   async function riverInputs(riverId: string): Promise<RiverInputs> {
-    const res = await db.execute<{ id: string; name: string; version: number; jurisdiction_id: string | null; owner_id: string | null; settings: RiverSettings; coast_id: string | null }>(sql`
+    const res = await db.execute<{
+      id: string;
+      name: string;
+      version: number;
+      jurisdiction_id: string | null;
+      owner_id: string | null;
+      settings: RiverSettings;
+      coast_id: string | null;
+    }>(sql`
       SELECT id, name, version, jurisdiction_id, owner_id, settings, coast_id FROM rivers WHERE id = ${riverId}::uuid`);
     const river = res.rows[0];
     if (!river) throw new NotFoundError('No river with this id.');
@@ -118,7 +129,9 @@ export function createScreeningService(deps: { db: Database }) {
           OR (${river.coast_id}::uuid IS NULL AND ((shared AND jurisdiction_id = ${river.jurisdiction_id}::uuid) OR owner_id = ${river.owner_id}))
        ORDER BY (id = ${river.coast_id}::uuid) DESC NULLS LAST, (form = 'line') DESC, shared DESC, created_at DESC LIMIT 1`);
     if (!coast.rows[0]) {
-      throw new UnprocessableError(`${river.name} has no coastline to build its plume on. Upload the coast (a shoreline or land polygons) of its region first.`);
+      throw new UnprocessableError(
+        `${river.name} has no coastline to build its plume on. Upload the coast (a shoreline or land polygons) of its region first.`,
+      );
     }
     return {
       id: river.id,
@@ -137,12 +150,22 @@ export function createScreeningService(deps: { db: Database }) {
   async function ensureFootprint(river: RiverInputs, flow: FlowSpec): Promise<{ id: string; plume: PlumeResult; created: boolean }> {
     const bands = screeningBandSpecs(river.settings.seaSalinity, INDICATOR_STANDARD);
     const inputHash = createHash('sha256')
-      .update(JSON.stringify({ MODEL_VERSION, settings: river.settings, coast: river.coastStamp, discharge: flow.discharge, durationHours: flow.durationHours, bands }))
+      .update(
+        JSON.stringify({
+          MODEL_VERSION,
+          settings: river.settings,
+          coast: river.coastStamp,
+          discharge: flow.discharge,
+          durationHours: flow.durationHours,
+          bands,
+        }),
+      )
       .digest('hex');
     const existing = await db.execute<{ id: string; plume: PlumeResult }>(sql`
       SELECT id, plume FROM footprints WHERE river_id = ${river.id}::uuid AND input_hash = ${inputHash}`);
     if (existing.rows[0]) {
-      if (flow.scenarioId) await db.execute(sql`UPDATE footprints SET scenario_id = ${flow.scenarioId}::uuid WHERE id = ${existing.rows[0].id}::uuid`);
+      if (flow.scenarioId)
+        await db.execute(sql`UPDATE footprints SET scenario_id = ${flow.scenarioId}::uuid WHERE id = ${existing.rows[0].id}::uuid`);
       return { id: existing.rows[0].id, plume: existing.rows[0].plume, created: false };
     }
     let plume: PlumeResult;
@@ -173,7 +196,9 @@ export function createScreeningService(deps: { db: Database }) {
         RETURNING id`);
       const id = inserted.rows[0].id;
       const rows = [
-        ...(footprint.bulge ? [{ band: 'bulge', name: 'Bulge near the mouth', kind: 'bulge', threshold: null, order: 0, geometry: footprint.bulge.geometry }] : []),
+        ...(footprint.bulge
+          ? [{ band: 'bulge', name: 'Bulge near the mouth', kind: 'bulge', threshold: null, order: 0, geometry: footprint.bulge.geometry }]
+          : []),
         ...footprint.bands.map((b, i) => ({
           band: b.properties.id,
           name: b.properties.name,
@@ -206,7 +231,12 @@ export function createScreeningService(deps: { db: Database }) {
   }
 
   /** Screens every scoped lease under one scenario's footprint, replacing earlier rows. */
-  async function screenFootprint(river: RiverInputs, footprint: { id: string; plume: PlumeResult }, scenario: { id: string; aep: number | null; discharge: number; durationHours: number; name: string }, leaseIds?: string[]) {
+  async function screenFootprint(
+    river: RiverInputs,
+    footprint: { id: string; plume: PlumeResult },
+    scenario: { id: string; aep: number | null; discharge: number; durationHours: number; name: string },
+    leaseIds?: string[],
+  ) {
     const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
     const byLease = await leaseBandFractions(db, footprint.id, sql`${scopedLeases(river)} ${leaseFilter}`);
     const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null }>(sql`
@@ -227,9 +257,13 @@ export function createScreeningService(deps: { db: Database }) {
       const inSpeciesBand = (fractionsOfLease[salinityBandId(tolerance.chronicLowerSalinity)] ?? 0) > 0;
       const inIndicatorBand = (fractionsOfLease['indicator-over-standard'] ?? 0) > 0;
       let lowestSalinity = field ? field.salinity : river.settings.seaSalinity;
-      lowestSalinity = inSpeciesBand ? Math.min(lowestSalinity, tolerance.chronicLowerSalinity - 0.1) : Math.max(lowestSalinity, tolerance.chronicLowerSalinity);
+      lowestSalinity = inSpeciesBand
+        ? Math.min(lowestSalinity, tolerance.chronicLowerSalinity - 0.1)
+        : Math.max(lowestSalinity, tolerance.chronicLowerSalinity);
       let highestIndicator = field ? field.indicator : 0;
-      highestIndicator = inIndicatorBand ? Math.max(highestIndicator, INDICATOR_STANDARD * 1.01) : Math.min(highestIndicator, INDICATOR_STANDARD);
+      highestIndicator = inIndicatorBand
+        ? Math.max(highestIndicator, INDICATOR_STANDARD * 1.01)
+        : Math.min(highestIndicator, INDICATOR_STANDARD);
       const below = daysBelowTolerance(inPlume ? lowestSalinity : null, days, tolerance);
       const speciesBand = salinityBandId(tolerance.chronicLowerSalinity);
       const score = scoreLease({
@@ -246,7 +280,10 @@ export function createScreeningService(deps: { db: Database }) {
         indicatorThreshold: INDICATOR_STANDARD,
       });
       const reasons = [...score.reasons];
-      if (!known) reasons.push(`The lease's species is not set, so the strictest salinity limit in the table (${tolerance.commonNamePlural}, ${tolerance.chronicLowerSalinity}) was used. Set the species for a rating of its own.`);
+      if (!known)
+        reasons.push(
+          `The lease's species is not set, so the strictest salinity limit in the table (${tolerance.commonNamePlural}, ${tolerance.chronicLowerSalinity}) was used. Set the species for a rating of its own.`,
+        );
       return {
         lease: l.id,
         fractions: fractionsOfLease,
@@ -277,17 +314,39 @@ export function createScreeningService(deps: { db: Database }) {
 
   /** Annualised exposure per lease across the river's flood-frequency scenarios. */
   async function annualise(river: RiverInputs, leaseIds?: string[]) {
-    const leaseFilter = leaseIds ? sql`AND s.lease_id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
-    const res = await db.execute<{ lease_id: string; points: { aep: number; days: number; rating: string }[] }>(sql`
-      SELECT s.lease_id, jsonb_agg(jsonb_build_object('aep', sc.aep, 'days', s.days_below_tolerance, 'rating', s.rating)) AS points
+    const leaseFilter = leaseIds
+      ? sql`AND s.lease_id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)`
+      : sql``;
+    const res = await db.execute<{
+      lease_id: string;
+      points: { aep: number; days: number; rating: string; indicator: number | null; durationHours: number }[];
+    }>(sql`
+      SELECT s.lease_id, jsonb_agg(jsonb_build_object('aep', sc.aep, 'days', s.days_below_tolerance, 'rating', s.rating,
+                                                      'indicator', s.highest_indicator, 'durationHours', sc.duration_hours)) AS points
         FROM screenings s JOIN scenarios sc ON sc.id = s.scenario_id
        WHERE s.river_id = ${river.id}::uuid AND sc.kind = 'aep' ${leaseFilter}
        GROUP BY s.lease_id`);
     for (const row of res.rows) {
       const points = row.points.filter((p) => p.aep > 0 && p.aep < 1);
       if (!points.length) continue;
-      const result = annualiseExposure(points.map((p) => ({ aep: p.aep, days: p.days })));
-      const worst = points.reduce((w, p) => (RATING_ORDER.indexOf(p.rating as never) > RATING_ORDER.indexOf(w as never) ? p.rating : w), 'low');
+      const salinity = annualiseExposure(points.map((p) => ({ aep: p.aep, days: p.days })));
+      // The faecal indicator, annualised the same way (c): a flood whose highest indicator on the lease is
+      // above the standard counts its whole duration as days above it.
+      const indicator = annualiseExposure(
+        points.map((p) => ({ aep: p.aep, days: p.indicator !== null && p.indicator > INDICATOR_STANDARD ? p.durationHours / 24 : 0 })),
+      );
+      const result = {
+        ...salinity,
+        indicator: {
+          standard: INDICATOR_STANDARD,
+          expectedDaysPerYear: indicator.expectedDaysPerYear,
+          probabilityOfAnyExposure: indicator.probabilityOfAnyExposure,
+        },
+      };
+      const worst = points.reduce(
+        (w, p) => (RATING_ORDER.indexOf(p.rating as never) > RATING_ORDER.indexOf(w as never) ? p.rating : w),
+        'low',
+      );
       await db.execute(sql`
         INSERT INTO lease_annual_exposure (lease_id, river_id, expected_days_per_year, probability_any_exposure, worst_rating, details, computed_at)
         VALUES (${row.lease_id}::uuid, ${river.id}::uuid, ${result.expectedDaysPerYear}, ${result.probabilityOfAnyExposure}, ${worst}, ${JSON.stringify(result)}::jsonb, now())
@@ -297,7 +356,11 @@ export function createScreeningService(deps: { db: Database }) {
   }
 
   /** Every scenario of a river: footprints (cached by inputs) and screenings of every scoped lease. */
-  async function screenRiver(riverId: string, onProgress?: (done: number, total: number, what: string) => Promise<void> | void, leaseIds?: string[]) {
+  async function screenRiver(
+    riverId: string,
+    onProgress?: (done: number, total: number, what: string) => Promise<void> | void,
+    leaseIds?: string[],
+  ) {
     const river = await riverInputs(riverId);
     const scenarios = await db.execute<{ id: string; aep: number | null; discharge: number; duration_hours: number; name: string }>(sql`
       SELECT id, aep, discharge, duration_hours, name FROM scenarios WHERE river_id = ${riverId}::uuid ORDER BY discharge`);
@@ -305,10 +368,17 @@ export function createScreeningService(deps: { db: Database }) {
     for (const [i, s] of scenarios.rows.entries()) {
       await onProgress?.(i, scenarios.rows.length, `Building the plume for ${s.name}`);
       const fp = await ensureFootprint(river, { scenarioId: s.id, discharge: s.discharge, durationHours: s.duration_hours });
-      screened += await screenFootprint(river, fp, { id: s.id, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, name: s.name }, leaseIds);
+      screened += await screenFootprint(
+        river,
+        fp,
+        { id: s.id, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, name: s.name },
+        leaseIds,
+      );
     }
     // Scenarios deleted since: their screenings went with them (cascade); stale footprints of older versions are dropped.
-    await db.execute(sql`DELETE FROM footprints f WHERE f.river_id = ${riverId}::uuid AND f.scenario_id IS NULL AND f.created_at < now() - interval '1 day'`);
+    await db.execute(
+      sql`DELETE FROM footprints f WHERE f.river_id = ${riverId}::uuid AND f.scenario_id IS NULL AND f.created_at < now() - interval '1 day'`,
+    );
     await annualise(river, leaseIds);
     await onProgress?.(scenarios.rows.length, scenarios.rows.length, 'Done');
     return { scenarios: scenarios.rows.length, screenings: screened };

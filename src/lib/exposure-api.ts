@@ -50,6 +50,9 @@ export interface AnnualRow {
   riverName: string;
   expectedDaysPerYear: number;
   probabilityAnyExposure: number;
+  /** Expected days a year the faecal indicator on the lease is above the standard (null before re-screening). */
+  indicatorDaysPerYear: number | null;
+  probabilityIndicatorAboveStandard: number | null;
   worstRating: ScreeningRow['rating'] | null;
 }
 
@@ -109,6 +112,13 @@ export const exposureKeys = {
     }),
   /** Same key as the leases feature's detail query, so the cache is shared. */
   lease: (id: string) => queryOptions({ queryKey: ['leases', 'detail', id] as const, queryFn: () => api<Lease>(`/leases/${id}`) }),
+  /** How many leases the caller may see (decides between GeoJSON and vector tiles on the map). */
+  leaseCount: () =>
+    queryOptions({
+      queryKey: ['leases', 'count'] as const,
+      queryFn: () => api<{ total: number }>('/leases?limit=1').then((r) => r.total),
+      staleTime: 60_000,
+    }),
   leasesWithGeometry: () =>
     queryOptions({
       queryKey: ['leases', 'all-with-geometry'] as const,

@@ -75,4 +75,30 @@ describe('a grower reads a lease report and the exposure map', () => {
     expect(errors).toEqual([]);
     await page.close();
   });
+
+  it('draws leases from vector tiles, coloured by rating, when the map is asked to tile them', async () => {
+    const page = await browser().newPage();
+    const errors = watchErrors(page);
+    const tiles: { status: number; bytes: number }[] = [];
+    page.on('response', async (r) => {
+      if (r.url().includes('/api/v1/tiles/leases/')) tiles.push({ status: r.status(), bytes: (await r.body()).length });
+    });
+    await signInThroughForm(page, baseUrl, 'grower@brackline.test', DEMO_PASSWORD);
+    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.goto(`${baseUrl}/map?leaseTiles=on`);
+    await page.getByRole('heading', { name: 'Exposure map' }).waitFor();
+    await page.locator('[role="img"][data-drawn]').waitFor();
+    await page.waitForFunction(() => performance.getEntriesByType('resource').some((e) => e.name.includes('/api/v1/tiles/leases/')));
+    await page.waitForTimeout(500);
+    expect(tiles.length, JSON.stringify(tiles)).toBeGreaterThan(0);
+    expect(
+      tiles.every((t) => t.status === 200),
+      JSON.stringify(tiles),
+    ).toBe(true);
+    // At least one tile of the demo bay carries leases.
+    expect(tiles.some((t) => t.bytes > 100)).toBe(true);
+    await screenshot(page, 'exposure-map-lease-tiles');
+    expect(errors).toEqual([]);
+    await page.close();
+  });
 });

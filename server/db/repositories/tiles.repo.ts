@@ -5,18 +5,29 @@ import type { Database } from '../client';
 
 /**
  * One Mapbox Vector Tile of the leases `user` may see (layer "leases": lease id, status,
- * species, worst rating across the river's scenarios), clipped to the tile by PostGIS;
- * outlines from zoom 12, points below.
+ * species, rating), clipped to the tile by PostGIS; outlines from zoom 12, points below. The
+ * rating is the lease's at `scenarioId` when given, else its worst across the river's (or every) scenario.
  */
-export async function leaseTile(db: Database, user: CurrentUser, z: number, x: number, y: number, riverId?: string): Promise<Buffer> {
+export async function leaseTile(
+  db: Database,
+  user: CurrentUser,
+  z: number,
+  x: number,
+  y: number,
+  riverId?: string,
+  scenarioId?: string,
+): Promise<Buffer> {
   // Below zoom 12 a lease is a few pixels: send its point on surface instead of its outline.
   const shape = z < 12 ? sql`ST_PointOnSurface(l.geom)` : sql`l.geom`;
   const tile = await db.execute<{ mvt: Buffer }>(sql`
     WITH bounds AS (SELECT ST_TileEnvelope(${z}, ${x}, ${y}) AS env),
-    worst AS (
-      SELECT DISTINCT ON (a.lease_id) a.lease_id, a.worst_rating
+    worst AS (${
+      scenarioId
+        ? sql`SELECT s.lease_id, s.rating AS worst_rating FROM screenings s WHERE s.scenario_id = ${scenarioId}::uuid`
+        : sql`SELECT DISTINCT ON (a.lease_id) a.lease_id, a.worst_rating
         FROM lease_annual_exposure a ${riverId ? sql`WHERE a.river_id = ${riverId}::uuid` : sql``}
-       ORDER BY a.lease_id, array_position(ARRAY['low','moderate','high','severe'], a.worst_rating) DESC),
+       ORDER BY a.lease_id, array_position(ARRAY['low','moderate','high','severe'], a.worst_rating) DESC`
+    }),
     rows AS (
       SELECT l.id, l.lease_code AS lease, l.status, l.species, COALESCE(w.worst_rating, 'none') AS rating,
              ST_AsMVTGeom(ST_Transform(${shape}, 3857), bounds.env, 4096, 64, true) AS geom

@@ -23,13 +23,24 @@ interface LeaseSummary {
   worstRiver: string;
   expectedDays: number;
   chance: number;
+  indicatorDays: number | null;
+  indicatorChance: number | null;
 }
 
 /** One row per lease: its worst rating over every river, and the yearly figures summed over rivers. */
 function summarise(rows: AnnualRow[]): LeaseSummary[] {
   const m = new Map<string, LeaseSummary>();
   for (const r of rows) {
-    const s = m.get(r.leaseId) ?? { leaseId: r.leaseId, leaseCode: r.leaseCode, worst: null, worstRiver: '', expectedDays: 0, chance: 0 };
+    const s = m.get(r.leaseId) ?? {
+      leaseId: r.leaseId,
+      leaseCode: r.leaseCode,
+      worst: null,
+      worstRiver: '',
+      expectedDays: 0,
+      chance: 0,
+      indicatorDays: null,
+      indicatorChance: null,
+    };
     if (ratingRank(r.worstRating) > ratingRank(s.worst)) {
       s.worst = r.worstRating;
       s.worstRiver = r.riverName;
@@ -37,6 +48,10 @@ function summarise(rows: AnnualRow[]): LeaseSummary[] {
     s.expectedDays += r.expectedDaysPerYear ?? 0;
     // Rivers flood independently here: the chance of no exposure is the product over rivers.
     s.chance = 1 - (1 - s.chance) * (1 - (r.probabilityAnyExposure ?? 0));
+    if (r.indicatorDaysPerYear !== null && r.probabilityIndicatorAboveStandard !== null) {
+      s.indicatorDays = (s.indicatorDays ?? 0) + r.indicatorDaysPerYear;
+      s.indicatorChance = 1 - (1 - (s.indicatorChance ?? 0)) * (1 - r.probabilityIndicatorAboveStandard);
+    }
     m.set(r.leaseId, s);
   }
   return [...m.values()].sort(
@@ -76,6 +91,8 @@ function LeasesByRating() {
             <th className="p-2">From</th>
             <th className="p-2">Expected days a year below tolerance</th>
             <th className="p-2">Chance a year of salinity below tolerance</th>
+            <th className="p-2">Expected days a year indicator above standard</th>
+            <th className="p-2">Chance a year of indicator above standard</th>
           </tr>
         </thead>
         <tbody>
@@ -92,6 +109,8 @@ function LeasesByRating() {
               <td className="p-2">{r.worstRiver || '—'}</td>
               <td className="p-2">{fmtNumber(r.expectedDays, r.expectedDays < 10 ? 1 : 0)}</td>
               <td className="p-2">{chanceWords(r.chance)}</td>
+              <td className="p-2">{r.indicatorDays === null ? '—' : fmtNumber(r.indicatorDays, r.indicatorDays < 10 ? 1 : 0)}</td>
+              <td className="p-2">{r.indicatorChance === null ? '—' : chanceWords(r.indicatorChance)}</td>
             </tr>
           ))}
         </tbody>
@@ -198,7 +217,8 @@ export function OverviewPage() {
             </div>
             <p className="text-xs text-shell-700">
               The worst rating over every flood scenario of every river, whether from low salinity or from the faecal indicator. The yearly
-              figures count salinity below the species’ tolerance only, weighing each flood by how often it happens.
+              figures weigh each flood by how often it happens: days of salinity below the species’ tolerance, and days the faecal indicator
+              on the lease is above the approved-area standard (14 per 100 mL), counting a flood’s whole duration.
             </p>
             <LeasesByRating />
           </section>

@@ -6,16 +6,33 @@ import 'ol/ol.css';
 import type { FeatureCollection } from 'geojson';
 import OlMap from 'ol/Map';
 import View from 'ol/View';
+import type { FeatureLike } from 'ol/Feature';
 import GeoJSON from 'ol/format/GeoJSON';
+import MVT from 'ol/format/MVT';
+import { MultiPolygon, Point, Polygon } from 'ol/geom';
 import VectorLayer from 'ol/layer/Vector';
+import VectorTileLayer from 'ol/layer/VectorTile';
 import VectorSource from 'ol/source/Vector';
-import { Fill, Stroke, Style, Text } from 'ol/style';
+import VectorTileSource from 'ol/source/VectorTile';
+import { Circle, Fill, Stroke, Style, Text } from 'ol/style';
 import { useEffect, useRef } from 'react';
 
 export interface MapLayerSpec {
   id: string;
   label: string;
+  /** The features, or (with `tileUrl`) an empty collection. */
   data: FeatureCollection;
+  /**
+   * Mapbox Vector Tiles instead of `data`, e.g. "/api/v1/tiles/leases/{z}/{x}/{y}?riverId=…": for
+   * jurisdictions with more features than a browser should hold at once.
+   */
+  tileUrl?: string;
+  /** With `tileUrl`: a function of the tile feature's properties giving its fill and outline colours. */
+  tileColours?: (properties: Record<string, unknown>) => { fill: string; stroke: string };
+  /** Radius in pixels of point features (river mouths, stations), drawn as circles. */
+  pointRadius?: number;
+  /** Below this zoom, polygons are drawn as dots at their interior point, so small leases stay visible. */
+  dotsBelowZoom?: number;
   fill: string;
   stroke: string;
   strokeWidth?: number;
@@ -127,32 +144,62 @@ export default function VectorMap({
     for (const layer of map.getLayers().getArray().slice()) map.removeLayer(layer);
     const extentSource = new VectorSource();
     for (const spec of layers) {
+      const styleFor = (feature: FeatureLike, resolution: number) => {
+        const props = feature.getProperties();
+        const tinted = spec.tileColours?.(props);
+        const fill = new Fill({ color: tinted?.fill ?? ((spec.fillProperty && (props[spec.fillProperty] as string)) || spec.fill) });
+        const stroke = new Stroke({
+          color: tinted?.stroke ?? ((spec.strokeProperty && (props[spec.strokeProperty] as string)) || spec.stroke),
+          width: spec.strokeWidth ?? 2,
+          lineDash: spec.dashed ? [6, 4] : undefined,
+        });
+        const zoom = map.getView().getZoomForResolution(resolution) ?? 99;
+        const geometry = feature.getGeometry();
+        const asDot = geometry?.getType() === 'Point' || (spec.dotsBelowZoom !== undefined && zoom < spec.dotsBelowZoom);
+        const showLabel = spec.labelProperty && (!asDot || geometry?.getType() === 'Point' || zoom >= (spec.dotsBelowZoom ?? 0) - 1);
+        const text = showLabel
+          ? new Text({
+              text: String(props[spec.labelProperty as string] ?? ''),
+              font: '12px "Merriweather Sans", sans-serif',
+              fill: new Fill({ color: '#0c2238' }),
+              stroke: new Stroke({ color: '#ffffff', width: 3 }),
+              offsetY: asDot ? -14 : 0,
+              overflow: true,
+            })
+          : undefined;
+        if (asDot) {
+          let dot: Point | undefined;
+          if (geometry instanceof Point) dot = geometry;
+          else if (geometry instanceof Polygon) dot = geometry.getInteriorPoint();
+          else if (geometry instanceof MultiPolygon) dot = new Point(geometry.getInteriorPoints().getFirstCoordinate());
+          return new Style({
+            geometry: dot,
+            image: new Circle({
+              radius: spec.pointRadius ?? 5,
+              fill,
+              stroke: new Stroke({ color: stroke.getColor() ?? undefined, width: 2 }),
+              // Dots always draw; only their labels give way to each other.
+              declutterMode: 'none',
+            }),
+            text,
+          });
+        }
+        return new Style({ fill, stroke, text });
+      };
+      if (spec.tileUrl) {
+        map.addLayer(
+          new VectorTileLayer({
+            source: new VectorTileSource({ format: new MVT(), url: spec.tileUrl, maxZoom: 16 }),
+            properties: { id: spec.id },
+            style: styleFor,
+            declutter: Boolean(spec.labelProperty),
+          }),
+        );
+        continue;
+      }
       const source = new VectorSource({ features: geojson.readFeatures(spec.data) });
       if (!fitTo || fitTo.includes(spec.id)) extentSource.addFeatures(source.getFeatures());
-      map.addLayer(
-        new VectorLayer({
-          source,
-          properties: { id: spec.id },
-          style: (feature) =>
-            new Style({
-              fill: new Fill({ color: (spec.fillProperty && (feature.get(spec.fillProperty) as string)) || spec.fill }),
-              stroke: new Stroke({
-                color: (spec.strokeProperty && (feature.get(spec.strokeProperty) as string)) || spec.stroke,
-                width: spec.strokeWidth ?? 2,
-                lineDash: spec.dashed ? [6, 4] : undefined,
-              }),
-              text: spec.labelProperty
-                ? new Text({
-                    text: String(feature.get(spec.labelProperty) ?? ''),
-                    font: '12px "Merriweather Sans", sans-serif',
-                    fill: new Fill({ color: '#0c2238' }),
-                    stroke: new Stroke({ color: '#ffffff', width: 3 }),
-                    overflow: true,
-                  })
-                : undefined,
-            }),
-        }),
-      );
+      map.addLayer(new VectorLayer({ source, properties: { id: spec.id }, style: styleFor, declutter: Boolean(spec.labelProperty) }));
     }
     const extent = extentSource.getExtent();
     if ((fit === 'always' || !fitted.current) && extent && extentSource.getFeatures().length && Number.isFinite(extent[0])) {
@@ -174,12 +221,22 @@ export default function VectorMap({
   const legend = layers.filter((l) => !l.hideInLegend);
   return (
     <figure className="m-0">
-      <div ref={target} role="img" aria-label={ariaLabel} style={{ height }} className="w-full rounded-md border border-shell-300 bg-deep-50" />
+      <div
+        ref={target}
+        role="img"
+        aria-label={ariaLabel}
+        style={{ height }}
+        className="w-full rounded-md border border-shell-300 bg-deep-50"
+      />
       {showLegend && legend.length > 0 && (
         <figcaption className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-shell-700">
           {legend.map((l) => (
             <span key={l.id} className="flex items-center gap-1">
-              <span aria-hidden className="inline-block h-3 w-5" style={{ background: l.fill, border: `2px ${l.dashed ? 'dashed' : 'solid'} ${l.stroke}` }} />
+              <span
+                aria-hidden
+                className="inline-block h-3 w-5"
+                style={{ background: l.fill, border: `2px ${l.dashed ? 'dashed' : 'solid'} ${l.stroke}` }}
+              />
               {l.label}
             </span>
           ))}

@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import type { FeatureCollection, Geometry } from 'geojson';
 import { useMemo, useState } from 'react';
-import { Link } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router-dom';
 import { LazyVectorMap, type MapLayerSpec, type MapSelection } from '../../../components/map/lazy-vector-map';
 import { Cautions } from '../../../components/ui/cautions';
 import { PageHeader } from '../../../components/ui/page-header';
@@ -18,6 +18,17 @@ function rgba(hex: string, alpha: number): string {
 }
 
 const NOT_SCREENED = { fill: 'rgba(255,255,255,0.7)', stroke: '#4b4c48' };
+
+/** Above this many visible leases the map reads them as vector tiles instead of one GeoJSON download. */
+export const LEASE_TILE_THRESHOLD = 2000;
+
+/** Lease polygons turn into dots below this zoom, where a 200 m lease is a pixel or two. */
+const LEASE_DOTS_BELOW_ZOOM = 11;
+
+function ratingColours(rating: unknown): { fill: string; stroke: string } {
+  const c = typeof rating === 'string' && rating in RATING_COLOURS ? RATING_COLOURS[rating as Rating] : null;
+  return c ? { fill: rgba(c.fill, 0.9), stroke: c.edge } : NOT_SCREENED;
+}
 
 export function ExposureMapPage() {
   const rivers = useQuery(exposureKeys.rivers());
@@ -46,7 +57,11 @@ export function ExposureMapPage() {
     ...exposureKeys.screenings({ riverId, scenarioId: ratingScenario?.id }),
     enabled: Boolean(ratingScenario),
   });
-  const leases = useQuery(exposureKeys.leasesWithGeometry());
+  const [searchParams] = useSearchParams();
+  const leaseCount = useQuery(exposureKeys.leaseCount());
+  // ?leaseTiles=on forces tiles (used by the browser test on the small demo region).
+  const useTiles = searchParams.get('leaseTiles') === 'on' || (leaseCount.data !== undefined && leaseCount.data > LEASE_TILE_THRESHOLD);
+  const leases = useQuery({ ...exposureKeys.leasesWithGeometry(), enabled: leaseCount.isSuccess && !useTiles });
   const land = useQuery(exposureKeys.land());
 
   const byLease = useMemo(() => new Map((screenings.data?.items ?? []).map((r) => [r.leaseId, r] as const)), [screenings.data]);
@@ -68,22 +83,56 @@ export function ExposureMapPage() {
         });
       }
     }
-    if (leases.data?.items.length) {
+    const mouths: FeatureCollection = {
+      type: 'FeatureCollection',
+      features: (rivers.data?.items ?? [])
+        .filter((r) => typeof r.settings.mouthLongitude === 'number' && typeof r.settings.mouthLatitude === 'number')
+        .map((r) => ({
+          type: 'Feature',
+          properties: { label: `${r.name} mouth` },
+          geometry: { type: 'Point', coordinates: [Number(r.settings.mouthLongitude), Number(r.settings.mouthLatitude)] },
+        })),
+    };
+    if (mouths.features.length)
+      out.push({
+        id: 'mouths',
+        label: 'River mouth',
+        data: mouths,
+        fill: '#173d61',
+        stroke: '#ffffff',
+        pointRadius: 6,
+        labelProperty: 'label',
+      });
+    if (useTiles && ratingScenario) {
+      out.push({
+        id: 'leases',
+        label: 'Leases',
+        data: { type: 'FeatureCollection', features: [] },
+        tileUrl: `/api/v1/tiles/leases/{z}/{x}/{y}.mvt?riverId=${riverId}&scenarioId=${ratingScenario.id}`,
+        tileColours: (p) => ratingColours(p.rating),
+        fill: NOT_SCREENED.fill,
+        stroke: NOT_SCREENED.stroke,
+        strokeWidth: 2,
+        labelProperty: 'lease',
+        pointRadius: 4,
+        hideInLegend: true,
+      });
+    } else if (leases.data?.items.length) {
       const fc: FeatureCollection = {
         type: 'FeatureCollection',
         features: leases.data.items
           .filter((l) => l.geometry)
           .map((l) => {
             const row = byLease.get(l.id);
-            const c = row ? RATING_COLOURS[row.rating as Rating] : null;
+            const c = ratingColours(row?.rating);
             return {
               type: 'Feature',
               properties: {
-                leaseUuid: l.id,
-                leaseId: l.leaseId,
+                id: l.id,
+                lease: l.leaseId,
                 label: row ? `${l.leaseId} · ${RATING_LABEL[row.rating as Rating]}` : l.leaseId,
-                fill: c ? rgba(c.fill, 0.9) : NOT_SCREENED.fill,
-                stroke: c ? c.edge : NOT_SCREENED.stroke,
+                fill: c.fill,
+                stroke: c.stroke,
               },
               geometry: l.geometry as Geometry,
             };
@@ -99,17 +148,18 @@ export function ExposureMapPage() {
         labelProperty: 'label',
         fillProperty: 'fill',
         strokeProperty: 'stroke',
+        dotsBelowZoom: LEASE_DOTS_BELOW_ZOOM,
         hideInLegend: true,
       });
     }
     return out;
-  }, [land.data, footprint.data, leases.data, byLease]);
+  }, [land.data, footprint.data, leases.data, byLease, rivers.data, useTiles, ratingScenario, riverId]);
 
   if (rivers.isPending) return <Loading what="Loading rivers…" />;
   if (rivers.isError) return <LoadError error={rivers.error} retry={() => rivers.refetch()} />;
 
   const fp = footprint.data?.properties;
-  const picked: ScreeningRow | undefined = selection ? byLease.get(String(selection.properties.leaseUuid)) : undefined;
+  const picked: ScreeningRow | undefined = selection ? byLease.get(String(selection.properties.id)) : undefined;
   const plume = fp?.plume as { reach?: number; width?: number } | undefined;
 
   return (
@@ -195,12 +245,12 @@ export function ExposureMapPage() {
               {selection && (
                 <div
                   role="dialog"
-                  aria-label={`Lease ${String(selection.properties.leaseId)}`}
+                  aria-label={`Lease ${String(selection.properties.lease)}`}
                   className="absolute z-10 w-72 rounded-md border border-shell-300 bg-white p-3 text-sm shadow-lg"
                   style={{ left: Math.min(selection.pixel[0] + 12, 9999), top: selection.pixel[1] + 12, maxWidth: 'calc(100% - 1rem)' }}
                 >
                   <div className="flex items-start justify-between gap-2">
-                    <p className="font-semibold">Lease {String(selection.properties.leaseId)}</p>
+                    <p className="font-semibold">Lease {String(selection.properties.lease)}</p>
                     <button type="button" aria-label="Close" className="text-shell-700" onClick={() => setSelection(null)}>
                       ✕
                     </button>
@@ -227,7 +277,7 @@ export function ExposureMapPage() {
                   )}
                   <Link
                     className="mt-2 inline-block font-semibold text-deep-700 underline"
-                    to={`/leases/${String(selection.properties.leaseUuid)}`}
+                    to={`/leases/${String(selection.properties.id)}`}
                   >
                     Open the lease report
                   </Link>
