@@ -45,6 +45,7 @@ type LeaseRow = {
   import_id: string | null;
   worst_rating: string | null;
   expected_days: number | null;
+  scenario_ratings?: Record<string, Lease['worstRating'] & string> | null;
   probability_any: number | null;
   created_at: Date;
   updated_at: Date;
@@ -70,15 +71,22 @@ function toLease(r: LeaseRow): Lease {
     createdAt: new Date(r.created_at).toISOString(),
     updatedAt: new Date(r.updated_at).toISOString(),
     ...(r.geometry ? { geometry: JSON.parse(r.geometry) } : {}),
+    ...(r.scenario_ratings !== undefined ? { scenarioRatings: r.scenario_ratings ?? {} } : {}),
   };
 }
 
 /** Across every river that screens a lease: its worst rating and the largest annualised figures. */
-const SELECT_LEASE = (withGeometry: boolean) => sql`
+const SELECT_LEASE = (withGeometry: boolean, ratingsRiverId?: string) => sql`
   SELECT l.id, l.lease_code, l.holder, l.species, l.status, l.notes, l.owner_id, u.name AS owner_name,
          l.area_m2, l.on_land, l.import_id, l.created_at, l.updated_at,
          x.worst_rating, x.expected_days, x.probability_any
          ${withGeometry ? sql`, ST_AsGeoJSON(l.geom, 7) AS geometry` : sql``}
+         ${
+           ratingsRiverId
+             ? sql`, (SELECT jsonb_object_agg(s.scenario_id, s.rating) FROM screenings s
+                     WHERE s.lease_id = l.id AND s.river_id = ${ratingsRiverId}::uuid) AS scenario_ratings`
+             : sql``
+         }
     FROM leases l JOIN users u ON u.id = l.owner_id
     LEFT JOIN LATERAL (
       SELECT (ARRAY['low','moderate','high','severe'])[max(array_position(ARRAY['low','moderate','high','severe'], a.worst_rating))] AS worst_rating,
@@ -98,7 +106,9 @@ export function createLeasesService(db: Database, hooks: { onLeasesChanged?: (id
   async function list(user: CurrentUser, q: LeaseListQuery) {
     const where = filters(user, q);
     const order = sql.raw(`${SORT_COLUMNS[q.sort]} ${q.order === 'desc' ? 'DESC' : 'ASC'} NULLS LAST, l.id`);
-    const rows = await db.execute<LeaseRow>(sql`${SELECT_LEASE(q.withGeometry)} WHERE ${where} ORDER BY ${order} LIMIT ${q.limit} OFFSET ${q.offset}`);
+    const rows = await db.execute<LeaseRow>(
+      sql`${SELECT_LEASE(q.withGeometry, q.ratingsRiverId)} WHERE ${where} ORDER BY ${order} LIMIT ${q.limit} OFFSET ${q.offset}`,
+    );
     const total = await db.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM leases l WHERE ${where}`);
     return { items: rows.rows.map(toLease), total: total.rows[0].n };
   }
@@ -146,7 +156,13 @@ export function createLeasesService(db: Database, hooks: { onLeasesChanged?: (id
     const before = await requireOwner(user, id);
     await db.transaction(async (tx) => {
       await tx.execute(sql`DELETE FROM leases WHERE id = ${id}::uuid`);
-      await recordAudit(tx, { actorId: user.id, action: 'lease.delete', subjectType: 'lease', subjectId: id, before: { leaseId: before.leaseId, status: before.status } });
+      await recordAudit(tx, {
+        actorId: user.id,
+        action: 'lease.delete',
+        subjectType: 'lease',
+        subjectId: id,
+        before: { leaseId: before.leaseId, status: before.status },
+      });
     });
   }
 

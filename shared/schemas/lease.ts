@@ -4,7 +4,16 @@ import { z } from 'zod';
 export const leaseStatusSchema = z.enum(['held', 'candidate'], { error: 'status must be "held" or "candidate"' });
 export type LeaseStatus = z.infer<typeof leaseStatusSchema>;
 
-export const LEASE_SORT_FIELDS = ['leaseId', 'holder', 'species', 'status', 'areaM2', 'createdAt', 'worstRating', 'expectedDaysPerYear'] as const;
+export const LEASE_SORT_FIELDS = [
+  'leaseId',
+  'holder',
+  'species',
+  'status',
+  'areaM2',
+  'createdAt',
+  'worstRating',
+  'expectedDaysPerYear',
+] as const;
 
 export const leaseListQuerySchema = z.strictObject({
   q: z.string().trim().max(120, { error: 'q must be at most 120 characters' }).optional().describe('Search in lease id and holder'),
@@ -13,12 +22,21 @@ export const leaseListQuerySchema = z.strictObject({
   ownerId: z.string().max(64).optional().describe('Only leases of this owner (advisers and regulators)'),
   sort: z.enum(LEASE_SORT_FIELDS, { error: `sort must be one of ${LEASE_SORT_FIELDS.join(', ')}` }).default('leaseId'),
   order: z.enum(['asc', 'desc'], { error: 'order must be asc or desc' }).default('asc'),
-  limit: z.coerce.number().int().min(1, { error: 'limit must be between 1 and 5000' }).max(5000, { error: 'limit must be between 1 and 5000' }).default(100),
+  limit: z.coerce
+    .number()
+    .int()
+    .min(1, { error: 'limit must be between 1 and 5000' })
+    .max(5000, { error: 'limit must be between 1 and 5000' })
+    .default(100),
   offset: z.coerce.number().int().min(0, { error: 'offset must be 0 or more' }).default(0),
   withGeometry: z
     .enum(['true', 'false'], { error: 'withGeometry must be true or false' })
     .default('true')
     .transform((v) => v === 'true'),
+  ratingsRiverId: z
+    .uuid({ error: 'ratingsRiverId must be a river id (UUID)' })
+    .optional()
+    .describe("Add each lease's rating at every scenario of this river (scenarioRatings)"),
 });
 export type LeaseListQuery = z.infer<typeof leaseListQuerySchema>;
 
@@ -34,19 +52,31 @@ export const leaseSchema = z.object({
   areaM2: z.number().describe('Area on the WGS84 ellipsoid (m²)'),
   onLand: z.boolean().describe('True when the lease lies wholly on land of a known coast'),
   importId: z.string().nullable(),
-  worstRating: z.enum(['low', 'moderate', 'high', 'severe']).nullable().describe('Worst rating over every scenario of every river that screens the lease; null before screening'),
+  worstRating: z
+    .enum(['low', 'moderate', 'high', 'severe'])
+    .nullable()
+    .describe('Worst rating over every scenario of every river that screens the lease; null before screening'),
   expectedDaysPerYear: z.number().nullable().describe('Expected days a year below the species salinity tolerance (largest over rivers)'),
   probabilityAnyExposure: z.number().nullable().describe('Annual chance of any days below tolerance (largest over rivers)'),
   createdAt: z.string(),
   updatedAt: z.string(),
   geometry: z.unknown().optional().describe('GeoJSON MultiPolygon in EPSG:4326'),
+  scenarioRatings: z
+    .record(z.string(), z.enum(['low', 'moderate', 'high', 'severe']))
+    .optional()
+    .describe('With ratingsRiverId: the rating at each screened scenario of that river, by scenario id'),
 });
 export type Lease = z.infer<typeof leaseSchema>;
 
 export const leaseListSchema = z.object({ items: z.array(leaseSchema), total: z.number() });
 
 export const leaseUpdateSchema = z.strictObject({
-  leaseId: z.string().trim().min(1, { error: 'leaseId cannot be empty' }).max(80, { error: 'leaseId must be at most 80 characters' }).optional(),
+  leaseId: z
+    .string()
+    .trim()
+    .min(1, { error: 'leaseId cannot be empty' })
+    .max(80, { error: 'leaseId must be at most 80 characters' })
+    .optional(),
   holder: z.string().trim().max(160, { error: 'holder must be at most 160 characters' }).nullable().optional(),
   species: z.string().trim().max(80, { error: 'species must be at most 80 characters' }).nullable().optional(),
   status: leaseStatusSchema.optional(),

@@ -253,6 +253,19 @@ describe('screening the demo region', () => {
     expect(res.body.items[0].expectedDaysPerYear).toBeGreaterThanOrEqual(0);
   });
 
+  it("adds each lease's rating at every scenario of a chosen river to the leases list", async () => {
+    const list = (await grower.get(`/api/v1/leases?withGeometry=false&ratingsRiverId=${amberlinId}&limit=5`).expect(200)).body.items;
+    const lease = list[0];
+    const screened = (await grower.get(`/api/v1/screenings?riverId=${amberlinId}&leaseId=${lease.id}`).expect(200)).body.items;
+    expect(Object.keys(lease.scenarioRatings).length).toBe(screened.length);
+    for (const r of screened) expect(lease.scenarioRatings[r.scenarioId]).toBe(r.rating);
+    // Without the parameter the field is absent; a malformed river id is refused with the field named.
+    const plain = (await grower.get('/api/v1/leases?withGeometry=false&limit=1').expect(200)).body.items[0];
+    expect(plain.scenarioRatings).toBeUndefined();
+    const bad = await grower.get('/api/v1/leases?ratingsRiverId=amberlin').expect(400);
+    expect(JSON.stringify(bad.body)).toContain('ratingsRiverId');
+  });
+
   it('annualises exposure across the flood-frequency scenarios', async () => {
     const res = await grower.get('/api/v1/screenings/annual').expect(200);
     expect(res.body.items.length).toBeGreaterThan(0);

@@ -10,6 +10,8 @@ export interface LeaseListParams {
   order: 'asc' | 'desc';
   limit: number;
   offset: number;
+  /** Add each lease's rating at every scenario of this river. */
+  ratingsRiverId?: string;
 }
 
 export const leaseKeys = {
@@ -18,9 +20,16 @@ export const leaseKeys = {
     queryOptions({
       queryKey: [...leaseKeys.all, 'list', p] as const,
       queryFn: () => {
-        const search = new URLSearchParams({ sort: p.sort, order: p.order, limit: String(p.limit), offset: String(p.offset), withGeometry: 'false' });
+        const search = new URLSearchParams({
+          sort: p.sort,
+          order: p.order,
+          limit: String(p.limit),
+          offset: String(p.offset),
+          withGeometry: 'false',
+        });
         if (p.q) search.set('q', p.q);
         if (p.status) search.set('status', p.status);
+        if (p.ratingsRiverId) search.set('ratingsRiverId', p.ratingsRiverId);
         return api<{ items: Lease[]; total: number }>(`/leases?${search}`);
       },
       placeholderData: keepPreviousData,

@@ -11,7 +11,7 @@ import {
   tableFeatures,
   useTable,
 } from '@tanstack/react-table';
-import { useDeferredValue, useId, useState } from 'react';
+import { useDeferredValue, useId, useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { Lease } from '#shared/schemas/lease';
 import { Button } from '../../../components/ui/button';
@@ -19,6 +19,9 @@ import { RatingBadge } from '../../../components/ui/rating-badge';
 import { Notice } from '../../../components/ui/notice';
 import { Empty, LoadError, Loading } from '../../../components/ui/states';
 import type { ShareResult } from '#shared/schemas/sharing';
+import type { Scenario } from '#shared/schemas/river';
+import { exposureKeys } from '../../../lib/exposure-api';
+import { returnPeriodLabel } from '../../../lib/format';
 import { leaseKeys, updateLease } from '../api/leases-api';
 import { ShareLeasesForm } from './share-leases-form';
 
@@ -26,7 +29,7 @@ const features = tableFeatures({ rowSortingFeature, rowPaginationFeature, column
 const helper = createColumnHelper<typeof features, Lease>();
 const emptyRows: Lease[] = [];
 
-const columns = helper.columns([
+const baseColumns = helper.columns([
   helper.accessor('leaseId', {
     id: 'leaseId',
     header: 'Lease id',
@@ -51,7 +54,8 @@ const columns = helper.columns([
   helper.accessor('worstRating', {
     id: 'worstRating',
     header: 'Worst rating',
-    cell: (c) => (c.getValue() ? <RatingBadge rating={c.getValue()} size="sm" /> : <span className="text-shell-700">Not screened yet</span>),
+    cell: (c) =>
+      c.getValue() ? <RatingBadge rating={c.getValue()} size="sm" /> : <span className="text-shell-700">Not screened yet</span>,
   }),
   helper.accessor('expectedDaysPerYear', {
     id: 'expectedDaysPerYear',
@@ -66,6 +70,11 @@ const columns = helper.columns([
   helper.accessor('ownerName', { id: 'ownerName', header: 'Account', enableSorting: false, cell: (c) => c.getValue() ?? '—' }),
 ]);
 
+function scenarioLabel(columnId: string, scenarios: Scenario[]): string {
+  const sc = scenarios.find((s) => `scenario:${s.id}` === columnId);
+  return sc ? `Rating, ${sc.name}` : columnId;
+}
+
 const COLUMN_LABELS: Record<string, string> = {
   leaseId: 'Lease id',
   holder: 'Holder',
@@ -76,6 +85,20 @@ const COLUMN_LABELS: Record<string, string> = {
   expectedDaysPerYear: 'Days a year below tolerance',
   ownerName: 'Account',
 };
+
+/** One column per flood scenario of the chosen river: the lease's rating at that flood. */
+function scenarioColumns(scenarios: Scenario[]) {
+  return scenarios.map((sc) =>
+    helper.display({
+      id: `scenario:${sc.id}`,
+      header: sc.kind === 'aep' && sc.aep ? returnPeriodLabel(sc.aep) : sc.name,
+      cell: (c) => {
+        const rating = c.row.original.scenarioRatings?.[sc.id];
+        return rating ? <RatingBadge rating={rating} size="sm" /> : <span className="text-shell-700">—</span>;
+      },
+    }),
+  );
+}
 
 /** Leases you may see, sorted, filtered and paged on the server so thousands of rows stay quick. */
 export function LeasesTable({ canEdit }: { canEdit: boolean }) {
@@ -90,6 +113,20 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
   const q = useDeferredValue(search);
   const searchId = useId();
   const statusId = useId();
+  const riverSelectId = useId();
+  const rivers = useQuery(exposureKeys.rivers());
+  const [riverChoice, setRiverChoice] = useState<string>();
+  const ratingsRiverId = riverChoice ?? rivers.data?.items.find((r) => r.hasFlowRecord)?.id ?? '';
+  const scenarios = useQuery({ ...exposureKeys.scenarios(ratingsRiverId), enabled: Boolean(ratingsRiverId) });
+  // Flood-frequency scenarios from the most frequent to the rarest, then seasonal and typed ones.
+  const scenarioList = useMemo(
+    () =>
+      [...(scenarios.data?.items ?? [])].sort(
+        (a, b) => (a.kind === 'aep' ? 0 : 1) - (b.kind === 'aep' ? 0 : 1) || (b.aep ?? 0) - (a.aep ?? 0) || a.discharge - b.discharge,
+      ),
+    [scenarios.data],
+  );
+  const columns = useMemo(() => [...baseColumns, ...scenarioColumns(scenarioList)], [scenarioList]);
 
   const params = {
     q: q || undefined,
@@ -98,6 +135,7 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
     order: sorting[0]?.desc ? ('desc' as const) : ('asc' as const),
     limit: pagination.pageSize,
     offset: pagination.pageIndex * pagination.pageSize,
+    ratingsRiverId: ratingsRiverId || undefined,
   };
   const result = useQuery(leaseKeys.list(params));
 
@@ -166,21 +204,48 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
             <option value="candidate">Candidate</option>
           </select>
         </div>
+        {(rivers.data?.items.length ?? 0) > 0 && (
+          <div className="flex flex-col gap-1">
+            <label htmlFor={riverSelectId} className="text-sm font-semibold">
+              Ratings per flood of
+            </label>
+            <select
+              id={riverSelectId}
+              value={ratingsRiverId}
+              onChange={(e) => setRiverChoice(e.target.value)}
+              className="rounded-md border border-shell-300 bg-white px-3 py-2"
+            >
+              {rivers.data?.items.map((r) => (
+                <option key={r.id} value={r.id}>
+                  {r.name}
+                </option>
+              ))}
+            </select>
+          </div>
+        )}
         <details className="relative">
           <summary className="cursor-pointer rounded-md border border-shell-300 bg-white px-3 py-2 text-sm">Columns</summary>
           <div className="absolute z-10 mt-1 space-y-1 rounded-md border border-shell-300 bg-white p-3 shadow">
             {table.getAllLeafColumns().map((col) => (
               <label key={col.id} className="flex items-center gap-2 text-sm">
                 <input type="checkbox" checked={col.getIsVisible()} onChange={col.getToggleVisibilityHandler()} />
-                {COLUMN_LABELS[col.id] ?? col.id}
+                {COLUMN_LABELS[col.id] ?? scenarioLabel(col.id, scenarioList)}
               </label>
             ))}
           </div>
         </details>
-        <a className="rounded-md border border-deep-300 bg-white px-3 py-2 text-sm font-semibold text-deep-700" href="/api/v1/leases/export?format=csv" download>
+        <a
+          className="rounded-md border border-deep-300 bg-white px-3 py-2 text-sm font-semibold text-deep-700"
+          href="/api/v1/leases/export?format=csv"
+          download
+        >
           Export CSV
         </a>
-        <a className="rounded-md border border-deep-300 bg-white px-3 py-2 text-sm font-semibold text-deep-700" href="/api/v1/leases/export?format=geojson" download>
+        <a
+          className="rounded-md border border-deep-300 bg-white px-3 py-2 text-sm font-semibold text-deep-700"
+          href="/api/v1/leases/export?format=geojson"
+          download
+        >
           Export GeoJSON
         </a>
       </div>
@@ -206,8 +271,9 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
       )}
       {lastShare && (
         <Notice tone="done" title="Shared">
-          {lastShare.shared} {lastShare.shared === 1 ? 'lease is' : 'leases are'} now shared with {lastShare.grantee.name ?? lastShare.grantee.email} (
-          {lastShare.grantee.email}). They see {lastShare.shared === 1 ? 'it' : 'them'} in their leases table and can write notes.
+          {lastShare.shared} {lastShare.shared === 1 ? 'lease is' : 'leases are'} now shared with{' '}
+          {lastShare.grantee.name ?? lastShare.grantee.email} ({lastShare.grantee.email}). They see {lastShare.shared === 1 ? 'it' : 'them'}{' '}
+          in their leases table and can write notes.
         </Notice>
       )}
       {bulkStatus.isError && <Notice tone="problem">{(bulkStatus.error as Error).message}</Notice>}
@@ -218,7 +284,9 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
         <LoadError error={result.error} retry={() => result.refetch()} />
       ) : result.data.total === 0 ? (
         <Empty title={q || status ? 'No lease matches these filters' : 'No leases yet'}>
-          {q || status ? 'Clear the search or the status filter.' : 'Upload a zipped shapefile or a GeoJSON file of your lease boundaries to start.'}
+          {q || status
+            ? 'Clear the search or the status filter.'
+            : 'Upload a zipped shapefile or a GeoJSON file of your lease boundaries to start.'}
         </Empty>
       ) : (
         <>
@@ -240,9 +308,17 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
                     {group.headers.map((header) => {
                       const sorted = header.column.getIsSorted();
                       return (
-                        <th key={header.id} className="p-2" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
+                        <th
+                          key={header.id}
+                          className="p-2"
+                          aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}
+                        >
                           {header.column.getCanSort() ? (
-                            <button type="button" className="flex items-center gap-1 font-semibold" onClick={header.column.getToggleSortingHandler()}>
+                            <button
+                              type="button"
+                              className="flex items-center gap-1 font-semibold"
+                              onClick={header.column.getToggleSortingHandler()}
+                            >
                               <table.FlexRender header={header} />
                               <span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
                             </button>
@@ -260,7 +336,12 @@ export function LeasesTable({ canEdit }: { canEdit: boolean }) {
                   <tr key={row.id} className="border-b border-shell-100 hover:bg-sand-50">
                     {canEdit && (
                       <td className="p-2">
-                        <input type="checkbox" aria-label={`Select ${row.original.leaseId}`} checked={row.getIsSelected()} onChange={row.getToggleSelectedHandler()} />
+                        <input
+                          type="checkbox"
+                          aria-label={`Select ${row.original.leaseId}`}
+                          checked={row.getIsSelected()}
+                          onChange={row.getToggleSelectedHandler()}
+                        />
                       </td>
                     )}
                     {row.getVisibleCells().map((cell) => (

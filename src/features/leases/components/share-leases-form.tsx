@@ -43,7 +43,11 @@ export function ShareLeasesForm({ leaseIds, onShared }: { leaseIds: string[]; on
           {share.isPending ? 'Sharing…' : `Share ${n} ${n === 1 ? 'lease' : 'leases'}`}
         </Button>
       </form>
-      {share.isPending && <p role="status">Sharing {n} {n === 1 ? 'lease' : 'leases'}…</p>}
+      {share.isPending && (
+        <p role="status">
+          Sharing {n} {n === 1 ? 'lease' : 'leases'}…
+        </p>
+      )}
       {share.isError && (
         <Notice tone="problem" title="Nothing was shared">
           {(share.error as Error).message}
