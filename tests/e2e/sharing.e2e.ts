@@ -107,6 +107,22 @@ describe('an adviser sees a client’s lease only after the grower shares it', (
       await notes.getByText(NOTE).waitFor();
       expect(await notes.locator('li').first().textContent()).toMatch(/Adviser/);
       await screenshot(page, 'sharing-5-grower-reads-note');
+
+      // 5. The grower stops sharing FB-004 with the adviser from the lease page.
+      const people = page.getByRole('list', { name: 'People who can see FB-004' });
+      await people.getByText('adviser@brackline.test', { exact: false }).waitFor();
+      await people.getByRole('button', { name: /Stop sharing FB-004 with/ }).click();
+      await page.getByText('Nobody: only you.', { exact: false }).waitFor();
+      expect(errors).toEqual([]);
+      await page.close();
+    }
+
+    // 6. The adviser no longer finds FB-004.
+    {
+      const { page, errors } = await signInAs('adviser@brackline.test');
+      await page.getByRole('heading', { name: 'Overview' }).waitFor();
+      const res = await page.request.get(`${baseUrl}/api/v1/leases?q=FB-004&withGeometry=false`);
+      expect((await res.json()).total).toBe(0);
       expect(errors).toEqual([]);
       await page.close();
     }

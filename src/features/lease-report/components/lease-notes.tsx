@@ -18,7 +18,10 @@ const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyl
 export function LeaseNotes({ leaseId, canWrite }: { leaseId: string; canWrite: boolean }) {
   const queryClient = useQueryClient();
   const notes = useQuery(leaseNoteKeys.list(leaseId));
-  const form = useForm<NoteForm, unknown, z.output<typeof noteCreateSchema>>({ resolver: zodResolver(noteCreateSchema), defaultValues: { body: '' } });
+  const form = useForm<NoteForm, unknown, z.output<typeof noteCreateSchema>>({
+    resolver: zodResolver(noteCreateSchema),
+    defaultValues: { body: '' },
+  });
   const add = useMutation({
     mutationFn: (v: z.output<typeof noteCreateSchema>) => addLeaseNote(leaseId, v),
     onSuccess: () => {

@@ -16,6 +16,7 @@ import { orderScenarios, speciesBandId, useLeaseReport } from '../api/use-lease-
 import { useMe } from '../../account/api/get-me';
 import { ExposureTable } from './exposure-table';
 import { LeaseNotes } from './lease-notes';
+import { LeaseShares } from './lease-shares';
 import { SalinityChart } from './salinity-chart';
 
 /** The worst-rated scenario, the most frequent first among equals: the one a grower meets soonest. */
@@ -334,6 +335,7 @@ export function LeaseReportPage() {
         </>
       )}
 
+      {l.ownerId === me.data?.id && <LeaseShares leaseId={l.id} leaseCode={l.leaseId} />}
       <LeaseNotes leaseId={l.id} canWrite={l.ownerId === me.data?.id || me.data?.role === 'adviser'} />
 
       <Cautions />
