@@ -33,7 +33,7 @@ describe('a grower reads a lease report and the exposure map', () => {
     expect(reasons.join(' ')).toMatch(/salinity|indicator/i);
     expect(reasons.join(' ')).not.toMatch(/\bsafe\b/i);
     expect(await page.getByRole('complementary', { name: 'Cautions' }).first().isVisible()).toBe(true);
-    await page.waitForSelector('[role="img"][data-drawn]');
+    await page.waitForSelector('[data-map][data-drawn]');
     await screenshot(page, 'lease-report');
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download PDF' }).click()]);
@@ -54,7 +54,7 @@ describe('a grower reads a lease report and the exposure map', () => {
     const errors = watchErrors(page);
     await page.goto(`${baseUrl}/map`);
     await page.getByRole('heading', { name: 'Exposure map' }).waitFor();
-    const map = page.locator('[role="img"][data-drawn]');
+    const map = page.locator('[data-map][data-drawn]');
     await map.waitFor();
     const before = await map.getAttribute('data-drawn');
     const flowBefore = await page.getByTestId('flow-value').textContent();
@@ -65,7 +65,7 @@ describe('a grower reads a lease report and the exposure map', () => {
     await slider.focus();
     await page.keyboard.press('Home');
     await page.waitForFunction((prev) => {
-      const el = document.querySelector('[role="img"][data-drawn]');
+      const el = document.querySelector('[data-map][data-drawn]');
       return el && el.getAttribute('data-drawn') !== prev;
     }, before);
     expect(await page.getByTestId('flow-value').textContent()).not.toBe(flowBefore);
@@ -87,7 +87,7 @@ describe('a grower reads a lease report and the exposure map', () => {
     await page.getByRole('heading', { name: 'Overview' }).waitFor();
     await page.goto(`${baseUrl}/map?leaseTiles=on`);
     await page.getByRole('heading', { name: 'Exposure map' }).waitFor();
-    await page.locator('[role="img"][data-drawn]').waitFor();
+    await page.locator('[data-map][data-drawn]').waitFor();
     await page.waitForFunction(() => performance.getEntriesByType('resource').some((e) => e.name.includes('/api/v1/tiles/leases/')));
     await page.waitForTimeout(500);
     expect(tiles.length, JSON.stringify(tiles)).toBeGreaterThan(0);

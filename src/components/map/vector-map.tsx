@@ -223,7 +223,10 @@ export default function VectorMap({
     <figure className="m-0">
       <div
         ref={target}
-        role="img"
+        // A region, not an image: it holds the zoom buttons, which stay reachable by keyboard.
+        role="region"
+        aria-roledescription="map"
+        data-map=""
         aria-label={ariaLabel}
         style={{ height }}
         className="w-full rounded-md border border-shell-300 bg-deep-50"

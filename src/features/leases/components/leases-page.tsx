@@ -25,7 +25,8 @@ export function LeasesPage({ renderUpload }: { renderUpload: (onDone: () => void
       />
       {uploading && renderUpload(() => undefined)}
       <Cautions compact />
-      <LeasesTable canEdit={canEdit} />
+      {/* A grower's own table needs no account column; advisers and regulators see whose lease it is. */}
+      <LeasesTable canEdit={canEdit} showAccount={me.data?.role !== 'grower'} />
     </div>
   );
 }

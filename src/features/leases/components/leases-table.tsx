@@ -21,7 +21,7 @@ import { Empty, LoadError, Loading } from '../../../components/ui/states';
 import type { ShareResult } from '#shared/schemas/sharing';
 import type { Scenario } from '#shared/schemas/river';
 import { exposureKeys } from '../../../lib/exposure-api';
-import { returnPeriodLabel } from '../../../lib/format';
+import { returnPeriodLabel, speciesName } from '../../../lib/format';
 import { leaseKeys, updateLease } from '../api/leases-api';
 import { ShareLeasesForm } from './share-leases-form';
 
@@ -40,7 +40,7 @@ const baseColumns = helper.columns([
     ),
   }),
   helper.accessor('holder', { id: 'holder', header: 'Holder', cell: (c) => c.getValue() ?? '—' }),
-  helper.accessor('species', { id: 'species', header: 'Species', cell: (c) => c.getValue() ?? '—' }),
+  helper.accessor('species', { id: 'species', header: 'Species', cell: (c) => (c.getValue() ? speciesName(c.getValue()) : '—') }),
   helper.accessor('status', {
     id: 'status',
     header: 'Status',
@@ -101,14 +101,14 @@ function scenarioColumns(scenarios: Scenario[]) {
 }
 
 /** Leases you may see, sorted, filtered and paged on the server so thousands of rows stay quick. */
-export function LeasesTable({ canEdit }: { canEdit: boolean }) {
+export function LeasesTable({ canEdit, showAccount = true }: { canEdit: boolean; showAccount?: boolean }) {
   const queryClient = useQueryClient();
   const [sorting, setSorting] = useState<SortingState>([{ id: 'leaseId', desc: false }]);
   const [pagination, setPagination] = useState<PaginationState>({ pageIndex: 0, pageSize: 50 });
   const [search, setSearch] = useState('');
   const [status, setStatus] = useState<'' | 'held' | 'candidate'>('');
   const [rowSelection, setRowSelection] = useState<RowSelectionState>({});
-  const [columnVisibility, setColumnVisibility] = useState<Record<string, boolean>>({});
+  const [columnVisibility, setColumnVisibility] = useState<Record<string, boolean>>(showAccount ? {} : { ownerName: false });
   const [lastShare, setLastShare] = useState<ShareResult | null>(null);
   const q = useDeferredValue(search);
   const searchId = useId();
