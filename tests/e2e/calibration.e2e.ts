@@ -85,6 +85,8 @@ describe('monitoring and calibration', () => {
     const applied = await amberlinSettings();
     expect(applied.mixingLength).not.toBe(original.mixingLength);
     expect(applied.nearFieldFreshwaterFraction).not.toBe(original.nearFieldFreshwaterFraction);
+    // The comparison above is redrawn with the applied values.
+    await page.getByText(/Settings now: mixing length (?!25\.0 km)/).waitFor();
     const audit = await pool.query(`SELECT count(*)::int AS n FROM audit_entries WHERE action = 'calibration.apply'`);
     expect(audit.rows[0].n).toBeGreaterThan(0);
     await screenshot(page, 'monitoring-5-applied');

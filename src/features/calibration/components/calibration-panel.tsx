@@ -14,6 +14,20 @@ const VALUE_ROWS: { key: keyof Calibration['fitted']; label: string; show: (v: n
   { key: 'nearFieldFreshwaterFraction', label: 'River water leaving the mouth region', show: (v) => `${fmtNumber(v * 100, 0)} %` },
 ];
 
+/** River settings in plain words, with units. */
+function describeSettings(values: Record<string, number>): string {
+  const words: Record<string, (v: number) => string> = {
+    mixingLength: (v) => `mixing length ${fmtNumber(v / 1000, 1)} km`,
+    t90DayHours: (v) => `T90 by day ${fmtNumber(v, 1)} h`,
+    t90NightHours: (v) => `T90 by night ${fmtNumber(v, 1)} h`,
+    alongshoreShare: (v) => `share carried alongshore ${fmtNumber(v, 2)}`,
+    nearFieldFreshwaterFraction: (v) => `river water leaving the mouth region ${fmtNumber(v * 100, 0)} %`,
+  };
+  return Object.entries(values)
+    .map(([k, v]) => (words[k] ? words[k](v) : `${k} ${v}`))
+    .join(', ');
+}
+
 const STATUS_LABEL: Record<Calibration['status'], string> = {
   fitted: 'Fitted, not applied',
   applied: 'Applied to the river',
@@ -40,7 +54,7 @@ export function CalibrationResult({ calibration, riverName }: { calibration: Cal
           <thead>
             <tr className="border-b border-sand-200 text-left">
               <th className="p-2">Setting</th>
-              <th className="p-2">Before (river now)</th>
+              <th className="p-2">Before the fit</th>
               <th className="p-2">Fitted</th>
             </tr>
           </thead>
@@ -63,11 +77,8 @@ export function CalibrationResult({ calibration, riverName }: { calibration: Cal
         </table>
         <div className="text-sm">
           <p>
-            Applying writes{' '}
-            {Object.entries(c.settingsPatch)
-              .map(([k, v]) => `${k} = ${fmtNumber(v, v < 10 ? 3 : 0)}`)
-              .join(', ')}{' '}
-            into {riverName}’s settings and screens its leases again. Day and night T90 keep their ratio.
+            Applying writes {describeSettings(c.settingsPatch)} into {riverName}’s settings and screens its leases again. Day and night T90
+            keep their ratio.
           </p>
           <p className="mt-1 text-shell-700">
             Based on {c.samples} samples over {c.years} years, at flows {fmtNumber(c.flowRange.min, 0)}–{fmtNumber(c.flowRange.max, 0)}{' '}
@@ -110,15 +121,7 @@ export function CalibrationResult({ calibration, riverName }: { calibration: Cal
           {rollback.error.message}
         </Notice>
       )}
-      {c.status === 'applied' && c.previous && (
-        <p className="text-sm text-shell-700">
-          Replaced:{' '}
-          {Object.entries(c.previous)
-            .map(([k, v]) => `${k} = ${fmtNumber(v, v < 10 ? 3 : 0)}`)
-            .join(', ')}
-          .
-        </p>
-      )}
+      {c.status === 'applied' && c.previous && <p className="text-sm text-shell-700">Replaced: {describeSettings(c.previous)}.</p>}
     </article>
   );
 }

@@ -76,7 +76,7 @@ export function SalinityScatter({ points }: { points: ComparisonPoint[] }) {
           ifOverflow="hidden"
         />
         <Tooltip formatter={tooltipFormatter} />
-        <Scatter name="Sample" data={data} fill={MEASURED} fillOpacity={0.7} />
+        <Scatter isAnimationActive={false} name="Sample" data={data} fill={MEASURED} fillOpacity={0.7} />
       </ScatterChart>
     </ChartFrame>
   );
@@ -129,8 +129,8 @@ export function IndicatorScatter({ points, unit }: { points: ComparisonPoint[]; 
         />
         <Tooltip formatter={tooltipFormatter} />
         <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 11 }} />
-        <Scatter name="Measured count" data={measured} fill={MEASURED} fillOpacity={0.7} />
-        <Scatter name="Detection limit (< or >)" data={limits} fill={LIMIT} shape="triangle" />
+        <Scatter isAnimationActive={false} name="Measured count" data={measured} fill={MEASURED} fillOpacity={0.7} />
+        <Scatter isAnimationActive={false} name="Detection limit (< or >)" data={limits} fill={LIMIT} shape="triangle" />
       </ScatterChart>
     </ChartFrame>
   );
@@ -145,6 +145,10 @@ export function ResidualChart({ points, against }: { points: ComparisonPoint[]; 
   const indicator = points
     .filter((p) => p.indicatorResidual !== null)
     .map((p) => ({ x: xOf(p), y: p.indicatorResidual as number, station: p.stationCode, date: p.sampledAt.slice(0, 10) }));
+  const flows = points.map((p) => p.flow);
+  const flowTicks = [1, 2, 5, 10, 20, 50, 100, 200, 500, 1000, 2000, 5000, 10_000].filter(
+    (t) => t >= Math.min(...flows) * 0.8 && t <= Math.max(...flows) * 1.25,
+  );
   const xLabel = against === 'flow' ? 'River flow on the day (m³/s, log scale)' : 'Distance from the mouth (km)';
   return (
     <ChartFrame label={`Residuals against ${against === 'flow' ? 'river flow' : 'distance from the mouth'}`}>
@@ -155,7 +159,8 @@ export function ResidualChart({ points, against }: { points: ComparisonPoint[]; 
           dataKey="x"
           name={against === 'flow' ? 'Flow' : 'Distance'}
           scale={against === 'flow' ? 'log' : 'auto'}
-          domain={['auto', 'auto']}
+          domain={against === 'flow' ? [Math.min(...flows) * 0.8, Math.max(...flows) * 1.25] : [0, 'auto']}
+          {...(against === 'flow' ? { ticks: flowTicks, allowDataOverflow: true } : {})}
           fontSize={11}
           label={{ value: xLabel, position: 'insideBottom', offset: -16, ...AXIS }}
         />
@@ -170,8 +175,8 @@ export function ResidualChart({ points, against }: { points: ComparisonPoint[]; 
         <ReferenceLine y={0} stroke="#8a8b86" />
         <Tooltip formatter={tooltipFormatter} />
         <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 11 }} />
-        <Scatter name="Salinity (psu)" data={salinity} fill={MEASURED} fillOpacity={0.6} />
-        <Scatter name="Indicator (log10)" data={indicator} fill={LIMIT} fillOpacity={0.7} shape="diamond" />
+        <Scatter isAnimationActive={false} name="Salinity (psu)" data={salinity} fill={MEASURED} fillOpacity={0.6} />
+        <Scatter isAnimationActive={false} name="Indicator (log10)" data={indicator} fill={LIMIT} fillOpacity={0.7} shape="diamond" />
       </ScatterChart>
     </ChartFrame>
   );
