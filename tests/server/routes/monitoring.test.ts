@@ -6,6 +6,8 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
+import { zip as shpZip } from '@mapbox/shp-write';
+import proj4 from 'proj4';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { type CalibrationRiverSettings, effectiveT90Hours, predictSample } from '../../../shared/calibration/river-calibration';
@@ -93,6 +95,58 @@ describe('stations and samples', () => {
     // is 111.32 km × cos 41.2° ≈ 83.7 km, is about 38.50° W (c, derived; the WGS 84 ellipsoid's 111.32 km per degree at the equator).
     expect(g10.longitude).toBeCloseTo(-38.5, 1);
     expect(g10.latitude).toBeCloseTo(41.21, 1);
+  });
+
+  it('stations as a zipped shapefile in a projected CRS are reprojected with its .prj; non-points are refused by feature', async () => {
+    const utm24 = JSON.parse(readFileSync(path.resolve(import.meta.dirname, '../../../node_modules/epsg-index/s/32624.json'), 'utf8')) as {
+      wkt: string;
+      proj4: string;
+    };
+    const toUtm = proj4('EPSG:4326', utm24.proj4);
+    const points = [
+      { code: 'Z-1', lonlat: [-38.55, 41.2] },
+      { code: 'Z-2', lonlat: [-38.6, 41.25] },
+    ];
+    const collection = {
+      type: 'FeatureCollection',
+      features: points.map((p) => ({
+        type: 'Feature',
+        properties: { STATION_ID: p.code, NAME: `Buoy ${p.code}` },
+        geometry: { type: 'Point', coordinates: toUtm.forward(p.lonlat) },
+      })),
+    };
+    const bytes = (await shpZip(collection as never, { outputType: 'nodebuffer', prj: utm24.wkt } as never)) as unknown as Buffer;
+    const res = await upload(grower2, '/api/v1/stations', bytes, 'buoys.zip').expect(201);
+    expect(res.body).toMatchObject({ created: 2, format: 'shapefile' });
+    const z1 = res.body.items.find((s: { code: string }) => s.code === 'Z-1');
+    // proj4 forward then inverse through the .prj's WKT returns the point to well under a metre (c).
+    expect(z1.longitude).toBeCloseTo(-38.55, 6);
+    expect(z1.latitude).toBeCloseTo(41.2, 6);
+    expect(z1.name).toBe('Buoy Z-1');
+
+    const polygon = JSON.stringify({
+      type: 'FeatureCollection',
+      features: [
+        { type: 'Feature', properties: { code: 'P-1' }, geometry: { type: 'Point', coordinates: [-38.5, 41.2] } },
+        {
+          type: 'Feature',
+          properties: { code: 'P-2' },
+          geometry: {
+            type: 'Polygon',
+            coordinates: [
+              [
+                [-38.5, 41.2],
+                [-38.4, 41.2],
+                [-38.4, 41.3],
+                [-38.5, 41.2],
+              ],
+            ],
+          },
+        },
+      ],
+    });
+    const refused = await upload(grower2, '/api/v1/stations', polygon, 'mixed.geojson').expect(422);
+    expect(refused.body.error.details.problems).toEqual([{ row: 2, message: 'Feature 2 is a Polygon; stations must be points.' }]);
   });
 
   it('a samples CSV with bad rows reports each with its row number and saves nothing', async () => {
