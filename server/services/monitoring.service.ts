@@ -538,6 +538,7 @@ export function createMonitoringService(deps: { db: Database; onRiverChanged?: (
     return {
       samples: points.length,
       years: new Set(points.map((p) => p.sampledAt.slice(0, 4))).size,
+      stations: new Set(points.map((p) => p.stationCode)).size,
       flowMin: flows.length ? Math.min(...flows) : 0,
       flowMax: flows.length ? Math.max(...flows) : 0,
       censored: points.filter((p) => p.indicatorCensored).length,

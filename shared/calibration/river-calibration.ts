@@ -310,6 +310,8 @@ export interface FitBasis {
   readonly samples: number;
   /** Distinct calendar years sampled. */
   readonly years: number;
+  /** Distinct stations sampled (default: not said). */
+  readonly stations?: number;
   readonly flowMin: number;
   readonly flowMax: number;
   /** Censored indicator values. */
@@ -323,6 +325,8 @@ export interface FitBasis {
 export const MIN_FIT_SAMPLES = 30;
 /** Fewer distinct years: one season's weather may drive the fit, (c). */
 export const MIN_FIT_YEARS = 2;
+/** Fewer stations than this cannot separate the alongshore thinning (L) from the water leaving the mouth (φ0), (c). */
+export const MIN_FIT_STATIONS = 3;
 /** The sampled flows should span at least this ratio max/min, (c) common practice: a factor of 5 covers low flows to moderate floods. */
 export const MIN_FLOW_RATIO = 5;
 
@@ -354,6 +358,11 @@ export function calibrationCautions(basis: FitBasis): string[] {
     out.push(
       `The samples cover only ${basis.years} year${basis.years === 1 ? '' : 's'}: one season's weather may drive the fit. Add samples from other years.`,
     );
+  if (basis.stations !== undefined && basis.stations < MIN_FIT_STATIONS) {
+    out.push(
+      `The samples come from only ${basis.stations} station${basis.stations === 1 ? '' : 's'}: the fit cannot tell how fast the plume thins along the coast from how much river water leaves the mouth. Add stations at other distances from the mouth.`,
+    );
+  }
   if (basis.flowMin > 0 && basis.flowMax / basis.flowMin < MIN_FLOW_RATIO) {
     out.push(
       `The sampled flows span a narrow range (${f(basis.flowMin)}–${f(basis.flowMax)}, under a factor of ${MIN_FLOW_RATIO}): the fit cannot tell how the plume changes with flow.`,

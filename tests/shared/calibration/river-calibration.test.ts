@@ -100,6 +100,7 @@ describe('river calibration (shared/calibration/river-calibration)', () => {
     const lines = calibrationCautions({
       samples: 12,
       years: 1,
+      stations: 1,
       flowMin: 40,
       flowMax: 90,
       censored: 2,
@@ -116,6 +117,7 @@ describe('river calibration (shared/calibration/river-calibration)', () => {
     expect(lines.join('\n')).toMatch(/Only 12 samples: a fit needs at least 30/);
     expect(lines.join('\n')).toMatch(/cover only 1 year/);
     expect(lines.join('\n')).toMatch(/narrow range/);
+    expect(lines.join('\n')).toMatch(/only 1 station: the fit cannot tell how fast the plume thins/);
     expect(lines.join('\n')).toMatch(
       /1 of the screened floods \(1-in-10-year flood, 300 m³\/s\) lie beyond it: there the fitted values are extrapolated/,
     );
