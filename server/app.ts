@@ -22,6 +22,7 @@ import { registerCalcRoutes } from './routes/calc.routes';
 import { registerCoastRoutes } from './routes/coasts.routes';
 import { registerImportRoutes } from './routes/imports.routes';
 import { registerLeaseRoutes } from './routes/leases.routes';
+import { registerMonitoringRoutes } from './routes/monitoring.routes';
 import { registerRiverRoutes } from './routes/rivers.routes';
 import { registerScreeningRoutes } from './routes/screening.routes';
 import { registerSharingRoutes } from './routes/sharing.routes';
@@ -35,6 +36,7 @@ import { createSweepService } from './services/sweep.service';
 import { createAccountsService } from './services/accounts.service';
 import { createImportsService } from './services/imports.service';
 import { createLeasesService } from './services/leases.service';
+import { createMonitoringService } from './services/monitoring.service';
 import { createSharingService } from './services/sharing.service';
 import { DEFAULT_UPLOAD_LIMITS, type UploadLimits } from '#shared/geometry/upload-limits';
 
@@ -135,6 +137,7 @@ export function createApp(deps: AppDeps): Express {
   registerInboxRoutes(ctx, createInboxService(db));
   registerOverviewRoutes(ctx, db);
   registerScreeningRoutes(ctx, db, rivers, screening, createSweepService({ db, screening }));
+  registerMonitoringRoutes(ctx, createMonitoringService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) }));
 
   const openApi = buildOpenApiDocument(registry);
   router.get('/openapi.json', (_req, res) => {

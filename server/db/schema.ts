@@ -560,6 +560,8 @@ export const samples = pgTable(
     indicatorName: text('indicator_name').notNull().default('E. coli'),
     method: text('method'),
     temperature: doublePrecision('temperature'),
+    // Issue "Monitoring data and calibration": the indicator's unit as reported (e.g. MPN/100 mL, CFU/100 mL).
+    indicatorUnit: text('indicator_unit').notNull().default('per 100 mL'),
   },
   (t) => [uniqueIndex('samples_station_time_idx').on(t.stationId, t.sampledAt)],
 );
@@ -620,4 +622,37 @@ export const inboxMessages = pgTable(
     readAt: timestamp('read_at', { withTimezone: true }),
   },
   (t) => [index('inbox_user_idx').on(t.userId, t.createdAt), uniqueIndex('inbox_user_dedupe_idx').on(t.userId, t.dedupeKey)],
+);
+
+// ---------------------------------------------------------------------------------------------
+// Calibrations of a river's plume against monitoring samples (issue "Monitoring data and calibration").
+// A fit stores the settings it started from and the fitted values; applying copies the fitted
+// values into the river's settings (kept in `previous` for the rollback).
+
+export const calibrations = pgTable(
+  'calibrations',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    riverId: uuid('river_id')
+      .notNull()
+      .references(() => rivers.id, { onDelete: 'cascade' }),
+    createdBy: text('created_by').references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    /** The fit's options (lag, which parameters). */
+    options: jsonb('options').$type<Record<string, unknown>>().notNull(),
+    /** The calibrated settings at fit time (start values). */
+    startValues: jsonb('start_values').$type<Record<string, number>>().notNull(),
+    /** The fitted settings (river units: m, h, fractions). */
+    fittedValues: jsonb('fitted_values').$type<Record<string, number>>().notNull(),
+    /** Statistics before and after, flow range, sample counts, cautions. */
+    result: jsonb('result').$type<Record<string, unknown>>().notNull(),
+    status: text('status', { enum: ['fitted', 'applied', 'rolled-back'] }).notNull().default('fitted'),
+    /** The river's values replaced when applied (restored by the rollback). */
+    previousValues: jsonb('previous_values').$type<Record<string, number>>(),
+    appliedBy: text('applied_by').references(() => users.id),
+    appliedAt: timestamp('applied_at', { withTimezone: true }),
+    rolledBackBy: text('rolled_back_by').references(() => users.id),
+    rolledBackAt: timestamp('rolled_back_at', { withTimezone: true }),
+  },
+  (t) => [index('calibrations_river_idx').on(t.riverId, t.createdAt)],
 );

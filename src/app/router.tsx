@@ -38,6 +38,7 @@ export function createRouter() {
         { path: '/compare', lazy: () => import('../features/compare/components/compare-page').then((m) => ({ Component: m.ComparePage })), errorElement: <RouteError /> },
         { path: '/plume-calculator', lazy: () => import('../features/calculator/components/plume-calculator-page').then((m) => ({ Component: m.PlumeCalculatorPage })), errorElement: <RouteError /> },
         { path: '/inbox', lazy: () => import('../features/inbox/components/inbox-page').then((m) => ({ Component: m.InboxPage })), errorElement: <RouteError /> },
+        { path: '/monitoring', lazy: () => import('../features/calibration/components/monitoring-page').then((m) => ({ Component: m.MonitoringPage })), errorElement: <RouteError /> },
         { path: '/admin/people', lazy: () => import('../features/admin/components/people-page').then((m) => ({ Component: m.PeoplePage })), errorElement: <RouteError /> },
         { path: '/admin/outbox', lazy: () => import('../features/admin/components/outbox-page').then((m) => ({ Component: m.OutboxPage })), errorElement: <RouteError /> },
         { path: '/admin/audit', lazy: () => import('../features/admin/components/audit-page').then((m) => ({ Component: m.AuditPage })), errorElement: <RouteError /> },

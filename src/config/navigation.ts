@@ -16,6 +16,7 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/map', label: 'Exposure map' },
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
+    { to: '/monitoring', label: 'Monitoring' },
   ],
   adviser: [
     { to: '/', label: 'Overview' },
@@ -23,6 +24,7 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/map', label: 'Exposure map' },
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
+    { to: '/monitoring', label: 'Monitoring' },
   ],
   regulator: [
     { to: '/', label: 'Overview' },
@@ -30,6 +32,7 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/map', label: 'Exposure map' },
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
+    { to: '/monitoring', label: 'Monitoring' },
   ],
   admin: [
     { to: '/', label: 'Overview' },
