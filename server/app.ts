@@ -25,6 +25,8 @@ import { registerLeaseRoutes } from './routes/leases.routes';
 import { registerRiverRoutes } from './routes/rivers.routes';
 import { registerScreeningRoutes } from './routes/screening.routes';
 import { registerSharingRoutes } from './routes/sharing.routes';
+import { registerClientRoutes } from './routes/clients.routes';
+import { createClientsService } from './services/clients.service';
 import { createInlineScreeningJobs, type ScreeningJobs } from './jobs/screening-jobs';
 import { createRiversService } from './services/rivers.service';
 import { createScreeningService } from './services/screening.service';
@@ -129,6 +131,7 @@ export function createApp(deps: AppDeps): Express {
   const rivers = createRiversService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) });
   registerRiverRoutes(ctx, rivers, jobs);
   registerCoastRoutes(ctx, db);
+  registerClientRoutes(ctx, createClientsService({ db, mailer, appUrl: env.APP_URL }));
   registerScreeningRoutes(ctx, db, rivers, screening, createSweepService({ db, screening }));
 
   const openApi = buildOpenApiDocument(registry);
