@@ -16,6 +16,8 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/map', label: 'Exposure map' },
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
+    { to: '/rivers', label: 'Rivers' },
+    { to: '/advisers', label: 'Advisers' },
   ],
   adviser: [
     { to: '/', label: 'Overview' },
@@ -23,6 +25,8 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/map', label: 'Exposure map' },
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
+    { to: '/rivers', label: 'Rivers' },
+    { to: '/clients', label: 'Clients' },
   ],
   regulator: [
     { to: '/', label: 'Overview' },
@@ -30,6 +34,7 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/map', label: 'Exposure map' },
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
+    { to: '/rivers', label: 'Rivers' },
   ],
   admin: [
     { to: '/', label: 'Overview' },
