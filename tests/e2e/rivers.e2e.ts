@@ -9,7 +9,7 @@ import path from 'node:path';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/db/seed';
-import { browserForThisFile, screenshot, signInThroughForm, watchErrors } from './browser';
+import { browserForThisFile, SCREENSHOT_DIR, screenshot, signInThroughForm, watchErrors } from './browser';
 
 const baseUrl = inject('baseUrl');
 const browser = browserForThisFile();
@@ -81,8 +81,10 @@ describe('an adviser sets up a river from a gauge record', () => {
     await design.getByRole('rowheader', { name: '1-in-100 years' }).waitFor();
     await design.getByRole('columnheader', { name: 'GEV (L-moments) (design)' }).waitFor();
     await page.getByText('3 rows were left out when the record was saved').waitFor();
-    await page.locator('#floods').scrollIntoViewIfNeeded();
     await screenshot(page, 'rivers-3-record-and-floods');
+    await page.locator('#record').screenshot({ path: `${SCREENSHOT_DIR}/rivers-3a-record.png` });
+    await page.locator('#floods').screenshot({ path: `${SCREENSHOT_DIR}/rivers-3b-floods.png` });
+    await page.locator('#scenarios').screenshot({ path: `${SCREENSHOT_DIR}/rivers-3c-scenarios.png` });
 
     // Scenarios: from the fit and seasonal; a flood duration edited in place.
     const scenarios = page.getByTestId('scenarios-table');
@@ -101,15 +103,15 @@ describe('an adviser sets up a river from a gauge record', () => {
     await panel.getByText('Assumptions these inputs break').waitFor();
     await page.getByTestId('cross-shore-chart').locator('.recharts-surface').first().waitFor();
     await page.getByTestId('alongshore-chart').locator('.recharts-surface').first().waitFor();
-    await page.locator('#plume').scrollIntoViewIfNeeded();
-    await screenshot(page, 'rivers-4-plume-numbers');
+    await page.getByTestId('plume-panel').screenshot({ path: `${SCREENSHOT_DIR}/rivers-4-plume-numbers.png` });
 
     // A changed setting shows new numbers before saving (the engine in the browser)…
     await page.getByLabel('Sea salinity (psu)').fill('30');
     await panel.getByRole('columnheader', { name: 'With your unsaved changes' }).waitFor();
     const previewG = await panel.getByTestId('preview-g').textContent();
     expect(previewG).not.toBe(savedG);
-    await screenshot(page, 'rivers-5-preview');
+    await page.getByTestId('plume-panel').screenshot({ path: `${SCREENSHOT_DIR}/rivers-5-preview.png` });
+    await page.getByRole('form', { name: 'River settings' }).screenshot({ path: `${SCREENSHOT_DIR}/rivers-5b-settings-form.png` });
     // …and the server recomputes on save; the field stops being a default.
     await page.getByRole('button', { name: 'Save settings' }).click();
     // (Saving re-screens the river's leases in the request here; npm start does it in a background job.)
