@@ -105,7 +105,7 @@ export function ClientsPage() {
   const q = useQuery(clientKeys.clients());
   return (
     <div className="space-y-6">
-      <PageHeader title="Clients" question="Which growers have you advise them, and how do the leases they share with you rate?" />
+      <PageHeader title="Clients" question="Which growers have asked you to advise them, and how do the leases they share with you rate?" />
       <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
         <section aria-label="Your clients" className="space-y-3">
           {q.isPending ? (

@@ -7,7 +7,7 @@ import { logPearson3Quantile } from '#shared/hydrology/log-pearson3';
 import { fmtNumber } from '../../../lib/format';
 
 /** Return periods labelled on the probability axis. */
-const TICK_PERIODS = [1.11, 1.5, 2, 5, 10, 25, 50, 100, 200, 500];
+const TICK_PERIODS = [1.01, 1.25, 2, 5, 10, 25, 50, 100, 200, 500];
 
 /**
  * Gumbel reduced variate of an annual exceedance probability, y = −ln(−ln(1 − AEP)): the
@@ -30,7 +30,7 @@ function Tick({ x, y, payload }: { x?: number; y?: number; payload?: { value: nu
   return (
     <g transform={`translate(${x},${y})`}>
       <text y={12} textAnchor="middle" fontSize={11} fill="#22231f">
-        {t < 2 ? fmtNumber(t, 2) : fmtNumber(t, 0)} yr
+        {t < 2 ? t.toFixed(2) : fmtNumber(t, 0)} yr
       </text>
       <text y={25} textAnchor="middle" fontSize={10} fill="#4b4c48">
         {fmtNumber(aep * 100, aep < 0.01 ? 1 : 0)}%
@@ -56,7 +56,7 @@ function bandAt(quantiles: FloodQuantile[], x: number): [number, number] | undef
 export function FloodFrequencyChart({ fit, design, unit = 'm³/s' }: { fit: FloodFrequencyResult; design: DistributionId; unit?: string }) {
   const [logFlow, setLogFlow] = useState(false);
   const data = useMemo(() => {
-    const lo = reducedVariate(0.9);
+    const lo = reducedVariate(0.99);
     const hi = reducedVariate(0.002);
     const out = [];
     for (let i = 0; i <= 80; i++) {
@@ -112,7 +112,7 @@ export function FloodFrequencyChart({ fit, design, unit = 'm³/s' }: { fit: Floo
               formatter={(v, name) => [Array.isArray(v) ? `${fmtNumber(v[0] as number, 0)} – ${fmtNumber(v[1] as number, 0)} ${unit}` : `${fmtNumber(v as number, 0)} ${unit}`, name]}
             />
             <Legend verticalAlign="top" height={28} wrapperStyle={{ fontSize: 12 }} />
-            <Area dataKey="band" name={`${Math.round(fit.confidence.level * 100)}% confidence band (${DISTRIBUTIONS[design].label})`} stroke="none" fill="#7f9fc0" fillOpacity={0.3} isAnimationActive={false} connectNulls={false} />
+            <Area dataKey="band" name={`${Math.round(fit.confidence.level * 100)}% confidence band of the design curve`} stroke="none" fill="#7f9fc0" fillOpacity={0.3} isAnimationActive={false} connectNulls={false} />
             {(Object.keys(DISTRIBUTIONS) as DistributionId[]).map((d) => (
               <Line
                 key={d}

@@ -17,13 +17,20 @@ const REGIME: Record<PlumeResult['regime'], string> = {
   'equatorial-jet': 'Near the equator: radial spread, no coastal current',
 };
 
+const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' };
+/** Scientific notation for very small numbers, e.g. 9.597 × 10⁻⁵. */
+const sci = (v: number, digits: number, unit: string) => {
+  const [m, e] = v.toExponential(digits - 1).split('e');
+  const exp = String(Number(e)).replace(/./g, (c) => SUPERSCRIPT[c] ?? c);
+  return `${m} × 10${exp}${unit ? ` ${unit}` : ''}`;
+};
 const fmt = (v: number | null | undefined, digits: number, unit: string) => (v === undefined || v === null || !Number.isFinite(v) ? '—' : `${v.toLocaleString('en', { maximumSignificantDigits: digits })}${unit ? ` ${unit}` : ''}`);
 
 /** The rows of the numbers table: label, symbol, value and where it comes from. */
 function rows(p: PlumeResult): { key: string; label: string; value: string; source: string }[] {
   return [
     { key: 'g', label: 'Reduced gravity g′', value: fmt(p.reducedGravity, 4, 'm/s²'), source: 'EOS-80 densities of river and sea water' },
-    { key: 'f', label: 'Coriolis parameter f', value: fmt(p.coriolis, 4, '1/s'), source: 'f = 2Ω sin(latitude)' },
+    { key: 'f', label: 'Coriolis parameter f', value: sci(p.coriolis, 4, 's⁻¹'), source: 'f = 2Ω sin(latitude)' },
     { key: 'regime', label: 'Regime', value: REGIME[p.regime], source: 'Yankovsky & Chapman (1997)' },
     { key: 'ys', label: 'Bulge offshore extent y_s', value: fmt(p.bulgeOffshoreExtent / 1000, 3, 'km'), source: 'Yankovsky & Chapman (1997)' },
     { key: 'H0', label: 'Coastal current depth H0', value: fmt(p.depth, 3, 'm'), source: 'Geostrophic transport, zero potential vorticity' },
@@ -40,11 +47,11 @@ function CrossShoreChart({ profiles }: { profiles: PlumeProfiles }) {
       <figcaption className="mb-1 text-sm font-semibold">Across the coastal current, {fmtNumber(profiles.sectionAlongKm, 1)} km downcoast of the mouth</figcaption>
       <div style={{ height: 260 }} data-testid="cross-shore-chart">
         <ResponsiveContainer width="100%" height="100%">
-          <ComposedChart data={profiles.crossShore} margin={{ top: 8, right: 16, bottom: 28, left: 8 }}>
+          <ComposedChart data={profiles.crossShore} margin={{ top: 8, right: 28, bottom: 28, left: 8 }}>
             <CartesianGrid stroke="#e9e9e7" />
-            <XAxis dataKey="offshoreKm" type="number" fontSize={11} tickFormatter={(v: number) => fmtNumber(v, 1)} label={{ value: 'Distance from the coast (km)', position: 'insideBottom', offset: -16, fontSize: 11 }} />
-            <YAxis yAxisId="h" fontSize={11} reversed label={{ value: 'Thickness (m, downward)', angle: -90, position: 'insideLeft', fontSize: 11, dy: 60 }} />
-            <YAxis yAxisId="s" orientation="right" fontSize={11} domain={[0, 'auto']} label={{ value: 'Salinity (psu)', angle: 90, position: 'insideRight', fontSize: 11, dy: -40 }} />
+            <XAxis dataKey="offshoreKm" type="number" domain={[0, 'dataMax']} fontSize={11} tickFormatter={(v: number) => fmtNumber(v, 1)} label={{ value: 'Distance from the coast (km)', position: 'insideBottom', offset: -16, fontSize: 11 }} />
+            <YAxis yAxisId="h" fontSize={11} reversed tickFormatter={(v: number) => v.toLocaleString('en', { maximumSignificantDigits: 2 })} label={{ value: 'Thickness (m, downward)', angle: -90, position: 'insideLeft', fontSize: 11, dy: 60 }} />
+            <YAxis yAxisId="s" orientation="right" width={60} fontSize={11} domain={[0, 'auto']} label={{ value: 'Salinity (psu)', angle: 90, position: 'insideRight', fontSize: 11, dy: -40 }} />
             <Tooltip labelFormatter={(v) => `${fmtNumber(Number(v), 2)} km from the coast`} formatter={(v, name) => [fmtNumber(v as number, 2), name]} />
             <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 12 }} />
             <Line yAxisId="h" dataKey="thickness" name="Fresh layer thickness (m)" stroke="#173d61" strokeWidth={2} dot={false} isAnimationActive={false} />
@@ -63,11 +70,11 @@ function AlongshoreChart({ profiles }: { profiles: PlumeProfiles }) {
       <figcaption className="mb-1 text-sm font-semibold">Along the coast from the mouth (at the shore)</figcaption>
       <div style={{ height: 260 }} data-testid="alongshore-chart">
         <ResponsiveContainer width="100%" height="100%">
-          <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 28, left: 8 }}>
+          <ComposedChart data={data} margin={{ top: 8, right: 28, bottom: 28, left: 8 }}>
             <CartesianGrid stroke="#e9e9e7" />
-            <XAxis dataKey="alongKm" type="number" fontSize={11} tickFormatter={(v: number) => fmtNumber(v, 0)} label={{ value: 'Distance downcoast from the mouth (km)', position: 'insideBottom', offset: -16, fontSize: 11 }} />
+            <XAxis dataKey="alongKm" type="number" domain={[0, 'dataMax']} fontSize={11} tickFormatter={(v: number) => fmtNumber(v, 0)} label={{ value: 'Distance downcoast from the mouth (km)', position: 'insideBottom', offset: -16, fontSize: 11 }} />
             <YAxis yAxisId="s" fontSize={11} domain={[0, 'auto']} label={{ value: 'Salinity (psu)', angle: -90, position: 'insideLeft', fontSize: 11, dy: 40 }} />
-            <YAxis yAxisId="c" orientation="right" scale="log" domain={['auto', 'auto']} allowDataOverflow fontSize={11} tickFormatter={(v: number) => fmtNumber(v, 0)} label={{ value: 'E. coli per 100 mL', angle: 90, position: 'insideRight', fontSize: 11, dy: -50 }} />
+            <YAxis yAxisId="c" orientation="right" scale="log" domain={['auto', 'auto']} allowDataOverflow fontSize={11} width={70} tickFormatter={(v: number) => v.toLocaleString('en', { maximumSignificantDigits: 2 })} label={{ value: 'E. coli per 100 mL', angle: 90, position: 'insideRight', fontSize: 11, dy: -50 }} />
             <Tooltip labelFormatter={(v) => `${fmtNumber(Number(v), 1)} km from the mouth`} formatter={(v, name) => [fmtNumber(v as number, 1), name]} />
             <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 12 }} />
             <Line yAxisId="s" dataKey="salinity" name="Salinity (psu)" stroke="#9c7a3f" strokeWidth={2} dot={false} isAnimationActive={false} />

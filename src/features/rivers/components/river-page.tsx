@@ -108,7 +108,7 @@ function SettingsAndPlume({ river, canEdit, scenario, onSaved }: { river: River;
         <SettingsForm form={form} defaultsUsed={river.defaultsUsed} canEdit={canEdit} onSubmit={onSubmit} saving={save.isPending} />
         {save.isError && <Notice tone="problem" title="Not saved">{save.error.message}</Notice>}
       </div>
-      <div>{scenario ? <PlumePanel key={scenario.id} scenario={scenario} preview={preview} /> : <Empty title="No scenario to show">Upload a record or add a typed flow to see the plume’s numbers.</Empty>}</div>
+      <div className="lg:sticky lg:top-4 lg:max-h-[calc(100vh-2rem)] lg:self-start lg:overflow-y-auto">{scenario ? <PlumePanel key={scenario.id} scenario={scenario} preview={preview} /> : <Empty title="No scenario to show">Upload a record or add a typed flow to see the plume’s numbers.</Empty>}</div>
     </div>
   );
 }
