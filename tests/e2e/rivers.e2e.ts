@@ -75,6 +75,8 @@ describe('an adviser sets up a river from a gauge record', () => {
 
     // Hydrograph, flood-frequency chart and design flows.
     await page.getByTestId('hydrograph').locator('.recharts-surface').first().waitFor();
+    await page.getByLabel('Log scale for the hydrograph').check();
+    await page.getByTestId('hydrograph').locator('.recharts-line-curve').first().waitFor();
     await page.getByTestId('flood-frequency-chart').locator('.recharts-surface').first().waitFor();
     await page.getByText('Return period (years) and annual exceedance probability (AEP)').waitFor();
     const design = page.getByTestId('design-flows');
@@ -103,14 +105,19 @@ describe('an adviser sets up a river from a gauge record', () => {
     await panel.getByText('Assumptions these inputs break').waitFor();
     await page.getByTestId('cross-shore-chart').locator('.recharts-surface').first().waitFor();
     await page.getByTestId('alongshore-chart').locator('.recharts-surface').first().waitFor();
+    // A tall window, so the panel (scrollable beside the form on smaller screens) is captured whole.
+    await page.setViewportSize({ width: 1280, height: 2000 });
     await page.getByTestId('plume-panel').screenshot({ path: `${SCREENSHOT_DIR}/rivers-4-plume-numbers.png` });
+    await page.setViewportSize({ width: 1280, height: 860 });
 
     // A changed setting shows new numbers before saving (the engine in the browser)…
     await page.getByLabel('Sea salinity (psu)').fill('30');
     await panel.getByRole('columnheader', { name: 'With your unsaved changes' }).waitFor();
     const previewG = await panel.getByTestId('preview-g').textContent();
     expect(previewG).not.toBe(savedG);
+    await page.setViewportSize({ width: 1280, height: 2000 });
     await page.getByTestId('plume-panel').screenshot({ path: `${SCREENSHOT_DIR}/rivers-5-preview.png` });
+    await page.setViewportSize({ width: 1280, height: 860 });
     await page.getByRole('form', { name: 'River settings' }).screenshot({ path: `${SCREENSHOT_DIR}/rivers-5b-settings-form.png` });
     // …and the server recomputes on save; the field stops being a default.
     await page.getByRole('button', { name: 'Save settings' }).click();

@@ -79,7 +79,7 @@ export function FloodFrequencyChart({ fit, design, unit = 'm³/s' }: { fit: Floo
     <figure className="m-0" aria-label="Flood-frequency chart: annual peak flow against annual exceedance probability">
       <div className="mb-2 flex items-center gap-2 text-sm">
         <input id="ff-log" type="checkbox" checked={logFlow} onChange={(e) => setLogFlow(e.target.checked)} />
-        <label htmlFor="ff-log">Log scale for flow</label>
+        <label htmlFor="ff-log">Log scale for peak flows</label>
       </div>
       <div style={{ height: 360 }} className="w-full" data-testid="flood-frequency-chart">
         <ResponsiveContainer width="100%" height="100%">

@@ -18,7 +18,7 @@ export function HydrographChart({ riverId }: { riverId: string }) {
     <figure className="m-0" aria-label="Hydrograph: river flow through the record">
       <div className="mb-2 flex items-center gap-2 text-sm">
         <input id="hydro-log" type="checkbox" checked={log} onChange={(e) => setLog(e.target.checked)} />
-        <label htmlFor="hydro-log">Log scale for flow</label>
+        <label htmlFor="hydro-log">Log scale for the hydrograph</label>
         <span className="text-xs text-shell-700">Drag the handles under the chart to zoom into a period.</span>
       </div>
       <div style={{ height: 300 }} className="w-full" data-testid="hydrograph">

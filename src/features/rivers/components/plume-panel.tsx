@@ -74,7 +74,7 @@ function AlongshoreChart({ profiles }: { profiles: PlumeProfiles }) {
             <CartesianGrid stroke="#e9e9e7" />
             <XAxis dataKey="alongKm" type="number" domain={[0, 'dataMax']} fontSize={11} tickFormatter={(v: number) => fmtNumber(v, 0)} label={{ value: 'Distance downcoast from the mouth (km)', position: 'insideBottom', offset: -16, fontSize: 11 }} />
             <YAxis yAxisId="s" fontSize={11} domain={[0, 'auto']} label={{ value: 'Salinity (psu)', angle: -90, position: 'insideLeft', fontSize: 11, dy: 40 }} />
-            <YAxis yAxisId="c" orientation="right" scale="log" domain={['auto', 'auto']} allowDataOverflow fontSize={11} width={70} tickFormatter={(v: number) => v.toLocaleString('en', { maximumSignificantDigits: 2 })} label={{ value: 'E. coli per 100 mL', angle: 90, position: 'insideRight', fontSize: 11, dy: -50 }} />
+            <YAxis yAxisId="c" orientation="right" scale="log" domain={['auto', 'auto']} allowDataOverflow fontSize={11} width={70} tickFormatter={(v: number) => v.toLocaleString('en', { maximumSignificantDigits: 2 })} label={{ value: 'per 100 mL', angle: 90, position: 'insideRight', fontSize: 11, dy: -30 }} />
             <Tooltip labelFormatter={(v) => `${fmtNumber(Number(v), 1)} km from the mouth`} formatter={(v, name) => [fmtNumber(v as number, 1), name]} />
             <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 12 }} />
             <Line yAxisId="s" dataKey="salinity" name="Salinity (psu)" stroke="#9c7a3f" strokeWidth={2} dot={false} isAnimationActive={false} />
