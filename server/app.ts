@@ -29,6 +29,8 @@ import { registerSharingRoutes } from './routes/sharing.routes';
 import { registerInboxRoutes } from './routes/inbox.routes';
 import { registerOverviewRoutes } from './routes/overview.routes';
 import { createInboxService } from './services/inbox.service';
+import { registerClientRoutes } from './routes/clients.routes';
+import { createClientsService } from './services/clients.service';
 import { createInlineScreeningJobs, type ScreeningJobs } from './jobs/screening-jobs';
 import { createRiversService } from './services/rivers.service';
 import { createScreeningService } from './services/screening.service';
@@ -136,6 +138,7 @@ export function createApp(deps: AppDeps): Express {
   registerCoastRoutes(ctx, db);
   registerInboxRoutes(ctx, createInboxService(db));
   registerOverviewRoutes(ctx, db);
+  registerClientRoutes(ctx, createClientsService({ db, mailer, appUrl: env.APP_URL }));
   registerScreeningRoutes(ctx, db, rivers, screening, createSweepService({ db, screening }));
   registerMonitoringRoutes(ctx, createMonitoringService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) }));
 

@@ -656,3 +656,36 @@ export const calibrations = pgTable(
   },
   (t) => [index('calibrations_river_idx').on(t.riverId, t.createdAt)],
 );
+
+// Advisers and their clients (issue "Grower's app II"): an adviser invites a grower by e-mail;
+// the grower (matched by e-mail when they sign in) accepts and chooses leases to share, and can
+// end the link at any time (which stops sharing every lease with that adviser).
+
+export const clientInvitations = pgTable(
+  'client_invitations',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    adviserId: text('adviser_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    /** The grower's e-mail as typed by the adviser, lower-cased. */
+    email: text('email').notNull(),
+    /** Set when the grower accepts. */
+    growerId: text('grower_id').references(() => users.id, { onDelete: 'cascade' }),
+    status: text('status', { enum: ['pending', 'accepted', 'declined', 'ended'] })
+      .notNull()
+      .default('pending'),
+    message: text('message'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    respondedAt: timestamp('responded_at', { withTimezone: true }),
+    endedAt: timestamp('ended_at', { withTimezone: true }),
+  },
+  (t) => [
+    index('client_invitations_adviser_idx').on(t.adviserId, t.status),
+    index('client_invitations_email_idx').on(t.email, t.status),
+    // One open (pending or accepted) link per adviser and e-mail.
+    uniqueIndex('client_invitations_open_idx')
+      .on(t.adviserId, t.email)
+      .where(sql`status IN ('pending', 'accepted')`),
+  ],
+);

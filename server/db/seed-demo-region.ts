@@ -74,6 +74,11 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
       INSERT INTO lease_shares (lease_id, grantee_id)
       SELECT id, ${adviser.id} FROM leases WHERE owner_id = ${saltreed.id} AND status = 'held'
       ON CONFLICT DO NOTHING`);
+    // …as an accepted client of the adviser (Clients screen).
+    await db.execute(sql`
+      INSERT INTO client_invitations (adviser_id, email, grower_id, status, responded_at)
+      SELECT ${adviser.id}, lower(email), id, 'accepted', now() FROM users WHERE id = ${saltreed.id}
+      ON CONFLICT DO NOTHING`);
   }
 
   // Closure zones.

@@ -162,6 +162,17 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
   });
 
   defineRoute(ctx, {
+    method: 'get',
+    path: '/scenarios/:id/plume',
+    summary: "A scenario's plume numbers (g′, f, regime, y_s, H0, W0, U0, c_p, reach), warnings, assumptions and profiles, from the saved settings",
+    tags: ['scenarios'],
+    access: { roles: READERS },
+    params: scenarioParams,
+    errors: [404, 422],
+    handler: ({ user, params }) => rivers.scenarioPlume(user!, params.id),
+  });
+
+  defineRoute(ctx, {
     method: 'post',
     path: '/rivers/:id/screening-runs',
     summary: "Re-screen every lease of the river now (normally automatic after a change)",

@@ -10,6 +10,7 @@ import { fitFloodFrequency, type FloodFrequencyResult } from '#shared/hydrology/
 import { floodEvents, typicalDurationForPeak } from '#shared/hydrology/flood-duration';
 import { flowPercentiles } from '#shared/hydrology/flow-percentiles';
 import { parseFlowRecord } from '#shared/hydrology/parse-flow-record';
+import { plumeProfiles, riverPlume } from '#shared/physics/river-plume';
 import {
   applyRiverDefaults,
   DEFAULTABLE_FIELDS,
@@ -297,7 +298,20 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
     await db.execute(sql`DELETE FROM scenarios WHERE id = ${scenarioId}::uuid`);
   }
 
-  return { list, get, create, update, uploadFlowRecord, flowRecord, readings, scenarios, createScenario, updateScenario, deleteScenario, load };
+  /** The plume numbers and profiles of one scenario, from the river's saved settings. */
+  async function scenarioPlume(user: CurrentUser, scenarioId: string) {
+    const { river } = await loadScenario(user, scenarioId);
+    const scenario = (await scenarios(user, river.id)).find((s) => s.id === scenarioId)!;
+    try {
+      const { plume, params } = riverPlume(river.settings, { discharge: scenario.discharge, durationHours: scenario.durationHours });
+      return { scenario, riverVersion: river.version, plume, profiles: plumeProfiles(plume, params) };
+    } catch (err) {
+      if (err instanceof RangeError) throw new UnprocessableError(`The plume cannot be computed with these settings: ${err.message}. Change the river's settings.`);
+      throw err;
+    }
+  }
+
+  return { list, get, create, update, uploadFlowRecord, flowRecord, readings, scenarios, createScenario, updateScenario, deleteScenario, scenarioPlume, load };
 }
 
 export type RiversService = ReturnType<typeof createRiversService>;

@@ -9,9 +9,10 @@ import { type SQL, sql } from 'drizzle-orm';
 import type { Geometry } from 'geojson';
 import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared/biology/species-tolerance';
 import { buildFootprint } from '#shared/geometry/build-footprint';
-import { computePlume, type PlumeResult } from '#shared/physics/compute-plume';
-import { type ExposureParameters, exposureParameters, fieldAt } from '#shared/physics/exposure-field';
+import type { PlumeResult } from '#shared/physics/compute-plume';
+import { type ExposureParameters, fieldAt } from '#shared/physics/exposure-field';
 import { MODEL_VERSION } from '#shared/physics/model-version';
+import { riverPlume } from '#shared/physics/river-plume';
 import type { RiverSettings } from '#shared/schemas/river';
 import { annualiseExposure } from '#shared/scoring/annualise';
 import { salinityBandId, screeningBandSpecs, strictestSpecies } from '#shared/scoring/lease-band-specs';
@@ -40,37 +41,9 @@ export interface FlowSpec {
   durationHours: number;
 }
 
-/** The water and plume inputs of the engine for a river at one flow. */
-export function plumeFor(
-  settings: RiverSettings,
-  flow: { discharge: number; durationHours: number },
-): { plume: PlumeResult; params: ExposureParameters } {
-  const plume = computePlume({
-    latitude: settings.mouthLatitude,
-    discharge: flow.discharge,
-    riverSalinity: settings.riverSalinity,
-    riverTemperature: settings.riverTemperature,
-    seaSalinity: settings.seaSalinity,
-    seaTemperature: settings.seaTemperature,
-    mouthWidth: settings.mouthWidth,
-    mouthDepth: settings.mouthDepth,
-    shelfSlope: settings.shelfSlope,
-    alongshoreShare: settings.alongshoreShare,
-    floodDurationHours: flow.durationHours,
-  });
-  const base = exposureParameters(
-    {
-      mixingLength: settings.mixingLength,
-      t90DayHours: settings.t90DayHours,
-      t90NightHours: settings.t90NightHours,
-      daylightFraction: settings.daylightFraction,
-      indicator: settings.indicator,
-    },
-    { seaSalinity: settings.seaSalinity, riverSalinity: settings.riverSalinity },
-    flow.discharge,
-  );
-  const params: ExposureParameters = { ...base, sourceFreshwaterFraction: settings.nearFieldFreshwaterFraction ?? 1 };
-  return { plume, params };
+/** The water and plume inputs of the engine for a river at one flow (shared with the browser's previews). */
+export function plumeFor(settings: RiverSettings, flow: { discharge: number; durationHours: number }): { plume: PlumeResult; params: ExposureParameters } {
+  return riverPlume(settings, flow);
 }
 
 function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {

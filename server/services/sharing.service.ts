@@ -11,6 +11,7 @@ import type { Database } from '../db/client';
 import type { CurrentUser } from '../http/route';
 import { ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors';
 import { recordAudit } from './audit.service';
+import { deliverToInbox } from './inbox.service';
 import { visibleLeases } from './leases.service';
 
 const SHAREABLE_ROLES: Role[] = ['adviser', 'regulator'];
@@ -154,6 +155,18 @@ export function createSharingService(db: Database) {
         jurisdictionId: user.jurisdictionId,
         after: { noteId, chars: body.length },
       });
+      if (lease.owner_id !== user.id) {
+        await deliverToInbox(tx, [
+          {
+            userId: lease.owner_id,
+            kind: 'note',
+            title: `${user.name ?? user.email} wrote a note on lease ${lease.lease_code}`,
+            body: body.length > 200 ? `${body.slice(0, 197)}…` : body,
+            link: `/leases/${leaseId}`,
+            dedupeKey: `note:${noteId}`,
+          },
+        ]);
+      }
       return noteId;
     });
     const rows = await db.execute<NoteRow>(sql`${SELECT_NOTES} WHERE n.id = ${id}::uuid`);

@@ -17,6 +17,8 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
     { to: '/monitoring', label: 'Monitoring' },
+    { to: '/rivers', label: 'Rivers' },
+    { to: '/advisers', label: 'Advisers' },
   ],
   adviser: [
     { to: '/', label: 'Overview' },
@@ -25,6 +27,8 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
     { to: '/monitoring', label: 'Monitoring' },
+    { to: '/rivers', label: 'Rivers' },
+    { to: '/clients', label: 'Clients' },
   ],
   regulator: [
     { to: '/', label: 'Overview' },
@@ -33,6 +37,7 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
     { to: '/monitoring', label: 'Monitoring' },
+    { to: '/rivers', label: 'Rivers' },
   ],
   admin: [
     { to: '/', label: 'Overview' },
