@@ -138,8 +138,12 @@ describe('screening the demo region', () => {
   });
 
   it('loads the demo monitoring stations and samples, keeping detection limits as censored values', async () => {
+    // Only the demo stations (FB-S01…FB-S08): other test files add stations of their own to the same database.
     const r = await t.db.pool.query(
-      'select (select count(*) from stations)::int as stations, (select count(*) from samples)::int as samples, (select count(*) from samples where indicator_censored is not null)::int as censored',
+      `select (select count(*) from stations where code like 'FB-S%')::int as stations,
+              (select count(*) from samples s join stations st on st.id = s.station_id where st.code like 'FB-S%')::int as samples,
+              (select count(*) from samples s join stations st on st.id = s.station_id
+                where st.code like 'FB-S%' and s.indicator_censored is not null)::int as censored`,
     );
     expect(r.rows[0].stations).toBe(8);
     expect(r.rows[0].samples).toBe(309);
