@@ -34,6 +34,13 @@ import { createImportsService } from './services/imports.service';
 import { createLeasesService } from './services/leases.service';
 import { createSharingService } from './services/sharing.service';
 import { DEFAULT_UPLOAD_LIMITS, type UploadLimits } from '#shared/geometry/upload-limits';
+import { type AlertJobs, createInlineAlertJobs } from './jobs/alert-jobs';
+import { registerAlertRoutes } from './routes/alerts.routes';
+import { mountBillingWebhook, registerBillingRoutes } from './routes/billing.routes';
+import { registerGaugeRoutes } from './routes/gauges.routes';
+import { createAlertsService } from './services/alerts.service';
+import { createBillingService } from './services/billing.service';
+import { createGaugesService } from './services/gauges.service';
 
 export interface AppDeps {
   env: Env;
@@ -45,6 +52,8 @@ export interface AppDeps {
   uploadLimits?: Partial<UploadLimits>;
   /** Background screening; inline (at once, in the request) when not given. */
   jobs?: ScreeningJobs;
+  /** Alert evaluation, alert e-mails and the gauge feed poll (pg-boss); inline (after each commit) when not given. */
+  alertJobs?: AlertJobs;
 }
 
 const API_BASE = '/api/v1';
@@ -130,6 +139,24 @@ export function createApp(deps: AppDeps): Express {
   registerRiverRoutes(ctx, rivers, jobs);
   registerCoastRoutes(ctx, db);
   registerScreeningRoutes(ctx, db, rivers, screening, createSweepService({ db, screening }));
+  // Paid alerts plan: billing (its webhook reads the raw body, so it is mounted before the API router), gauges, alerts.
+  const billing = createBillingService({
+    db,
+    config: { apiUrl: env.PAYMENT_API_URL, secretKey: env.PAYMENT_SECRET_KEY, webhookSecret: env.PAYMENT_WEBHOOK_SECRET, priceLookupKey: env.PAYMENT_PRICE_LOOKUP_KEY, appUrl: env.APP_URL },
+  });
+  mountBillingWebhook(app, ctx, billing);
+  registerBillingRoutes(ctx, billing);
+  const alertJobs = deps.alertJobs ?? createInlineAlertJobs(deps.db.pool);
+  const gauges = createGaugesService({ db, jobs: alertJobs, feedUrl: env.GAUGE_FEED_URL });
+  registerGaugeRoutes(ctx, gauges);
+  const alerts = createAlertsService({ db, pool: deps.db.pool, jobs: alertJobs, billing, sweeps: createSweepService({ db, screening }), mailer, appUrl: env.APP_URL });
+  registerAlertRoutes(ctx, alerts);
+  /** Resolves once the alert workers are registered (index.ts and tests await it). */
+  app.locals.alertsReady = alertJobs.attach({
+    evaluate: (ids) => alertJobs.transaction(async (client, enqueue) => void (await alerts.evaluateReadings(client, enqueue, ids))),
+    email: (id, final) => alerts.sendEmail(id, final),
+    pollFeed: async () => void (await gauges.pollFeed()),
+  });
 
   const openApi = buildOpenApiDocument(registry);
   router.get('/openapi.json', (_req, res) => {
