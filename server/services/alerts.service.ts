@@ -101,7 +101,7 @@ function toAlert(a: AlertRow): Alert {
   };
 }
 
-const fmtFlow = (q: number) => `${q >= 100 ? Math.round(q) : q.toPrecision(3)} m³/s`;
+const fmtFlow = (q: number) => `${q >= 100 ? Math.round(q) : Number(q.toPrecision(3))} m³/s`;
 
 /** What entering a sweep band means for the stock (plain words; the numbers come from the band's name). */
 function bandMeaning(bandId: string | null): string {
