@@ -64,7 +64,9 @@ async function main() {
         webhookUrl: `http://${env.HOST}:${env.PORT}/api/v1/billing/webhook`,
       }),
     );
-    feed = await started('the local gauge feed', 'GAUGE_FEED_PORT and GAUGE_FEED_URL', env.GAUGE_FEED_PORT, () => startGaugeFeed({ port: env.GAUGE_FEED_PORT }));
+    feed = await started('the local gauge feed', 'GAUGE_FEED_PORT and GAUGE_FEED_URL', env.GAUGE_FEED_PORT, () =>
+      startGaugeFeed({ port: env.GAUGE_FEED_PORT }),
+    );
   }
   // Screening runs in pg-boss workers on the same PostgreSQL (WORKERS=false leaves it to other processes).
   const jobs = await createPgBossScreeningJobs(env.DATABASE_URL, dbHandle.db, createScreeningService({ db: dbHandle.db }), {

@@ -119,10 +119,24 @@ export async function createPgBossAlertJobs(
       await boss.work<{ readingIds: string[] }>(Q_EVALUATE, { pollingIntervalSeconds: 1 }, async ([job]) =>
         handlers.evaluate(job.data.readingIds),
       );
-      // A few e-mail workers, so a backlog clears quickly once the mail server is back.
-      for (let i = 0; i < 4; i++) {
-        await boss.work<{ alertId: string }>(Q_EMAIL, { pollingIntervalSeconds: 1, includeMetadata: true }, async ([job]) =>
-          handlers.email(job.data.alertId, job.retryCount >= job.retryLimit),
+      // Batches, so a backlog clears quickly once the mail server is back; each e-mail succeeds or fails
+      // (and is retried with backoff) on its own: failed ones are marked failed, the rest complete.
+      for (let i = 0; i < 2; i++) {
+        await boss.work<{ alertId: string }>(
+          Q_EMAIL,
+          { pollingIntervalSeconds: 1, batchSize: 25, includeMetadata: true },
+          async (batch) => {
+            const results = await Promise.allSettled(
+              batch.map((job) => handlers.email(job.data.alertId, job.retryCount >= job.retryLimit)),
+            );
+            await Promise.all(
+              results.map((r, k) =>
+                r.status === 'rejected'
+                  ? boss.fail(Q_EMAIL, batch[k].id, { message: String((r.reason as Error)?.message ?? r.reason) })
+                  : undefined,
+              ),
+            );
+          },
         );
       }
       if (options.pollFeed) {

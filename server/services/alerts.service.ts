@@ -401,47 +401,32 @@ export function createAlertsService(deps: {
   }
 
   /**
-   * Sends one alert's e-mail unless it was sent already. The row stays locked while sending, so two
-   * workers never send the same alert; a failure is recorded on the alert and rethrown for the retry.
+   * Sends one alert's e-mail unless it was sent already. Each alert has exactly one e-mail job (queued
+   * in the transaction that created it), and pg-boss runs a job on one worker at a time, so no lock is
+   * held while talking to the mail server (the local fake writes to the same database pool). A failure
+   * is recorded on the alert (visible to its user) and rethrown, so the job is retried with backoff.
    */
   async function sendEmail(alertId: string, final: boolean): Promise<void> {
-    const client = await pool.connect();
-    let failure: Error | null = null;
+    const r = await pool.query<{ id: string; email_status: string; subject: string; body: string; email: string }>(
+      `SELECT a.id, a.email_status, a.subject, a.body, u.email FROM alerts a JOIN users u ON u.id = a.user_id WHERE a.id = $1`,
+      [alertId],
+    );
+    const alert = r.rows[0];
+    if (!alert || alert.email_status === 'sent') return;
     try {
-      await client.query('BEGIN');
-      const r = await client.query<{ id: string; email_status: string; subject: string; body: string; email: string }>(
-        `SELECT a.id, a.email_status, a.subject, a.body, u.email FROM alerts a JOIN users u ON u.id = a.user_id WHERE a.id = $1 FOR UPDATE OF a`,
-        [alertId],
-      );
-      const alert = r.rows[0];
-      if (!alert || alert.email_status === 'sent') {
-        await client.query('COMMIT');
-        return;
-      }
-      try {
-        await mailer.send({ to: alert.email, subject: alert.subject, text: alert.body });
-      } catch (err) {
-        failure = err as Error;
-      }
-      if (failure) {
-        await client.query(
-          `UPDATE alerts SET email_attempts = email_attempts + 1, email_last_error = $2, email_status = $3 WHERE id = $1`,
-          [alertId, `The mail server did not take the message: ${failure.message}`, final ? 'failed' : 'pending'],
-        );
-      } else {
-        await client.query(
-          `UPDATE alerts SET email_status = 'sent', email_attempts = email_attempts + 1, email_sent_at = now(), email_last_error = NULL WHERE id = $1`,
-          [alertId],
-        );
-      }
-      await client.query('COMMIT');
+      await mailer.send({ to: alert.email, subject: alert.subject, text: alert.body });
     } catch (err) {
-      await client.query('ROLLBACK').catch(() => undefined);
-      throw err;
-    } finally {
-      client.release();
+      const failure = err as Error;
+      await pool.query(
+        `UPDATE alerts SET email_attempts = email_attempts + 1, email_last_error = $2, email_status = $3 WHERE id = $1 AND email_status <> 'sent'`,
+        [alertId, `The mail server did not take the message: ${failure.message}`, final ? 'failed' : 'pending'],
+      );
+      throw failure;
     }
-    if (failure) throw failure;
+    await pool.query(
+      `UPDATE alerts SET email_status = 'sent', email_attempts = email_attempts + 1, email_sent_at = now(), email_last_error = NULL WHERE id = $1`,
+      [alertId],
+    );
   }
 
   return { listRules, createRule, deleteRule, listAlerts, evaluateReadings, forecast, sendEmail };

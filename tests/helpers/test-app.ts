@@ -9,7 +9,7 @@ import { createApp, type AppDeps } from '../../server/app';
 import { createDb, type DbHandle } from '../../server/db/client';
 import { runMigrations } from '../../server/db/migrate';
 import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
-import { loadEnv } from '../../server/env';
+import { type Env, loadEnv } from '../../server/env';
 import { type SmtpFake, startSmtpFake } from '../../server/fakes/smtp-fake';
 import { type PaymentFake, startPaymentFake } from '../../server/fakes/payment-fake';
 import type { Server } from 'node:http';
@@ -23,6 +23,7 @@ export interface TestApp {
   db: DbHandle;
   smtp: SmtpFake;
   mailer: Mailer;
+  env: Env;
   /** The local payment fake on a free port (the app's PAYMENT_API_URL points at it). */
   payment: PaymentFake;
   /** Listens on a free loopback port (for the fake's webhooks) and returns the base URL. */
@@ -39,7 +40,9 @@ export function testDatabaseUrl(): string {
   return url;
 }
 
-export async function createTestApp(overrides: Partial<Omit<AppDeps, 'env' | 'db' | 'mailer'>> & { envOverrides?: Record<string, string> } = {}): Promise<TestApp> {
+export async function createTestApp(
+  overrides: Partial<Omit<AppDeps, 'env' | 'db' | 'mailer'>> & { envOverrides?: Record<string, string> } = {},
+): Promise<TestApp> {
   const url = testDatabaseUrl();
   await runMigrations(url);
   const db = createDb(url, 5);
@@ -72,6 +75,7 @@ export async function createTestApp(overrides: Partial<Omit<AppDeps, 'env' | 'db
     db,
     smtp,
     mailer,
+    env,
     payment,
     async listen() {
       server ??= await new Promise<Server>((resolve) => {

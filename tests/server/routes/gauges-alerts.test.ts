@@ -31,12 +31,18 @@ async function activatePlan(email: string) {
 }
 
 const outboxFor = async (email: string) =>
-  (await t.db.pool.query('select subject, text_body from outbox_messages where envelope_to @> $1::jsonb order by received_at', [JSON.stringify([email])])).rows;
+  (
+    await t.db.pool.query('select subject, text_body from outbox_messages where envelope_to @> $1::jsonb order by received_at', [
+      JSON.stringify([email]),
+    ])
+  ).rows;
 
 beforeAll(async () => {
   t = await createTestApp();
   await seedDemoRegion(t.db.db);
-  await t.db.pool.query(`delete from alert_rules; delete from billing_accounts; delete from gauge_readings; delete from inbox_messages where kind = 'alert'; delete from outbox_messages`);
+  await t.db.pool.query(
+    `delete from alert_rules; delete from billing_accounts; delete from gauge_readings; delete from inbox_messages where kind = 'alert'; delete from outbox_messages`,
+  );
   grower = (await signIn(t.app, 'grower@brackline.test')).agent;
   regulator = (await signIn(t.app, 'regulator@brackline.test')).agent;
   const gauges = await grower.get('/api/v1/gauges').expect(200);
@@ -52,7 +58,10 @@ afterAll(async () => {
 describe('gauges and readings', () => {
   it('lists the demo gauges with their rivers', async () => {
     const res = await grower.get('/api/v1/gauges').expect(200);
-    expect(res.body.items.map((g: { code: string; riverName: string }) => `${g.code} ${g.riverName}`)).toEqual(['FCSA-G01 Amberlin River', 'FCSA-G02 Tolley Brook']);
+    expect(res.body.items.map((g: { code: string; riverName: string }) => `${g.code} ${g.riverName}`)).toEqual([
+      'FCSA-G01 Amberlin River',
+      'FCSA-G02 Tolley Brook',
+    ]);
   });
 
   it('issues a per-gauge token (regulator) and refuses readings without it', async () => {
@@ -82,13 +91,27 @@ describe('gauges and readings', () => {
 
   it('takes a CSV upload in one transaction: one bad row stores nothing', async () => {
     const bad = 'observedAt,discharge\n2030-01-01T01:00:00Z,11\n2030-01-01T02:00:00Z,abc\n';
-    const refused = await grower.post(`/api/v1/gauges/${g01}/readings`).set('Authorization', `Bearer ${token}`).set('Content-Type', 'text/csv').send(bad).expect(400);
+    const refused = await grower
+      .post(`/api/v1/gauges/${g01}/readings`)
+      .set('Authorization', `Bearer ${token}`)
+      .set('Content-Type', 'text/csv')
+      .send(bad)
+      .expect(400);
     expect(refused.body.error.details.problems[0]).toMatch(/row 3/);
     const good = 'observedAt,discharge\n2030-01-01T01:00:00Z,11\n2030-01-01T02:00:00Z,12\n';
-    const res = await grower.post(`/api/v1/gauges/${g01}/readings`).set('Authorization', `Bearer ${token}`).set('Content-Type', 'text/csv').send(good).expect(201);
+    const res = await grower
+      .post(`/api/v1/gauges/${g01}/readings`)
+      .set('Authorization', `Bearer ${token}`)
+      .set('Content-Type', 'text/csv')
+      .send(good)
+      .expect(201);
     expect(res.body).toEqual({ received: 2, stored: 2, duplicates: 0 });
     const list = await grower.get(`/api/v1/gauges/${g01}/readings?limit=10`).expect(200);
-    expect(list.body.items.map((r: { discharge: number; source: string }) => `${r.discharge} ${r.source}`)).toEqual(['12 csv', '11 csv', '10 token']);
+    expect(list.body.items.map((r: { discharge: number; source: string }) => `${r.discharge} ${r.source}`)).toEqual([
+      '12 csv',
+      '11 csv',
+      '10 token',
+    ]);
   });
 });
 
@@ -96,10 +119,19 @@ describe('alerts', () => {
   let rule: { id: string; thresholdFlow: number; bandName: string };
 
   it('a reading crossing the band-entry flow makes one alert: inbox and e-mail with flow, lease, band, meaning and cautions', async () => {
-    rule = (await grower.post('/api/v1/alert-rules').send({ kind: 'lease', leaseId: fb001, riverId: amberlinId, bandId: 'plume-edge' }).expect(201)).body;
+    rule = (
+      await grower
+        .post('/api/v1/alert-rules')
+        .send({ kind: 'lease', leaseId: fb001, riverId: amberlinId, bandId: 'plume-edge' })
+        .expect(201)
+    ).body;
     const q = Math.round(rule.thresholdFlow * 1.2);
     const post = (time: string, discharge: number) =>
-      grower.post(`/api/v1/gauges/${g01}/readings`).set('Authorization', `Bearer ${token}`).send({ readings: [{ observedAt: time, discharge }] }).expect(201);
+      grower
+        .post(`/api/v1/gauges/${g01}/readings`)
+        .set('Authorization', `Bearer ${token}`)
+        .send({ readings: [{ observedAt: time, discharge }] })
+        .expect(201);
     await post('2030-01-02T00:00:00Z', q);
     // Still above: the same event, no new alert. The same reading again: nothing.
     await post('2030-01-02T01:00:00Z', q + 5);
@@ -107,7 +139,9 @@ describe('alerts', () => {
     const alerts = (await grower.get('/api/v1/alerts').expect(200)).body.items;
     expect(alerts).toHaveLength(1);
     expect(alerts[0]).toMatchObject({ level: 'enters', source: 'reading', discharge: q, emailStatus: 'sent', emailAttempts: 1 });
-    const inbox = await t.db.pool.query(`select title, body, link from inbox_messages i join users u on u.id = i.user_id where u.email = 'grower@brackline.test' and kind = 'alert'`);
+    const inbox = await t.db.pool.query(
+      `select title, body, link from inbox_messages i join users u on u.id = i.user_id where u.email = 'grower@brackline.test' and kind = 'alert'`,
+    );
     expect(inbox.rows).toHaveLength(1);
     expect(inbox.rows[0].link).toBe(`/leases/${fb001}`);
     const mail = await outboxFor('grower@brackline.test');
@@ -123,14 +157,21 @@ describe('alerts', () => {
 
   it('falls below and rises again: a second event, a second alert', async () => {
     const post = (time: string, discharge: number) =>
-      grower.post(`/api/v1/gauges/${g01}/readings`).set('Authorization', `Bearer ${token}`).send({ readings: [{ observedAt: time, discharge }] }).expect(201);
+      grower
+        .post(`/api/v1/gauges/${g01}/readings`)
+        .set('Authorization', `Bearer ${token}`)
+        .send({ readings: [{ observedAt: time, discharge }] })
+        .expect(201);
     await post('2030-01-03T00:00:00Z', rule.thresholdFlow / 2);
     await post('2030-01-03T01:00:00Z', rule.thresholdFlow * 1.5);
     expect((await grower.get('/api/v1/alerts')).body.items).toHaveLength(2);
   });
 
   it('a forecast flow the user types: below the flow nothing, at or above it one alert', async () => {
-    const below = await grower.post(`/api/v1/alert-rules/${rule.id}/forecast`).send({ discharge: rule.thresholdFlow * 0.5 }).expect(200);
+    const below = await grower
+      .post(`/api/v1/alert-rules/${rule.id}/forecast`)
+      .send({ discharge: rule.thresholdFlow * 0.5 })
+      .expect(200);
     expect(below.body).toMatchObject({ reaches: false, alert: null });
     const above = await grower.post(`/api/v1/alert-rules/${rule.id}/forecast`).send({ discharge: 5000 }).expect(200);
     expect(above.body.reaches).toBe(true);
@@ -141,24 +182,37 @@ describe('alerts', () => {
   });
 
   it('a rule for a band the lease never enters, or a lease the user cannot see, is refused', async () => {
-    await grower.post('/api/v1/alert-rules').send({ kind: 'lease', leaseId: fb001, riverId: amberlinId, bandId: 'no-such-band' }).expect(422);
+    await grower
+      .post('/api/v1/alert-rules')
+      .send({ kind: 'lease', leaseId: fb001, riverId: amberlinId, bandId: 'no-such-band' })
+      .expect(422);
     // grower2 cannot see FB-001 (another grower's lease).
     await activatePlan('grower2@brackline.test');
     const grower2 = (await signIn(t.app, 'grower2@brackline.test')).agent;
-    await grower2.post('/api/v1/alert-rules').send({ kind: 'lease', leaseId: fb001, riverId: amberlinId, bandId: 'plume-edge' }).expect(404);
+    await grower2
+      .post('/api/v1/alert-rules')
+      .send({ kind: 'lease', leaseId: fb001, riverId: amberlinId, bandId: 'plume-edge' })
+      .expect(404);
     await grower2.delete(`/api/v1/alert-rules/${rule.id}`).expect(404);
     await grower.delete(`/api/v1/alert-rules/${rule.id}`).expect(204);
     expect((await grower.get('/api/v1/alert-rules')).body.items).toHaveLength(0);
   });
 
   it('zone rules are free for regulators: approaching, then passing the trigger; growers cannot set them', async () => {
-    const zone = await t.db.pool.query(`select id, name, trigger_flow from closure_zones z where z.gauge_id = $1 and trigger_flow is not null limit 1`, [g01]);
+    const zone = await t.db.pool.query(
+      `select id, name, trigger_flow from closure_zones z where z.gauge_id = $1 and trigger_flow is not null limit 1`,
+      [g01],
+    );
     const { id: zoneId, name, trigger_flow: trigger } = zone.rows[0];
     await grower.post('/api/v1/alert-rules').send({ kind: 'zone', zoneId }).expect(403);
     const zr = await regulator.post('/api/v1/alert-rules').send({ kind: 'zone', zoneId, approachFraction: 0.8 }).expect(201);
     expect(zr.body).toMatchObject({ kind: 'zone', zoneName: name, thresholdFlow: trigger, approachFlow: trigger * 0.8 });
     const post = (time: string, discharge: number) =>
-      grower.post(`/api/v1/gauges/${g01}/readings`).set('Authorization', `Bearer ${token}`).send({ readings: [{ observedAt: time, discharge }] }).expect(201);
+      grower
+        .post(`/api/v1/gauges/${g01}/readings`)
+        .set('Authorization', `Bearer ${token}`)
+        .send({ readings: [{ observedAt: time, discharge }] })
+        .expect(201);
     await post('2030-02-01T00:00:00Z', trigger * 0.1);
     await post('2030-02-01T01:00:00Z', trigger * 0.85);
     await post('2030-02-01T02:00:00Z', trigger * 1.1);
@@ -191,11 +245,17 @@ describe('the gauge feed', () => {
     const gauges = createGaugesService({ db: t.db.db, jobs: createInlineAlertJobs(t.db.pool), feedUrl: feed.url });
     const latest = await (await fetch(`${feed.url}/readings/latest`)).json();
     expect(latest.readings.map((r: { code: string }) => r.code)).toEqual(['FCSA-G01', 'FCSA-G02']);
-    const pushed = await fetch(`${feed.url}/_fake/readings`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ code: 'FCSA-G02', discharge: 321 }) });
+    const pushed = await fetch(`${feed.url}/_fake/readings`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify({ code: 'FCSA-G02', discharge: 321 }),
+    });
     expect(pushed.status).toBe(201);
     const stored = await gauges.pollFeed();
     expect(stored).toBeGreaterThanOrEqual(2);
-    const feedRows = await t.db.pool.query(`select g.code, r.discharge from gauge_readings r join gauges g on g.id = r.gauge_id where r.source = 'feed'`);
+    const feedRows = await t.db.pool.query(
+      `select g.code, r.discharge from gauge_readings r join gauges g on g.id = r.gauge_id where r.source = 'feed'`,
+    );
     expect(feedRows.rows.some((r) => r.code === 'FCSA-G02' && r.discharge === 321)).toBe(true);
     // A second poll in the same minute stores nothing new.
     expect(await gauges.pollFeed()).toBe(0);
