@@ -40,9 +40,7 @@ export function testDatabaseUrl(): string {
   return url;
 }
 
-export async function createTestApp(
-  overrides: Partial<Omit<AppDeps, 'env' | 'db' | 'mailer'>> & { envOverrides?: Record<string, string> } = {},
-): Promise<TestApp> {
+export async function createTestApp(overrides: Partial<Omit<AppDeps, 'env' | 'db' | 'mailer'>> & { envOverrides?: Record<string, string> } = {}): Promise<TestApp> {
   const url = testDatabaseUrl();
   await runMigrations(url);
   const db = createDb(url, 5);

@@ -108,17 +108,11 @@ describe('POST /api/v1/account/sign-up', () => {
     expect(res.body).toMatchObject({ email: 'new.grower@brackline.test', role: 'grower' });
   });
   it('refuses a second account for the same e-mail with 409', async () => {
-    const res = await request(t.app)
-      .post('/api/v1/account/sign-up')
-      .send({ name: 'Again', email: 'grower@brackline.test', password: 'long-enough-pw' })
-      .expect(409);
+    const res = await request(t.app).post('/api/v1/account/sign-up').send({ name: 'Again', email: 'grower@brackline.test', password: 'long-enough-pw' }).expect(409);
     expect(res.body.error.message).toMatch(/already exists/);
   });
   it('names the field when the password is too short', async () => {
-    const res = await request(t.app)
-      .post('/api/v1/account/sign-up')
-      .send({ name: 'Short', email: 'short@brackline.test', password: 'short' })
-      .expect(400);
+    const res = await request(t.app).post('/api/v1/account/sign-up').send({ name: 'Short', email: 'short@brackline.test', password: 'short' }).expect(400);
     expect(res.body.error.message).toMatch(/password must be at least 10 characters/);
     expect(res.body.error.details[0].field).toBe('password');
   });
@@ -147,10 +141,7 @@ describe('password reset by e-mail', () => {
     await request(t.app).post('/api/v1/account/password-reset/confirm').send({ token, password: 'second-password-2' }).expect(200);
     await old.agent.get('/api/v1/account/me').expect(401);
     expect((await signIn(t.app, email, 'second-password-2')).error).toBeNull();
-    const reused = await request(t.app)
-      .post('/api/v1/account/password-reset/confirm')
-      .send({ token, password: 'third-password-3' })
-      .expect(400);
+    const reused = await request(t.app).post('/api/v1/account/password-reset/confirm').send({ token, password: 'third-password-3' }).expect(400);
     expect(reused.body.error.message).toMatch(/not valid or has expired/);
   });
   it('answers the same for an address with no account', async () => {
@@ -188,10 +179,7 @@ describe('invitations', () => {
     const token = mail.text?.match(/token=([A-Za-z0-9_-]+)/)?.[1];
     const info = await request(t.app).get(`/api/v1/invitations/${token}`).expect(200);
     expect(info.body.role).toBe('adviser');
-    await request(t.app)
-      .post(`/api/v1/invitations/${token}/accept`)
-      .send({ name: 'New Adviser', password: 'adviser-password-1' })
-      .expect(201);
+    await request(t.app).post(`/api/v1/invitations/${token}/accept`).send({ name: 'New Adviser', password: 'adviser-password-1' }).expect(201);
     const adviser = await signIn(t.app, 'new.adviser@brackline.test', 'adviser-password-1');
     expect((await adviser.agent.get('/api/v1/account/me')).body.role).toBe('adviser');
     await request(t.app).post(`/api/v1/invitations/${token}/accept`).send({ name: 'Again', password: 'adviser-password-1' }).expect(404);
@@ -210,9 +198,7 @@ describe('invitations', () => {
     await admin.agent.patch(`/api/v1/admin/users/${row.id}`).send({ role: 'adviser' }).expect(200);
     await user.agent.get('/api/v1/account/me').expect(401);
     const audit = await admin.agent.get('/api/v1/admin/audit').expect(200);
-    expect(
-      audit.body.items.some((a: { action: string; subjectId: string }) => a.action === 'user.role-change' && a.subjectId === row.id),
-    ).toBe(true);
+    expect(audit.body.items.some((a: { action: string; subjectId: string }) => a.action === 'user.role-change' && a.subjectId === row.id)).toBe(true);
   });
 });
 

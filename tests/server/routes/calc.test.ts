@@ -17,10 +17,7 @@ describe('POST /api/v1/calc/water', () => {
     { pressureDbar: 0, expected: 1023.34306 },
     { pressureDbar: 10000, expected: 1062.53817 },
   ])('EOS-80 density at S=35, t68=25 °C, p=$pressureDbar dbar is $expected kg/m³', async ({ pressureDbar, expected }) => {
-    const res = await request(t.app)
-      .post('/api/v1/calc/water')
-      .send({ salinity: 35, temperature: 25 / 1.00024, pressureDbar })
-      .expect(200);
+    const res = await request(t.app).post('/api/v1/calc/water').send({ salinity: 35, temperature: 25 / 1.00024, pressureDbar }).expect(200);
     expect(Math.abs(res.body.density - expected)).toBeLessThan(1e-5);
     expect(res.body.coriolis).toBeUndefined();
   });
@@ -45,16 +42,7 @@ describe('POST /api/v1/calc/plume', () => {
   it('reproduces the worked example', async () => {
     const res = await request(t.app)
       .post('/api/v1/calc/plume')
-      .send({
-        latitude: 43.5,
-        discharge: 900,
-        reducedGravity: 0.191415,
-        mouthWidth: 1500,
-        mouthDepth: 6,
-        shelfSlope: 2e-3,
-        alongshoreShare: 1,
-        floodDurationHours: 48,
-      })
+      .send({ latitude: 43.5, discharge: 900, reducedGravity: 0.191415, mouthWidth: 1500, mouthDepth: 6, shelfSlope: 2e-3, alongshoreShare: 1, floodDurationHours: 48 })
       .expect(200);
     const b = res.body;
     expect(b.regime).toBe('surface-advected');
@@ -70,16 +58,8 @@ describe('POST /api/v1/calc/plume', () => {
   });
   it('turns left in the southern hemisphere with the same magnitudes', async () => {
     const body = { discharge: 900, reducedGravity: 0.191415, mouthWidth: 1500, mouthDepth: 6, alongshoreShare: 1 };
-    const north = (
-      await request(t.app)
-        .post('/api/v1/calc/plume')
-        .send({ ...body, latitude: 43.5 })
-    ).body;
-    const south = (
-      await request(t.app)
-        .post('/api/v1/calc/plume')
-        .send({ ...body, latitude: -43.5 })
-    ).body;
+    const north = (await request(t.app).post('/api/v1/calc/plume').send({ ...body, latitude: 43.5 })).body;
+    const south = (await request(t.app).post('/api/v1/calc/plume').send({ ...body, latitude: -43.5 })).body;
     expect(south.turnsTo).toBe('left');
     expect(south.width).toBeCloseTo(north.width, 6);
     expect(south.coriolis).toBeCloseTo(-north.coriolis, 12);
@@ -94,29 +74,14 @@ describe('POST /api/v1/calc/plume', () => {
     expect(res.body.warnings.join(' ')).toMatch(/equator/i);
   });
   it('asks for either the water properties or reducedGravity', async () => {
-    const res = await request(t.app)
-      .post('/api/v1/calc/plume')
-      .send({ latitude: 40, discharge: 100, mouthWidth: 100, mouthDepth: 3 })
-      .expect(400);
+    const res = await request(t.app).post('/api/v1/calc/plume').send({ latitude: 40, discharge: 100, mouthWidth: 100, mouthDepth: 3 }).expect(400);
     expect(res.body.error.message).toMatch(/reducedGravity/);
   });
   it('is documented in the OpenAPI document with the contract field names', async () => {
     const doc = (await request(t.app).get('/api/v1/openapi.json')).body;
     const op = doc.paths['/api/v1/calc/plume'].post;
     const schema = op.responses['200'].content['application/json'].schema;
-    for (const field of [
-      'coriolis',
-      'reducedGravity',
-      'regime',
-      'depth',
-      'width',
-      'meanSpeed',
-      'noseSpeed',
-      'bulgeOffshoreExtent',
-      'bottomAttachmentDepth',
-      'turnsTo',
-      'warnings',
-    ]) {
+    for (const field of ['coriolis', 'reducedGravity', 'regime', 'depth', 'width', 'meanSpeed', 'noseSpeed', 'bulgeOffshoreExtent', 'bottomAttachmentDepth', 'turnsTo', 'warnings']) {
       expect(Object.keys(schema.properties)).toContain(field);
     }
   });
@@ -125,10 +90,7 @@ describe('POST /api/v1/calc/plume', () => {
 describe('POST /api/v1/calc/flood-frequency', () => {
   // Fishkill Creek at Beacon, NY, 1945–1968 (Bulletin 17B Appendix 12 example, as quoted in
   // science.md §7.5 A, a). Station statistics of the log10 peaks: science.md §8 #38 (c, computed).
-  const fishkill = [
-    2290, 1470, 2220, 2970, 3020, 1210, 2490, 3170, 3220, 1760, 8800, 8280, 1310, 2500, 1960, 2140, 4340, 3060, 1780, 1380, 980, 1040, 1580,
-    3630,
-  ];
+  const fishkill = [2290, 1470, 2220, 2970, 3020, 1210, 2490, 3170, 3220, 1760, 8800, 8280, 1310, 2500, 1960, 2140, 4340, 3060, 1780, 1380, 980, 1040, 1580, 3630];
   it('fits the Fishkill Creek record', async () => {
     const res = await request(t.app).post('/api/v1/calc/flood-frequency').send({ annualPeaks: fishkill }).expect(200);
     expect(res.body.n).toBe(24);
@@ -150,9 +112,7 @@ describe('POST /api/v1/calc/flood-frequency', () => {
     expect(res.body.lp3.weightedSkew).toBeCloseTo(0.668, 3);
   });
   it('refuses a zero peak, naming the field', async () => {
-    const res = await request(t.app)
-      .post('/api/v1/calc/flood-frequency')
-      .send({ annualPeaks: [10, 0, 30] });
+    const res = await request(t.app).post('/api/v1/calc/flood-frequency').send({ annualPeaks: [10, 0, 30] });
     expect([400, 422]).toContain(res.status);
     expect(res.body.error.message).toMatch(/annualPeaks/);
   });
@@ -160,30 +120,18 @@ describe('POST /api/v1/calc/flood-frequency', () => {
 
 describe('POST /api/v1/calc/flow-record', () => {
   it('reports row problems with row numbers and returns annual peaks by water year', async () => {
-    const csv = ['date,discharge', '2020-09-30,5', '2020-10-01,7', 'bad-date,3', '2020-10-02,-1', '2021-03-01,40', '2021-10-05,12'].join(
-      '\n',
-    );
-    const res = await request(t.app)
-      .post('/api/v1/calc/flow-record?units=m3s&waterYearStart=10-01')
-      .set('Content-Type', 'text/csv')
-      .send(csv)
-      .expect(200);
+    const csv = ['date,discharge', '2020-09-30,5', '2020-10-01,7', 'bad-date,3', '2020-10-02,-1', '2021-03-01,40', '2021-10-05,12'].join('\n');
+    const res = await request(t.app).post('/api/v1/calc/flow-record?units=m3s&waterYearStart=10-01').set('Content-Type', 'text/csv').send(csv).expect(200);
     expect(res.body.rows).toBe(6);
     expect(res.body.problems.map((p: { row: number }) => p.row)).toEqual([4, 5]);
-    const byYear = Object.fromEntries(
-      res.body.annualPeaks.map((p: { waterYear: number; discharge: number }) => [p.waterYear, p.discharge]),
-    );
+    const byYear = Object.fromEntries(res.body.annualPeaks.map((p: { waterYear: number; discharge: number }) => [p.waterYear, p.discharge]));
     // Water year named for the year it ends in: 2020-10-01 … 2021-09-30 is water year 2021.
     expect(byYear[2020]).toBe(5);
     expect(byYear[2021]).toBe(40);
     expect(byYear[2022]).toBe(12);
   });
   it('converts cubic feet per second (1 ft³ = 0.028316846592 m³ exactly, international foot, a)', async () => {
-    const res = await request(t.app)
-      .post('/api/v1/calc/flow-record?units=cfs')
-      .set('Content-Type', 'text/csv')
-      .send('2021-01-01,1000\n')
-      .expect(200);
+    const res = await request(t.app).post('/api/v1/calc/flow-record?units=cfs').set('Content-Type', 'text/csv').send('2021-01-01,1000\n').expect(200);
     expect(res.body.annualPeaks[0].discharge).toBeCloseTo(28.316846592, 9);
   });
   it('asks for CSV when the body is JSON', async () => {

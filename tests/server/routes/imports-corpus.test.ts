@@ -45,10 +45,7 @@ async function post(entry: Entry, folder: string) {
   const role = entry.kind === 'zone' ? 'regulator' : 'grower';
   const { agent } = await signIn(t.app, `${role}@brackline.test`);
   const before = await counts(t);
-  const res = await agent
-    .post('/api/v1/imports')
-    .field('kind', entry.kind)
-    .attach('file', readFileSync(path.join(DIR, folder, entry.file)), entry.file);
+  const res = await agent.post('/api/v1/imports').field('kind', entry.kind).attach('file', readFileSync(path.join(DIR, folder, entry.file)), entry.file);
   return { t, agent, before, res };
 }
 
@@ -107,16 +104,13 @@ describe('files without a usable coordinate system stop at the CRS step', () => 
 });
 
 describe('files read with warnings or repairs', () => {
-  it.each([...manifest('warnings').filter((e) => !e.expectedBbox), ...manifest('repairable'), ...manifest('good')].map((e) => [e.file, e]))(
-    '%s',
-    async (_name, entry) => {
-      const e = entry as Entry;
-      const folder = ['warnings', 'repairable', 'good'].find((f) => manifest(f).some((m) => m.file === e.file))!;
-      const { res } = await post(e, folder);
-      expect(res.status, res.body?.error?.message).toBe(201);
-      if (e.expectFeatureCount) expect(res.body.featureCount).toBe(e.expectFeatureCount);
-      if (e.expectWarning) expect(res.body.warnings.join(' ')).toMatch(new RegExp(e.expectWarning));
-      if (folder === 'repairable') expect(res.body.features.some((f: { repaired: boolean }) => f.repaired)).toBe(true);
-    },
-  );
+  it.each([...manifest('warnings').filter((e) => !e.expectedBbox), ...manifest('repairable'), ...manifest('good')].map((e) => [e.file, e]))('%s', async (_name, entry) => {
+    const e = entry as Entry;
+    const folder = ['warnings', 'repairable', 'good'].find((f) => manifest(f).some((m) => m.file === e.file))!;
+    const { res } = await post(e, folder);
+    expect(res.status, res.body?.error?.message).toBe(201);
+    if (e.expectFeatureCount) expect(res.body.featureCount).toBe(e.expectFeatureCount);
+    if (e.expectWarning) expect(res.body.warnings.join(' ')).toMatch(new RegExp(e.expectWarning));
+    if (folder === 'repairable') expect(res.body.features.some((f: { repaired: boolean }) => f.repaired)).toBe(true);
+  });
 });

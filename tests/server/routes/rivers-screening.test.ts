@@ -63,9 +63,7 @@ describe('rivers', () => {
   });
 
   it('a user of no jurisdiction does not see the region’s rivers', async () => {
-    await request(t.app)
-      .post('/api/v1/account/sign-up')
-      .send({ name: 'Elsewhere', email: 'elsewhere@brackline.test', password: 'elsewhere-pw-1' });
+    await request(t.app).post('/api/v1/account/sign-up').send({ name: 'Elsewhere', email: 'elsewhere@brackline.test', password: 'elsewhere-pw-1' });
     const other = (await signIn(t.app, 'elsewhere@brackline.test', 'elsewhere-pw-1')).agent;
     await other.get(`/api/v1/rivers/${amberlinId}`).expect(404);
   });
@@ -73,18 +71,11 @@ describe('rivers', () => {
 
 describe('flow records and scenarios', () => {
   it('reports row problems and stores nothing until the user accepts them', async () => {
-    const river = await adviser
-      .post('/api/v1/rivers')
-      .send({ ...newRiver, name: 'Messy Brook' })
-      .expect(201);
+    const river = await adviser.post('/api/v1/rivers').send({ ...newRiver, name: 'Messy Brook' }).expect(201);
     const csv = readFileSync(path.resolve(import.meta.dirname, '../../../demo-data/flows/tolley-brook-daily.csv'), 'utf8').split('\n');
     csv.splice(100, 0, '1991-01-05,abc', 'not-a-date,5', '1991-01-07,-3');
     const messy = csv.join('\n');
-    const refused = await adviser
-      .post(`/api/v1/rivers/${river.body.id}/flow-records?units=m3s`)
-      .set('Content-Type', 'text/csv')
-      .send(messy)
-      .expect(422);
+    const refused = await adviser.post(`/api/v1/rivers/${river.body.id}/flow-records?units=m3s`).set('Content-Type', 'text/csv').send(messy).expect(422);
     expect(refused.body.error.message).toMatch(/3 of \d+ rows have problems/);
     expect(refused.body.error.details.problems.map((p: { row: number }) => p.row)).toEqual([101, 102, 103]);
     expect(refused.body.error.details.problems[0].reason).toMatch(/not a number/);
@@ -99,26 +90,18 @@ describe('flow records and scenarios', () => {
     expect(accepted.body.problems).toHaveLength(3);
     expect(accepted.body.fit.n).toBe(35);
     const scenarios = await adviser.get(`/api/v1/rivers/${river.body.id}/scenarios`).expect(200);
-    const aeps = scenarios.body.items
-      .filter((s: { kind: string }) => s.kind === 'aep')
-      .map((s: { aep: number }) => s.aep)
-      .sort();
+    const aeps = scenarios.body.items.filter((s: { kind: string }) => s.kind === 'aep').map((s: { aep: number }) => s.aep).sort();
     expect(aeps).toEqual([0.01, 0.02, 0.04, 0.1, 0.2, 0.5]);
     expect(scenarios.body.items.filter((s: { kind: string }) => s.kind === 'seasonal')).toHaveLength(4);
   });
 
   it('adds, edits and deletes a typed scenario; fitted ones cannot be deleted', async () => {
-    const created = await regulator
-      .post(`/api/v1/rivers/${amberlinId}/scenarios`)
-      .send({ name: 'Storm of record', discharge: 3200, durationHours: 96 })
-      .expect(201);
+    const created = await regulator.post(`/api/v1/rivers/${amberlinId}/scenarios`).send({ name: 'Storm of record', discharge: 3200, durationHours: 96 }).expect(201);
     expect(created.body.kind).toBe('manual');
     const edited = await regulator.patch(`/api/v1/scenarios/${created.body.id}`).send({ durationHours: 72 }).expect(200);
     expect(edited.body.durationHours).toBe(72);
     await regulator.delete(`/api/v1/scenarios/${created.body.id}`).expect(204);
-    const fitted = (await regulator.get(`/api/v1/rivers/${amberlinId}/scenarios`)).body.items.find(
-      (s: { kind: string }) => s.kind === 'aep',
-    );
+    const fitted = (await regulator.get(`/api/v1/rivers/${amberlinId}/scenarios`)).body.items.find((s: { kind: string }) => s.kind === 'aep');
     const refused = await regulator.delete(`/api/v1/scenarios/${fitted.id}`).expect(403);
     expect(refused.body.error.message).toMatch(/upload a new record/);
   });
@@ -138,9 +121,7 @@ describe('screening the demo region', () => {
   });
 
   it('loads the demo monitoring stations and samples, keeping detection limits as censored values', async () => {
-    const r = await t.db.pool.query(
-      'select (select count(*) from stations)::int as stations, (select count(*) from samples)::int as samples, (select count(*) from samples where indicator_censored is not null)::int as censored',
-    );
+    const r = await t.db.pool.query("select (select count(*) from stations)::int as stations, (select count(*) from samples)::int as samples, (select count(*) from samples where indicator_censored is not null)::int as censored");
     expect(r.rows[0].stations).toBe(8);
     expect(r.rows[0].samples).toBe(309);
     expect(r.rows[0].censored).toBe(22);
@@ -187,9 +168,7 @@ describe('screening the demo region', () => {
     expect(sweep.body.curve.length).toBe(60);
     const flows = sweep.body.curve.map((p: { discharge: number }) => p.discharge);
     expect([...flows].sort((a, b) => a - b)).toEqual(flows);
-    const enters = Object.fromEntries(
-      sweep.body.bands.map((b: { bandId: string; entersAtDischarge: number | null }) => [b.bandId, b.entersAtDischarge]),
-    );
+    const enters = Object.fromEntries(sweep.body.bands.map((b: { bandId: string; entersAtDischarge: number | null }) => [b.bandId, b.entersAtDischarge]));
     // Any river water arrives no later than water fresh enough to harm the species.
     const plumeEdge = enters['plume-edge'];
     for (const [id, q] of Object.entries(enters)) if (q !== null && id.startsWith('salinity')) expect(plumeEdge).not.toBeNull();
@@ -202,14 +181,11 @@ describe('screening the demo region', () => {
   });
 
   it('serves lease vector tiles', async () => {
-    const res = await regulator
-      .get('/api/v1/tiles/leases/10/402/383.mvt')
-      .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+    const res = await regulator.get('/api/v1/tiles/leases/10/402/383.mvt').buffer(true).parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/vnd.mapbox-vector-tile/);
     expect((res.body as Buffer).length).toBeGreaterThan(100);
