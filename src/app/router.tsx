@@ -40,6 +40,8 @@ export function createRouter() {
         { path: '/admin/people', lazy: () => import('../features/admin/components/people-page').then((m) => ({ Component: m.PeoplePage })), errorElement: <RouteError /> },
         { path: '/admin/outbox', lazy: () => import('../features/admin/components/outbox-page').then((m) => ({ Component: m.OutboxPage })), errorElement: <RouteError /> },
         { path: '/admin/audit', lazy: () => import('../features/admin/components/audit-page').then((m) => ({ Component: m.AuditPage })), errorElement: <RouteError /> },
+        { path: '/plan', lazy: () => import('../features/billing/components/plan-page').then((m) => ({ Component: m.PlanPage })), errorElement: <RouteError /> },
+        { path: '/alerts', lazy: () => import('../features/alerts/components/alerts-page').then((m) => ({ Component: m.AlertsPage })), errorElement: <RouteError /> },
         { path: '*', element: <NotFoundPage /> },
       ],
     },

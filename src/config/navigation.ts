@@ -16,6 +16,8 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/map', label: 'Exposure map' },
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
+    { to: '/alerts', label: 'Alerts' },
+    { to: '/plan', label: 'Plan' },
   ],
   adviser: [
     { to: '/', label: 'Overview' },
@@ -23,6 +25,8 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/map', label: 'Exposure map' },
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
+    { to: '/alerts', label: 'Alerts' },
+    { to: '/plan', label: 'Plan' },
   ],
   regulator: [
     { to: '/', label: 'Overview' },
@@ -30,6 +34,8 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/map', label: 'Exposure map' },
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
+    { to: '/alerts', label: 'Alerts' },
+    { to: '/plan', label: 'Plan' },
   ],
   admin: [
     { to: '/', label: 'Overview' },
