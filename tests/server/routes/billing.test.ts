@@ -104,6 +104,26 @@ describe('Alerts plan', () => {
     await adviser.post('/api/v1/billing/portal').expect(422);
   });
 
+  it('cancelling at the end of the period on the billing page keeps alerts until then; keeping the plan undoes it', async () => {
+    const { url } = (await grower.post('/api/v1/billing/portal').expect(200)).body;
+    const sub = (await fakeApi<{ data: { id: string }[] }>('/v1/subscriptions')).data[0];
+    const act = (action: string) =>
+      fetch(`${url}/subscriptions/${sub.id}`, { method: 'POST', body: new URLSearchParams({ action }), redirect: 'manual' });
+    expect((await act('cancel-at-period-end')).status).toBe(303);
+    const ending = await waitFor(
+      'cancel at period end',
+      () => plan(grower),
+      (p) => p.cancelAtPeriodEnd,
+    );
+    expect(ending).toMatchObject({ plan: 'alerts', status: 'active', alertsAllowed: true });
+    expect((await act('keep')).status).toBe(303);
+    await waitFor(
+      'the plan kept',
+      () => plan(grower),
+      (p) => !p.cancelAtPeriodEnd,
+    );
+  });
+
   it('refuses forged, tampered and stale webhooks', async () => {
     const base = await t.listen();
     const [event] = (await fakeApi<{ data: { id: string }[] }>('/v1/events?type=customer.subscription.created')).data;
