@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import {
   alertListSchema,
+  alertZoneListSchema,
   forecastResultSchema,
   forecastSchema,
   ruleCreateSchema,
@@ -22,6 +23,16 @@ export function registerAlertRoutes(ctx: RouteContext, alerts: AlertsService): v
     access: { roles: ALERT_ROLES },
     response: ruleListSchema,
     handler: ({ user }) => alerts.listRules(user!),
+  });
+
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/alert-rules/zones',
+    summary: 'Closure zones of your jurisdiction you can set trigger alerts on (regulators; free)',
+    tags: ['alerts'],
+    access: { roles: ['regulator'] },
+    response: alertZoneListSchema,
+    handler: ({ user }) => alerts.zones(user!),
   });
 
   defineRoute(ctx, {

@@ -50,7 +50,6 @@ export function mountBillingWebhook(app: Express, ctx: RouteContext, billing: Bi
     path,
     summary: 'Payment service events (signed with the webhook secret; each event id is processed once)',
     tags: ['billing'],
-    request: { headers: undefined },
     responses: {
       200: { description: 'Received', content: { 'application/json': { schema: webhookAckSchema } } },
       400: { description: 'Signature missing, forged, tampered or too old' },

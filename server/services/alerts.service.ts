@@ -259,6 +259,14 @@ export function createAlertsService(deps: {
     });
   }
 
+  /** Closure zones of the regulator's jurisdiction, with their river and trigger flow. */
+  async function zones(user: CurrentUser) {
+    const r = await db.execute<{ id: string; name: string; river_name: string | null; trigger_flow: number | null }>(sql`
+      SELECT z.id, z.name, rv.name AS river_name, z.trigger_flow FROM closure_zones z LEFT JOIN rivers rv ON rv.id = z.river_id
+       WHERE z.jurisdiction_id = ${user.jurisdictionId}::uuid ORDER BY z.name`);
+    return { items: r.rows.map((z) => ({ id: z.id, name: z.name, riverName: z.river_name, triggerFlow: z.trigger_flow })) };
+  }
+
   async function listAlerts(user: CurrentUser, limit = 100) {
     const r = await db.execute<AlertRow>(sql`SELECT * FROM alerts WHERE user_id = ${user.id} ORDER BY created_at DESC LIMIT ${limit}`);
     return { items: r.rows.map(toAlert) };
@@ -429,7 +437,7 @@ export function createAlertsService(deps: {
     );
   }
 
-  return { listRules, createRule, deleteRule, listAlerts, evaluateReadings, forecast, sendEmail };
+  return { listRules, createRule, deleteRule, listAlerts, zones, evaluateReadings, forecast, sendEmail };
 }
 
 export type AlertsService = ReturnType<typeof createAlertsService>;

@@ -89,3 +89,19 @@ export const ALERT_CAUTIONS = [
   'Wind, tides, ambient currents, stratification and other rivers change where a plume goes.',
   "Follow local regulations and the authority's notices before harvesting.",
 ] as const;
+
+/** Closure zones a regulator can set trigger alerts on. */
+export const alertZoneListSchema = z.object({
+  items: z.array(z.object({ id: z.string(), name: z.string(), riverName: z.string().nullable(), triggerFlow: z.number().nullable() })),
+});
+export type AlertZone = z.infer<typeof alertZoneListSchema>['items'][number];
+
+/** The zone-rule form on the alerts screen (approach as a percentage of the trigger). */
+export const zoneRuleFormSchema = z.object({
+  zoneId: z.uuid({ error: 'Choose a closure zone' }),
+  approachPercent: z.coerce
+    .number({ error: 'Give the approach level as a percentage of the trigger flow' })
+    .min(30, { error: 'The approach level must be at least 30 % of the trigger flow' })
+    .max(99, { error: 'The approach level must be below 100 % (the trigger itself)' }),
+});
+export type ZoneRuleForm = z.infer<typeof zoneRuleFormSchema>;

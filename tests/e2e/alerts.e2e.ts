@@ -26,6 +26,7 @@ beforeAll(async () => {
   await pool.query(`delete from alert_rules where user_id = ${grower}`);
   await pool.query(`delete from inbox_messages where kind = 'alert' and user_id = ${grower}`);
   await pool.query(`delete from outbox_messages where envelope_to @> '["grower@brackline.test"]'::jsonb`);
+  await pool.query(`delete from alert_rules where user_id = (select id from users where email = 'regulator@brackline.test')`);
 });
 afterAll(async () => {
   await pool?.end();
@@ -105,4 +106,25 @@ describe('a grower buys the Alerts plan and gets an alert from the gauge feed', 
     expect(errors).toEqual([]);
     await page.close();
   }, 120_000);
+
+  it('a regulator sets a free closure-zone alert', async () => {
+    await browser().clearCookies();
+    const page = await browser().newPage();
+    const errors = watchErrors(page);
+    await signInThroughForm(page, baseUrl, 'regulator@brackline.test', DEMO_PASSWORD);
+    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Alerts' }).click();
+    const form = page.getByRole('form', { name: 'New closure-zone alert' });
+    const zone = form.getByLabel('Closure zone');
+    await zone.locator('option:not([disabled])').nth(1).waitFor({ state: 'attached' });
+    const value = await zone.locator('option:not([disabled])').nth(1).getAttribute('value');
+    await zone.selectOption(value!);
+    await form.getByLabel('Approaching at (% of the trigger)').fill('75');
+    await form.getByRole('button', { name: 'Set alert' }).click();
+    await page.getByText(/Closure zone .*: trigger flow/).waitFor();
+    await page.getByText(/approaching from/).waitFor();
+    await screenshot(page, 'alerts-5-regulator-zone');
+    expect(errors).toEqual([]);
+    await page.close();
+  });
 });

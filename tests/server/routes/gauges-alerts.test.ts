@@ -205,6 +205,9 @@ describe('alerts', () => {
     );
     const { id: zoneId, name, trigger_flow: trigger } = zone.rows[0];
     await grower.post('/api/v1/alert-rules').send({ kind: 'zone', zoneId }).expect(403);
+    const listed = (await regulator.get('/api/v1/alert-rules/zones').expect(200)).body.items;
+    expect(listed.find((z: { id: string }) => z.id === zoneId)).toMatchObject({ name, triggerFlow: trigger });
+    await grower.get('/api/v1/alert-rules/zones').expect(403);
     const zr = await regulator.post('/api/v1/alert-rules').send({ kind: 'zone', zoneId, approachFraction: 0.8 }).expect(201);
     expect(zr.body).toMatchObject({ kind: 'zone', zoneName: name, thresholdFlow: trigger, approachFlow: trigger * 0.8 });
     const post = (time: string, discharge: number) =>

@@ -1,5 +1,5 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { Alert, AlertRule, RuleCreate } from '#shared/schemas/alerts';
+import type { Alert, AlertRule, AlertZone, RuleCreate } from '#shared/schemas/alerts';
 import type { Gauge } from '#shared/schemas/gauges';
 import { api } from '../../../lib/api-client';
 
@@ -19,6 +19,8 @@ export const alertKeys = {
       queryKey: [...alertKeys.all, 'leases'] as const,
       queryFn: () => api<{ items: { id: string; leaseId: string }[] }>('/leases?limit=1000&withGeometry=false&sort=leaseId&order=asc'),
     }),
+  zones: () =>
+    queryOptions({ queryKey: [...alertKeys.all, 'zones'] as const, queryFn: () => api<{ items: AlertZone[] }>('/alert-rules/zones') }),
   rivers: () =>
     queryOptions({
       queryKey: [...alertKeys.all, 'rivers'] as const,

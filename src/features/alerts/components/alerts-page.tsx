@@ -3,8 +3,10 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useId, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
-import type { Alert, AlertRule, LeaseRuleForm } from '#shared/schemas/alerts';
-import { leaseRuleFormSchema } from '#shared/schemas/alerts';
+import type { z } from 'zod';
+import type { Alert, AlertRule, LeaseRuleForm, ZoneRuleForm } from '#shared/schemas/alerts';
+import { leaseRuleFormSchema, zoneRuleFormSchema } from '#shared/schemas/alerts';
+import { TextField } from '../../../components/ui/text-field';
 import { Button } from '../../../components/ui/button';
 import { Cautions } from '../../../components/ui/cautions';
 import { Notice } from '../../../components/ui/notice';
@@ -142,6 +144,65 @@ function NewLeaseRule({ allowed }: { allowed: boolean }) {
           <LoadError error={sweep.error} />
         </div>
       )}
+      {create.isError && (
+        <div className="mt-3">
+          <Notice tone="problem" title="The alert was not set">
+            {(create.error as Error).message}
+          </Notice>
+        </div>
+      )}
+    </section>
+  );
+}
+
+function NewZoneRule() {
+  const queryClient = useQueryClient();
+  const zones = useQuery(alertKeys.zones());
+  const form = useForm<ZoneRuleForm>({
+    resolver: zodResolver(zoneRuleFormSchema) as never,
+    defaultValues: { zoneId: '', approachPercent: 80 },
+  });
+  const create = useMutation({
+    mutationFn: (v: ZoneRuleForm) => createRule({ kind: 'zone', zoneId: v.zoneId, approachFraction: v.approachPercent / 100 }),
+    onSuccess: () => {
+      form.reset({ zoneId: '', approachPercent: 80 });
+      void queryClient.invalidateQueries({ queryKey: alertKeys.all });
+    },
+  });
+  return (
+    <section aria-labelledby="new-zone-h" className="rounded-lg border border-sand-300 bg-white p-4">
+      <h2 id="new-zone-h" className="font-bold text-deep-900">
+        New closure-zone alert
+      </h2>
+      <p className="mt-1 text-sm text-shell-700">
+        You are alerted when the zone's gauge approaches its trigger flow, and again when it passes it. Free for regulators.
+      </p>
+      {zones.isError && <LoadError error={zones.error} retry={() => void zones.refetch()} />}
+      <form
+        aria-label="New closure-zone alert"
+        noValidate
+        className="mt-3 flex flex-wrap items-end gap-3"
+        onSubmit={form.handleSubmit((v) => create.mutate(v))}
+      >
+        <Select label="Closure zone" {...form.register('zoneId')} error={form.formState.errors.zoneId?.message}>
+          <option value="">{zones.isPending ? 'Loading zones…' : 'Choose a zone'}</option>
+          {zones.data?.items.map((z) => (
+            <option key={z.id} value={z.id} disabled={z.triggerFlow === null}>
+              {z.name} — {z.triggerFlow === null ? 'no trigger flow set' : `${z.riverName ?? ''} trigger ${flow(z.triggerFlow)}`}
+            </option>
+          ))}
+        </Select>
+        <TextField
+          label="Approaching at (% of the trigger)"
+          inputMode="numeric"
+          className="w-64"
+          {...form.register('approachPercent')}
+          error={form.formState.errors.approachPercent?.message}
+        />
+        <Button type="submit" disabled={create.isPending}>
+          {create.isPending ? 'Saving…' : 'Set alert'}
+        </Button>
+      </form>
       {create.isError && (
         <div className="mt-3">
           <Notice tone="problem" title="The alert was not set">
@@ -300,19 +361,31 @@ export function AlertsPage() {
       <PageHeader title="Alerts" question="Which river flows should warn you, and what has been sent?" />
       {plan.isPending && <Loading what="Checking your plan…" />}
       {plan.isError && <LoadError error={plan.error} retry={() => void plan.refetch()} />}
-      {plan.data && !plan.data.alertsAllowed && (
+      {plan.data && !plan.data.alertsAllowed && plan.data.zoneAlertsFree && (
+        <Notice title="Closure-zone alerts are free for regulators">
+          <p>
+            Lease alerts are part of the Alerts plan;{' '}
+            <Link to="/plan" className="font-semibold underline">
+              see the Plan page
+            </Link>{' '}
+            if you want them too.
+          </p>
+        </Notice>
+      )}
+      {plan.data && !plan.data.alertsAllowed && !plan.data.zoneAlertsFree && (
         <Notice title="Lease alerts are part of the Alerts plan">
           <p>
             You are on the Free plan (screening and reports).{' '}
             <Link to="/plan" className="font-semibold underline">
               Choose the Alerts plan
             </Link>{' '}
-            to set lease alerts.{plan.data.zoneAlertsFree ? ' Closure-zone alerts are free for regulators.' : ''}
+            to set lease alerts.
           </p>
         </Notice>
       )}
       <Gauges />
-      {plan.data && <NewLeaseRule allowed={plan.data.alertsAllowed} />}
+      {plan.data?.zoneAlertsFree && <NewZoneRule />}
+      {plan.data && (plan.data.alertsAllowed || !plan.data.zoneAlertsFree) && <NewLeaseRule allowed={plan.data.alertsAllowed} />}
       <Rules />
       <SentAlerts />
       <Cautions compact />
