@@ -158,8 +158,8 @@ function NewLeaseRule({ allowed }: { allowed: boolean }) {
 function NewZoneRule() {
   const queryClient = useQueryClient();
   const zones = useQuery(alertKeys.zones());
-  const form = useForm<ZoneRuleForm>({
-    resolver: zodResolver(zoneRuleFormSchema) as never,
+  const form = useForm<z.input<typeof zoneRuleFormSchema>, unknown, ZoneRuleForm>({
+    resolver: zodResolver(zoneRuleFormSchema),
     defaultValues: { zoneId: '', approachPercent: 80 },
   });
   const create = useMutation({
