@@ -7,6 +7,11 @@ export PORT="${PORT:-3000}"
 export SMTP_FAKE_PORT="${SMTP_FAKE_PORT:-2525}"
 export SMTP_URL="${SMTP_URL:-smtp://127.0.0.1:$SMTP_FAKE_PORT}"
 export APP_URL="${APP_URL:-http://127.0.0.1:$PORT}"
+# Paid alerts plan: the local payment fake and gauge feed (server/env.ts names them).
+export PAYMENT_FAKE_PORT="${PAYMENT_FAKE_PORT:-3010}"
+export PAYMENT_API_URL="${PAYMENT_API_URL:-http://127.0.0.1:$PAYMENT_FAKE_PORT}"
+export GAUGE_FEED_PORT="${GAUGE_FEED_PORT:-3011}"
+export GAUGE_FEED_URL="${GAUGE_FEED_URL:-http://127.0.0.1:$GAUGE_FEED_PORT}"
 export NODE_ENV="${NODE_ENV:-development}"
 
 if port_in_use "$PORT"; then
@@ -14,6 +19,15 @@ if port_in_use "$PORT"; then
 fi
 if port_in_use "$SMTP_FAKE_PORT"; then
   fail "Port $SMTP_FAKE_PORT (the local e-mail fake) is in use: is Brackline already running? Stop it, or choose another port: SMTP_FAKE_PORT=2526 npm start"
+fi
+
+if [ "${START_FAKES:-true}" != "false" ]; then
+  if port_in_use "$PAYMENT_FAKE_PORT"; then
+    fail "Port $PAYMENT_FAKE_PORT (the local payment fake) is in use: is Brackline already running? Stop it, or choose another port: PAYMENT_FAKE_PORT=3020 npm start"
+  fi
+  if port_in_use "$GAUGE_FEED_PORT"; then
+    fail "Port $GAUGE_FEED_PORT (the local gauge feed) is in use: is Brackline already running? Stop it, or choose another port: GAUGE_FEED_PORT=3021 npm start"
+  fi
 fi
 
 ensure_node_modules

@@ -41,6 +41,13 @@ import { createLeasesService } from './services/leases.service';
 import { createMonitoringService } from './services/monitoring.service';
 import { createSharingService } from './services/sharing.service';
 import { DEFAULT_UPLOAD_LIMITS, type UploadLimits } from '#shared/geometry/upload-limits';
+import { type AlertJobs, createInlineAlertJobs } from './jobs/alert-jobs';
+import { registerAlertRoutes } from './routes/alerts.routes';
+import { mountBillingWebhook, registerBillingRoutes } from './routes/billing.routes';
+import { registerGaugeRoutes } from './routes/gauges.routes';
+import { createAlertsService } from './services/alerts.service';
+import { createBillingService } from './services/billing.service';
+import { createGaugesService } from './services/gauges.service';
 
 export interface AppDeps {
   env: Env;
@@ -52,6 +59,8 @@ export interface AppDeps {
   uploadLimits?: Partial<UploadLimits>;
   /** Background screening; inline (at once, in the request) when not given. */
   jobs?: ScreeningJobs;
+  /** Alert evaluation, alert e-mails and the gauge feed poll (pg-boss); inline (after each commit) when not given. */
+  alertJobs?: AlertJobs;
 }
 
 const API_BASE = '/api/v1';
@@ -141,6 +150,24 @@ export function createApp(deps: AppDeps): Express {
   registerClientRoutes(ctx, createClientsService({ db, mailer, appUrl: env.APP_URL }));
   registerScreeningRoutes(ctx, db, rivers, screening, createSweepService({ db, screening }));
   registerMonitoringRoutes(ctx, createMonitoringService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) }));
+  // Paid alerts plan: billing (its webhook reads the raw body, so it is mounted before the API router), gauges, alerts.
+  const billing = createBillingService({
+    db,
+    config: { apiUrl: env.PAYMENT_API_URL, secretKey: env.PAYMENT_SECRET_KEY, webhookSecret: env.PAYMENT_WEBHOOK_SECRET, priceLookupKey: env.PAYMENT_PRICE_LOOKUP_KEY, appUrl: env.APP_URL },
+  });
+  mountBillingWebhook(app, ctx, billing);
+  registerBillingRoutes(ctx, billing);
+  const alertJobs = deps.alertJobs ?? createInlineAlertJobs(deps.db.pool);
+  const gauges = createGaugesService({ db, jobs: alertJobs, feedUrl: env.GAUGE_FEED_URL });
+  registerGaugeRoutes(ctx, gauges);
+  const alerts = createAlertsService({ db, pool: deps.db.pool, jobs: alertJobs, billing, sweeps: createSweepService({ db, screening }), mailer, appUrl: env.APP_URL });
+  registerAlertRoutes(ctx, alerts);
+  /** Resolves once the alert workers are registered (index.ts and tests await it). */
+  app.locals.alertsReady = alertJobs.attach({
+    evaluate: (ids) => alertJobs.transaction(async (client, enqueue) => void (await alerts.evaluateReadings(client, enqueue, ids))),
+    email: (id, final) => alerts.sendEmail(id, final),
+    pollFeed: async () => void (await gauges.pollFeed()),
+  });
 
   const openApi = buildOpenApiDocument(registry);
   router.get('/openapi.json', (_req, res) => {

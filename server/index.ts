@@ -10,6 +10,9 @@ import { startSmtpFake, type SmtpFake } from './fakes/smtp-fake';
 import { logger } from './lib/logger';
 import { createMailer } from './mail/mailer';
 import { createPgBossScreeningJobs } from './jobs/screening-jobs';
+import { createPgBossAlertJobs } from './jobs/alert-jobs';
+import { type GaugeFeed, startGaugeFeed } from './fakes/gauge-feed';
+import { type PaymentFake, startPaymentFake } from './fakes/payment-fake';
 import { createScreeningService } from './services/screening.service';
 
 async function main() {
@@ -36,11 +39,48 @@ async function main() {
       process.exit(1);
     }
   }
+  // The payment fake and the gauge feed (paid alerts plan), each on its own loopback port.
+  let payment: PaymentFake | undefined;
+  let feed: GaugeFeed | undefined;
+  if (process.env.START_FAKES !== 'false') {
+    const started = async <T>(what: string, variable: string, port: number, start: () => Promise<T>): Promise<T> => {
+      try {
+        return await start();
+      } catch (err) {
+        const code = (err as NodeJS.ErrnoException).code;
+        console.error(
+          code === 'EADDRINUSE'
+            ? `[brackline] Port ${port} (${what}) is in use. Is Brackline already running? Stop it, or set ${variable} to another port.`
+            : `[brackline] ${what} could not start: ${(err as Error).message}`,
+        );
+        process.exit(1);
+      }
+    };
+    payment = await started('the local payment fake', 'PAYMENT_FAKE_PORT and PAYMENT_API_URL', env.PAYMENT_FAKE_PORT, () =>
+      startPaymentFake({
+        port: env.PAYMENT_FAKE_PORT,
+        secretKey: env.PAYMENT_SECRET_KEY,
+        webhookSecret: env.PAYMENT_WEBHOOK_SECRET,
+        webhookUrl: `http://${env.HOST}:${env.PORT}/api/v1/billing/webhook`,
+      }),
+    );
+    feed = await started('the local gauge feed', 'GAUGE_FEED_PORT and GAUGE_FEED_URL', env.GAUGE_FEED_PORT, () =>
+      startGaugeFeed({ port: env.GAUGE_FEED_PORT }),
+    );
+  }
   // Screening runs in pg-boss workers on the same PostgreSQL (WORKERS=false leaves it to other processes).
   const jobs = await createPgBossScreeningJobs(env.DATABASE_URL, dbHandle.db, createScreeningService({ db: dbHandle.db }), {
     work: process.env.WORKERS !== 'false',
   });
-  const app = createApp({ env, db: dbHandle, mailer, uploadLimits: uploadLimitsFromEnv(), jobs });
+  const alertJobs = await createPgBossAlertJobs(env.DATABASE_URL, dbHandle.pool, {
+    retryDelaySeconds: env.ALERT_RETRY_DELAY_SECONDS,
+    retryLimit: env.ALERT_RETRY_LIMIT,
+    feedPollSeconds: env.GAUGE_FEED_POLL_SECONDS,
+    work: process.env.WORKERS !== 'false',
+    pollFeed: true,
+  });
+  const app = createApp({ env, db: dbHandle, mailer, uploadLimits: uploadLimitsFromEnv(), jobs, alertJobs });
+  await app.locals.alertsReady;
   const server: Server = app.listen(env.PORT, env.HOST);
   server.on('error', (err: NodeJS.ErrnoException) => {
     console.error(
@@ -54,6 +94,8 @@ async function main() {
     logger.info({ url: `http://${env.HOST}:${env.PORT}` }, 'listening');
     console.log(`\n[brackline] Brackline is running at http://${env.HOST}:${env.PORT}`);
     if (smtp) console.log(`[brackline] Local e-mail fake on smtp://127.0.0.1:${smtp.port} (see Admin → Outbox)`);
+    if (payment) console.log(`[brackline] Local payment fake on ${payment.url} (test card 4242 4242 4242 4242)`);
+    if (feed) console.log(`[brackline] Local gauge feed on ${feed.url} (polled every ${env.GAUGE_FEED_POLL_SECONDS} s)`);
   });
 
   let closing = false;
@@ -65,6 +107,9 @@ async function main() {
     force.unref();
     server.close(async () => {
       await jobs.stop().catch(() => undefined);
+      await alertJobs.stop().catch(() => undefined);
+      await payment?.stop();
+      await feed?.stop();
       await smtp?.stop();
       mailer.close();
       await dbHandle.pool.end();

@@ -689,3 +689,81 @@ export const clientInvitations = pgTable(
       .where(sql`status IN ('pending', 'accepted')`),
   ],
 );
+
+// Paid alerts plan (issue "Paid alerts plan"): billing accounts kept in step with the payment
+// service by signed webhooks (each event processed once), alert rules, and alerts with their
+// e-mail delivery state.
+
+export const billingAccounts = pgTable('billing_accounts', {
+  userId: text('user_id')
+    .primaryKey()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  customerId: text('customer_id').notNull().unique(),
+  subscriptionId: text('subscription_id'),
+  /** The payment service's subscription status ('none' before any subscription). */
+  status: text('status').notNull().default('none'),
+  cancelAtPeriodEnd: boolean('cancel_at_period_end').notNull().default(false),
+  currentPeriodEnd: timestamp('current_period_end', { withTimezone: true }),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** Webhook events already processed, by the payment service's event id. */
+export const billingEvents = pgTable('billing_events', {
+  id: text('id').primaryKey(),
+  type: text('type').notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull(),
+  processedAt: timestamp('processed_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+export const alertRules = pgTable(
+  'alert_rules',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ['lease', 'zone'] }).notNull(),
+    riverId: uuid('river_id')
+      .notNull()
+      .references(() => rivers.id, { onDelete: 'cascade' }),
+    leaseId: uuid('lease_id').references(() => leases.id, { onDelete: 'cascade' }),
+    zoneId: uuid('zone_id').references(() => closureZones.id, { onDelete: 'cascade' }),
+    /** Lease rules: the sweep band whose entry flow is the threshold. */
+    bandId: text('band_id'),
+    bandName: text('band_name'),
+    /** m³/s: a lease rule's band-entry flow, or a zone's trigger flow. */
+    thresholdFlow: doublePrecision('threshold_flow').notNull(),
+    /** Zone rules: "approaching" fires at this fraction of the trigger flow. */
+    approachFraction: doublePrecision('approach_fraction'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('alert_rules_river_idx').on(t.riverId), index('alert_rules_user_idx').on(t.userId)],
+);
+
+export const alerts = pgTable(
+  'alerts',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    ruleId: uuid('rule_id')
+      .notNull()
+      .references(() => alertRules.id, { onDelete: 'cascade' }),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    /** One alert per event per rule: e.g. "<rule>:enters:<gauge>:<time of the crossing reading>". */
+    dedupeKey: text('dedupe_key').notNull(),
+    level: text('level', { enum: ['enters', 'approaching', 'passing'] }).notNull(),
+    source: text('source', { enum: ['reading', 'forecast'] }).notNull(),
+    readingId: uuid('reading_id').references(() => gaugeReadings.id, { onDelete: 'set null' }),
+    discharge: doublePrecision('discharge').notNull(),
+    observedAt: timestamp('observed_at', { withTimezone: true }),
+    subject: text('subject').notNull(),
+    body: text('body').notNull(),
+    emailStatus: text('email_status', { enum: ['pending', 'sent', 'failed'] }).notNull().default('pending'),
+    emailAttempts: integer('email_attempts').notNull().default(0),
+    emailLastError: text('email_last_error'),
+    emailSentAt: timestamp('email_sent_at', { withTimezone: true }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('alerts_rule_dedupe_idx').on(t.ruleId, t.dedupeKey), index('alerts_user_idx').on(t.userId, t.createdAt)],
+);

@@ -46,6 +46,8 @@ export function createRouter() {
         { path: '/rivers/:id', lazy: () => import('../features/rivers/components/river-page').then((m) => ({ Component: m.RiverPage })), errorElement: <RouteError /> },
         { path: '/clients', lazy: () => import('../features/clients/components/clients-page').then((m) => ({ Component: m.ClientsPage })), errorElement: <RouteError /> },
         { path: '/advisers', lazy: () => import('../features/clients/components/advisers-page').then((m) => ({ Component: m.AdvisersPage })), errorElement: <RouteError /> },
+        { path: '/plan', lazy: () => import('../features/billing/components/plan-page').then((m) => ({ Component: m.PlanPage })), errorElement: <RouteError /> },
+        { path: '/alerts', lazy: () => import('../features/alerts/components/alerts-page').then((m) => ({ Component: m.AlertsPage })), errorElement: <RouteError /> },
         { path: '*', element: <NotFoundPage /> },
       ],
     },

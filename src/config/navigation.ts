@@ -19,6 +19,8 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/monitoring', label: 'Monitoring' },
     { to: '/rivers', label: 'Rivers' },
     { to: '/advisers', label: 'Advisers' },
+    { to: '/alerts', label: 'Alerts' },
+    { to: '/plan', label: 'Plan' },
   ],
   adviser: [
     { to: '/', label: 'Overview' },
@@ -29,6 +31,8 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/monitoring', label: 'Monitoring' },
     { to: '/rivers', label: 'Rivers' },
     { to: '/clients', label: 'Clients' },
+    { to: '/alerts', label: 'Alerts' },
+    { to: '/plan', label: 'Plan' },
   ],
   regulator: [
     { to: '/', label: 'Overview' },
@@ -38,6 +42,8 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/plume-calculator', label: 'Plume calculator' },
     { to: '/monitoring', label: 'Monitoring' },
     { to: '/rivers', label: 'Rivers' },
+    { to: '/alerts', label: 'Alerts' },
+    { to: '/plan', label: 'Plan' },
   ],
   admin: [
     { to: '/', label: 'Overview' },

@@ -9,8 +9,11 @@ import { createApp, type AppDeps } from '../../server/app';
 import { createDb, type DbHandle } from '../../server/db/client';
 import { runMigrations } from '../../server/db/migrate';
 import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
-import { loadEnv } from '../../server/env';
+import { type Env, loadEnv } from '../../server/env';
 import { type SmtpFake, startSmtpFake } from '../../server/fakes/smtp-fake';
+import { type PaymentFake, startPaymentFake } from '../../server/fakes/payment-fake';
+import type { Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { createMailer, type Mailer } from '../../server/mail/mailer';
 
 export { DEMO_PASSWORD };
@@ -20,8 +23,16 @@ export interface TestApp {
   db: DbHandle;
   smtp: SmtpFake;
   mailer: Mailer;
+  env: Env;
+  /** The local payment fake on a free port (the app's PAYMENT_API_URL points at it). */
+  payment: PaymentFake;
+  /** Listens on a free loopback port (for the fake's webhooks) and returns the base URL. */
+  listen(): Promise<string>;
   close(): Promise<void>;
 }
+
+export const TEST_WEBHOOK_SECRET = 'whsec_test_brackline_0123456789';
+export const TEST_PAYMENT_KEY = 'sk_test_brackline_0123456789';
 
 export function testDatabaseUrl(): string {
   const url = process.env.TEST_DATABASE_URL;
@@ -35,7 +46,11 @@ export async function createTestApp(overrides: Partial<Omit<AppDeps, 'env' | 'db
   const db = createDb(url, 5);
   await seedDemo(db.db);
   const smtp = await startSmtpFake(db.db, 0);
+  const payment = await startPaymentFake({ port: 0, secretKey: TEST_PAYMENT_KEY, webhookSecret: TEST_WEBHOOK_SECRET });
   const env = loadEnv({
+    PAYMENT_API_URL: payment.url,
+    PAYMENT_SECRET_KEY: TEST_PAYMENT_KEY,
+    PAYMENT_WEBHOOK_SECRET: TEST_WEBHOOK_SECRET,
     NODE_ENV: 'test',
     DATABASE_URL: url,
     AUTH_SECRET: 'test-secret-test-secret-test-secret-0123',
@@ -52,12 +67,28 @@ export async function createTestApp(overrides: Partial<Omit<AppDeps, 'env' | 'db
     authRateLimit: { limit: 10_000, windowMs: 60_000 },
     ...deps,
   });
+  let server: Server | undefined;
   return {
     app,
     db,
     smtp,
     mailer,
+    env,
+    payment,
+    async listen() {
+      server ??= await new Promise<Server>((resolve) => {
+        const s = app.listen(0, '127.0.0.1', () => resolve(s));
+      });
+      const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+      payment.setWebhookUrl(`${url}/api/v1/billing/webhook`);
+      return url;
+    },
     async close() {
+      if (server) {
+        server.closeAllConnections();
+        await new Promise((r) => server!.close(r));
+      }
+      await payment.stop();
       mailer.close();
       await smtp.stop();
       await db.pool.end();

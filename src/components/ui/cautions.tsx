@@ -1,12 +1,6 @@
-/**
- * The cautions of product.md §7, shown wherever results appear. The wording never calls a
- * site safe: the tool predicts; the shellfish authority decides.
- */
-export const CAUTION_TEXT = [
-  'Brackline gives screening-level estimates from simplified physics. It does not replace the shellfish control authority\'s classification, closures or sampling, nor a site-specific hydrodynamic study.',
-  'Wind, tides, ambient currents, stratification and other rivers change where a plume goes.',
-  'Follow local regulations and the authority\'s notices before harvesting.',
-] as const;
+import { CAUTION_TEXT } from '#shared/cautions';
+
+export { CAUTION_TEXT };
 
 export function Cautions({ compact = false }: { compact?: boolean }) {
   return (
