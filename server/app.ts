@@ -25,6 +25,8 @@ import { registerLeaseRoutes } from './routes/leases.routes';
 import { registerRiverRoutes } from './routes/rivers.routes';
 import { registerScreeningRoutes } from './routes/screening.routes';
 import { registerSharingRoutes } from './routes/sharing.routes';
+import { registerZoneRoutes } from './routes/zones.routes';
+import { createZonesService } from './services/zones.service';
 import { createInlineScreeningJobs, type ScreeningJobs } from './jobs/screening-jobs';
 import { createRiversService } from './services/rivers.service';
 import { createScreeningService } from './services/screening.service';
@@ -130,6 +132,7 @@ export function createApp(deps: AppDeps): Express {
   registerRiverRoutes(ctx, rivers, jobs);
   registerCoastRoutes(ctx, db);
   registerScreeningRoutes(ctx, db, rivers, screening, createSweepService({ db, screening }));
+  registerZoneRoutes(ctx, createZonesService({ db, mailer, screening, rivers, appUrl: env.APP_URL }));
 
   const openApi = buildOpenApiDocument(registry);
   router.get('/openapi.json', (_req, res) => {
