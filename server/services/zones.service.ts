@@ -95,7 +95,7 @@ const SELECT_ZONE = (withGeometry: boolean) => sql`
          ${withGeometry ? sql`, ST_AsGeoJSON(z.geom, 6) AS geometry` : sql``}
     FROM closure_zones z LEFT JOIN rivers r ON r.id = z.river_id LEFT JOIN gauges g ON g.id = z.gauge_id`;
 
-const fmtDate = (d: Date) => d.toISOString().replace('T', ' ').slice(0, 16) + ' UTC';
+const fmtDate = (d: Date) => `${d.toISOString().replace('T', ' ').slice(0, 16)} UTC`;
 
 /** The regulator's jurisdiction, or a clear refusal when its account has none. */
 function jurisdictionOf(user: CurrentUser): string {

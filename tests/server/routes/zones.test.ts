@@ -139,7 +139,10 @@ describe('trigger sweep', () => {
     expect(s.curve.find((p: { discharge: number }) => p.discharge >= s.suggestedTrigger).fraction).toBeGreaterThan(0);
     expect(s.marginM3s).toBeCloseTo(960 - s.suggestedTrigger, 6);
     // Fractions are shares of the zone.
-    for (const p of s.curve) expect(p.fraction).toBeGreaterThanOrEqual(0), expect(p.fraction).toBeLessThanOrEqual(1);
+    for (const p of s.curve) {
+      expect(p.fraction).toBeGreaterThanOrEqual(0);
+      expect(p.fraction).toBeLessThanOrEqual(1);
+    }
     // AEP falls as flow rises wherever the fit gives one.
     const withAep = s.curve.filter((p: { aep: number | null }) => p.aep != null);
     expect(withAep.length).toBeGreaterThan(3);
