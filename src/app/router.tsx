@@ -40,8 +40,19 @@ export function createRouter() {
         { path: '/admin/people', lazy: () => import('../features/admin/components/people-page').then((m) => ({ Component: m.PeoplePage })), errorElement: <RouteError /> },
         { path: '/admin/outbox', lazy: () => import('../features/admin/components/outbox-page').then((m) => ({ Component: m.OutboxPage })), errorElement: <RouteError /> },
         { path: '/admin/audit', lazy: () => import('../features/admin/components/audit-page').then((m) => ({ Component: m.AuditPage })), errorElement: <RouteError /> },
+        { path: '/zones', lazy: () => import('./routes/zones-route').then((m) => ({ Component: m.ZonesRoute })), errorElement: <RouteError /> },
+        { path: '/zones/:id', lazy: () => import('../features/regulator/components/zone-page').then((m) => ({ Component: m.ZonePage })), errorElement: <RouteError /> },
+        { path: '/closure-check', lazy: () => import('../features/regulator/components/closure-check-page').then((m) => ({ Component: m.ClosureCheckPage })), errorElement: <RouteError /> },
+        { path: '/notices', lazy: () => import('../features/regulator/components/notices-page').then((m) => ({ Component: m.NoticesPage })), errorElement: <RouteError /> },
+        { path: '/audit-log', lazy: () => import('../features/regulator/components/audit-log-page').then((m) => ({ Component: m.AuditLogPage })), errorElement: <RouteError /> },
         { path: '*', element: <NotFoundPage /> },
       ],
+    },
+    // The public status page: no sign-in, no app shell, printable.
+    {
+      path: '/status/:jurisdiction',
+      errorElement: <RouteError />,
+      lazy: () => import('../features/public-status/components/public-status-page').then((m) => ({ Component: m.PublicStatusPage })),
     },
   ]);
 }

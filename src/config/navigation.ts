@@ -30,6 +30,10 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/map', label: 'Exposure map' },
     { to: '/compare', label: 'Compare' },
     { to: '/plume-calculator', label: 'Plume calculator' },
+    { to: '/zones', label: 'Zones' },
+    { to: '/closure-check', label: 'Closure check' },
+    { to: '/notices', label: 'Notices' },
+    { to: '/audit-log', label: 'Audit log' },
   ],
   admin: [
     { to: '/', label: 'Overview' },
