@@ -325,16 +325,30 @@ export function createZonesService(deps: {
     return toSample(rows.rows[0]);
   }
 
-  /** The river's design quantiles and typical flood duration (as the lease sweep uses them). */
+  /**
+   * The river's design quantiles and typical flood duration (as the lease sweep uses them), and
+   * the AEP of a flow: from the fitted curve inside its range; below it (flows more frequent than
+   * the smallest fitted flood) from the record's annual peaks by the Weibull plotting position
+   * m/(n+1), m = years whose peak reached the flow (c: common practice); null above the range.
+   */
   async function riverFit(riverId: string, designDistribution: string | undefined) {
     const fit = await db.execute<{
       fit: Record<string, { quantiles: { aep: number; discharge: number }[] }> | null;
       durations: { medianHours: number | null } | null;
+      annual_peaks: { discharge: number; complete?: boolean }[] | null;
     }>(sql`
-      SELECT fit, durations FROM flow_records WHERE river_id = ${riverId}::uuid AND active ORDER BY uploaded_at DESC LIMIT 1`);
+      SELECT fit, durations, annual_peaks FROM flow_records WHERE river_id = ${riverId}::uuid AND active ORDER BY uploaded_at DESC LIMIT 1`);
     const quantiles = fit.rows[0]?.fit?.[designDistribution ?? 'gev']?.quantiles ?? [];
     const durationHours = Math.max(24, Math.round(fit.rows[0]?.durations?.medianHours ?? 72));
-    return { quantiles, durationHours };
+    const peaks = (fit.rows[0]?.annual_peaks ?? []).filter((p) => p.complete !== false).map((p) => p.discharge);
+    const smallest = quantiles.length ? Math.min(...quantiles.map((q) => q.discharge)) : Number.POSITIVE_INFINITY;
+    const aep = (q: number): number | null => {
+      const fitted = aepOfFlow(quantiles, q);
+      if (fitted != null) return fitted;
+      if (q < smallest && peaks.length) return peaks.filter((p) => p >= q).length / (peaks.length + 1);
+      return null;
+    };
+    return { quantiles, durationHours, aep };
   }
 
   /**
@@ -369,7 +383,7 @@ export function createZonesService(deps: {
         FROM p, footprints f WHERE f.id = ${fp.id}::uuid`);
     const points = pts.rows.map((r) => ({ s: Math.max(0, r.s), x: Math.max(0, r.x) }));
     if (!points.length) throw new UnprocessableError(`${zone.name} has no area to sample. Redraw or re-upload the zone.`);
-    const { quantiles, durationHours } = await riverFit(zone.river_id, river.settings.designDistribution as string | undefined);
+    const { aep, durationHours } = await riverFit(zone.river_id, river.settings.designDistribution as string | undefined);
 
     const fractionAt = (q: number) => {
       const { plume, params } = plumeFor(river.settings, { discharge: q, durationHours });
@@ -385,7 +399,7 @@ export function createZonesService(deps: {
     const qMin = Math.max(0.05, largest.discharge / 5000);
     const curve = Array.from({ length: steps }, (_, i) => {
       const q = qMin * (qMax / qMin) ** (i / (steps - 1));
-      return { discharge: q, fraction: fractionAt(q), aep: aepOfFlow(quantiles, q) };
+      return { discharge: q, fraction: fractionAt(q), aep: aep(q) };
     });
     const firstIdx = curve.findIndex((p) => passes(p.fraction));
     let suggested: number | null = null;
@@ -413,13 +427,13 @@ export function createZonesService(deps: {
       samplePoints: points.length,
       curve,
       suggestedTrigger: suggested,
-      suggestedAep: suggested != null ? aepOfFlow(quantiles, suggested) : null,
+      suggestedAep: suggested != null ? aep(suggested) : null,
       planTrigger: plan,
-      planAep: plan != null ? aepOfFlow(quantiles, plan) : null,
+      planAep: plan != null ? aep(plan) : null,
       marginM3s: margin,
       marginPercent: margin != null && suggested ? (margin / suggested) * 100 : null,
       modelVersion: MODEL_VERSION,
-      note: `Share of the zone (${points.length} evenly scattered points) where the modelled indicator is above ${standard} per 100 mL, for flows held ${durationHours} hours (the record's typical flood duration). Annual exceedance probabilities from the river's fitted flood-frequency curve; blank outside its range.${
+      note: `Share of the zone (${points.length} evenly scattered points) where the modelled indicator is above ${standard} per 100 mL, for flows held ${durationHours} hours (the record's typical flood duration). Annual exceedance probabilities from the river's fitted flood-frequency curve, and below its smallest flood from the record's annual peaks (m/(n+1)).${
         firstIdx === 0
           ? ' The share is passed already at the lowest flow swept, so the suggestion is that flow.'
           : firstIdx < 0
@@ -450,7 +464,7 @@ export function createZonesService(deps: {
         observedAt: new Date(r.observed_at).toISOString(),
       };
     }
-    const { quantiles, durationHours } = await riverFit(body.riverId, river.settings.designDistribution as string | undefined);
+    const { aep, durationHours } = await riverFit(body.riverId, river.settings.designDistribution as string | undefined);
     const fp = await screening.ensureFootprint(river, { discharge: flow, durationHours });
     const bands = await db.execute<{ band_id: string; name: string; geometry: string; sort_order: number }>(sql`
       SELECT band_id, name, sort_order, ST_AsGeoJSON(geom, 6) AS geometry FROM footprint_bands WHERE footprint_id = ${fp.id}::uuid AND band_id <> 'bulge' ORDER BY sort_order`);
@@ -530,7 +544,7 @@ export function createZonesService(deps: {
       riverName: river.name,
       flow,
       flowSource,
-      aep: aepOfFlow(quantiles, flow),
+      aep: aep(flow),
       durationHours,
       modelVersion: MODEL_VERSION,
       footprintId: fp.id,

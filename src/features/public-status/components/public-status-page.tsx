@@ -4,7 +4,7 @@ import { type PublicStatus, ZONE_STATUS_LABEL } from '#shared/schemas/zones';
 import { CAUTION_TEXT } from '../../../components/ui/cautions';
 import { api } from '../../../lib/api-client';
 
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle: 'long', timeStyle: 'short' });
+const when = (iso: string) => `${new Date(iso).toLocaleString('en-GB', { dateStyle: 'long', timeStyle: 'short', timeZone: 'UTC' })} UTC`;
 
 /** A jurisdiction's closure zones and recent notices: no sign-in, plain, printable (black-and-white legible). */
 export function PublicStatusPage() {

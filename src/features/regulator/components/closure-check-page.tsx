@@ -10,6 +10,7 @@ import { Notice } from '../../../components/ui/notice';
 import { PageHeader } from '../../../components/ui/page-header';
 import { Empty, Loading } from '../../../components/ui/states';
 import { TextField } from '../../../components/ui/text-field';
+import { api } from '../../../lib/api-client';
 import { bandStyle } from '../../../lib/bands';
 import { fmtFlow, fmtNumber, fmtPercent, returnPeriodLabel, speciesName } from '../../../lib/format';
 import { runClosureCheck, zoneKeys } from '../api/zones-api';
@@ -156,13 +157,23 @@ export function ClosureCheckPage() {
 }
 
 function Result({ r }: { r: ClosureCheckResult }) {
+  const coasts = useQuery({ queryKey: ['coasts'], queryFn: () => api<FeatureCollection>('/coasts'), staleTime: 5 * 60_000 });
   const columns = COLUMNS.filter((c) => r.bands.some((b) => b.bandId === c));
   const bandName = (id: string) => r.bands.find((b) => b.bandId === id)?.name ?? id;
   const layers = useMemo<MapLayerSpec[]>(() => {
     const fc = r.map as FeatureCollection;
     const of = (layer: string) => fc.features.filter((f: Feature) => f.properties?.layer === layer);
     const bands = of('band').filter((f) => columns.includes(String(f.properties?.bandId)));
+    const land = (coasts.data?.features ?? []).filter((f) => f.properties?.form === 'land');
     return [
+      {
+        id: 'land',
+        label: 'Land',
+        data: { type: 'FeatureCollection', features: land },
+        fill: '#e6dcc3',
+        stroke: '#9c8a5f',
+        strokeWidth: 1,
+      },
       ...bands
         .sort((a, b) => bandStyle(String(a.properties?.bandId)).order - bandStyle(String(b.properties?.bandId)).order)
         .map((f) => {
@@ -194,7 +205,7 @@ function Result({ r }: { r: ClosureCheckResult }) {
         strokeWidth: 1,
       },
     ];
-  }, [r, columns]);
+  }, [r, columns, coasts.data]);
 
   return (
     <section aria-label="Closure check result" className="space-y-6">
@@ -255,6 +266,14 @@ function Result({ r }: { r: ClosureCheckResult }) {
           </tbody>
         </table>
       )}
+      <h2 className="text-lg font-semibold text-deep-900">Map</h2>
+      <LazyVectorMap
+        layers={layers}
+        height={460}
+        ariaLabel={`Plume bands of ${r.riverName} at ${fmtFlow(r.flow)}, closure zones and held leases`}
+        fitTo={['zones', 'leases']}
+        drawnKey={r.footprintId}
+      />
       <h2 className="text-lg font-semibold text-deep-900">Held leases reached by the plume ({r.leases.length})</h2>
       {r.leases.length === 0 ? (
         <Empty title="The plume reaches no held lease at this flow" />
@@ -276,7 +295,7 @@ function Result({ r }: { r: ClosureCheckResult }) {
           <tbody>
             {r.leases.map((l) => (
               <tr key={l.id} className="border-b border-shell-100">
-                <td className="p-2 font-semibold">{l.leaseId}</td>
+                <td className="p-2 font-semibold whitespace-nowrap">{l.leaseId}</td>
                 <td className="p-2">{l.holder ?? '—'}</td>
                 <td className="p-2">{speciesName(l.species)}</td>
                 <td className="p-2">{l.zones.length ? l.zones.join(', ') : 'Outside the zones'}</td>
@@ -290,14 +309,6 @@ function Result({ r }: { r: ClosureCheckResult }) {
           </tbody>
         </table>
       )}
-      <h2 className="text-lg font-semibold text-deep-900">Map</h2>
-      <LazyVectorMap
-        layers={layers}
-        height={460}
-        ariaLabel={`Plume bands of ${r.riverName} at ${fmtFlow(r.flow)}, closure zones and held leases`}
-        fitTo={['zones', 'leases']}
-        drawnKey={r.footprintId}
-      />
     </section>
   );
 }

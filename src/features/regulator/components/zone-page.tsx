@@ -12,7 +12,7 @@ import { PageHeader } from '../../../components/ui/page-header';
 import { Empty, LoadError, Loading } from '../../../components/ui/states';
 import { TextField } from '../../../components/ui/text-field';
 import { fmtFlow, fmtNumber, returnPeriodLabel } from '../../../lib/format';
-import { addSample, updateZone, zoneKeys } from '../api/zones-api';
+import { addSample, type GaugeOption, updateZone, zoneKeys } from '../api/zones-api';
 import { fmtWhen, ZoneStatusBadge } from './zone-status';
 
 const TriggerSweepChart = lazy(() => import('./trigger-sweep-chart').then((m) => ({ default: m.TriggerSweepChart })));
@@ -35,14 +35,14 @@ const SHARES = [
 ];
 
 function aepText(aep: number | null): string {
-  if (aep == null) return 'outside the fitted flood-frequency range (more often than the smallest fitted flood)';
+  if (aep == null) return 'rarer than the largest fitted flood';
+  if (aep > 0.5) return `${fmtNumber(aep * 100, 0)}% AEP: reached in most years`;
   return `${fmtNumber(aep * 100, aep < 0.01 ? 2 : 1)}% AEP, about ${returnPeriodLabel(aep)}`;
 }
 
 /** Rounds a suggested flow to three significant figures, the precision a plan quotes. */
 function roundFlow(q: number): number {
-  const p = 10 ** (Math.floor(Math.log10(q)) - 2);
-  return Math.round(q / p) * p;
+  return Number(q.toPrecision(3));
 }
 
 export function ZonePage() {
@@ -88,7 +88,7 @@ function ZoneView({ zone }: { zone: Zone }) {
       </section>
 
       <div className="grid gap-8 lg:grid-cols-2">
-        <PlanValues zone={zone} suggested={suggested} />
+        <PlanValuesLoader zone={zone} suggested={suggested} />
         <section aria-labelledby="model-trigger" className="space-y-3">
           <h2 id="model-trigger" className="text-lg font-semibold text-deep-900">
             The model’s trigger
@@ -153,11 +153,17 @@ function SweepSummary({ sweep, onUse }: { sweep: TriggerSweep; onUse: (q: number
         <dd>
           {margin == null
             ? '—'
-            : margin > 0
-              ? `The plan closes ${fmtFlow(margin)} later than the model suggests (${fmtNumber(sweep.marginPercent, 0)}% above it).`
-              : margin < 0
-                ? `The plan closes ${fmtFlow(-margin)} earlier than the model suggests.`
-                : 'The plan matches the model.'}
+            : Math.abs(margin) <= 0.005 * sweep.suggestedTrigger
+              ? 'The plan matches the model’s suggestion (within 0.5 %).'
+              : margin > 0
+                ? `The plan closes ${fmtFlow(margin)} later than the model suggests (${
+                    (sweep.marginPercent ?? 0) > 1000
+                      ? `${fmtNumber(sweep.planTrigger! / sweep.suggestedTrigger, 0)} times its flow`
+                      : `${fmtNumber(sweep.marginPercent, 0)}% above it`
+                  }).`
+                : margin < 0
+                  ? `The plan closes ${fmtFlow(-margin)} earlier than the model suggests.`
+                  : 'The plan matches the model.'}
         </dd>
       </dl>
       <Button variant="secondary" onClick={() => onUse(roundFlow(sweep.suggestedTrigger!))}>
@@ -167,10 +173,36 @@ function SweepSummary({ sweep, onUse }: { sweep: TriggerSweep; onUse: (q: number
   );
 }
 
-function PlanValues({ zone, suggested }: { zone: Zone; suggested: number | null }) {
-  const queryClient = useQueryClient();
+/** The form mounts once the river and gauge choices are loaded, so its selects start on the zone's own values. */
+function PlanValuesLoader({ zone, suggested }: { zone: Zone; suggested: number | null }) {
   const rivers = useQuery(zoneKeys.rivers());
   const gauges = useQuery(zoneKeys.gauges());
+  if (rivers.isPending || gauges.isPending) return <Loading what="Loading the rivers and gauges…" />;
+  if (rivers.isError || gauges.isError)
+    return (
+      <LoadError
+        error={rivers.error ?? gauges.error}
+        retry={() => {
+          void rivers.refetch();
+          void gauges.refetch();
+        }}
+      />
+    );
+  return <PlanValues zone={zone} suggested={suggested} rivers={rivers.data.items} gauges={gauges.data.items} />;
+}
+
+function PlanValues({
+  zone,
+  suggested,
+  rivers,
+  gauges,
+}: {
+  zone: Zone;
+  suggested: number | null;
+  rivers: { id: string; name: string }[];
+  gauges: GaugeOption[];
+}) {
+  const queryClient = useQueryClient();
   const form = useForm<PlanForm>({
     resolver: zodResolver(planFormSchema),
     defaultValues: {
@@ -185,7 +217,11 @@ function PlanValues({ zone, suggested }: { zone: Zone; suggested: number | null 
     if (suggested != null) form.setValue('triggerFlow', suggested, { shouldDirty: true, shouldValidate: true });
   }, [suggested, form]);
   const save = useMutation({
-    mutationFn: (v: PlanForm) => updateZone(zone.id, v),
+    // Only the fields the regulator changed are sent, so the audit entry shows exactly those.
+    mutationFn: (v: PlanForm) => {
+      const dirty = form.formState.dirtyFields as Partial<Record<keyof PlanForm, boolean>>;
+      return updateZone(zone.id, Object.fromEntries(Object.entries(v).filter(([k]) => dirty[k as keyof PlanForm])));
+    },
     onSuccess: (z) => {
       form.reset({
         riverId: z.riverId,
@@ -215,7 +251,7 @@ function PlanValues({ zone, suggested }: { zone: Zone; suggested: number | null 
             {...form.register('riverId', { setValueAs: (v) => v || null })}
           >
             <option value="">None</option>
-            {rivers.data?.items.map((r) => (
+            {rivers.map((r) => (
               <option key={r.id} value={r.id}>
                 {r.name}
               </option>
@@ -232,7 +268,7 @@ function PlanValues({ zone, suggested }: { zone: Zone; suggested: number | null 
             {...form.register('gaugeId', { setValueAs: (v) => v || null })}
           >
             <option value="">None</option>
-            {gauges.data?.items
+            {gauges
               .filter((g) => g.riverId === riverId)
               .map((g) => (
                 <option key={g.id} value={g.id}>
