@@ -6,6 +6,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoRegion } from '../../../server/db/seed-demo-region';
+import { geojsonBuffer, rectangle } from '../../helpers/lease-fixtures';
 import { createTestApp, signIn, type TestApp, waitForMail } from '../../helpers/test-app';
 
 type Agent = Awaited<ReturnType<typeof signIn>>['agent'];
@@ -93,6 +94,27 @@ describe('zones', () => {
     const tolleyZone = await regulator.get(`/api/v1/zones/${tolley.id}`).expect(200);
     const res = await regulator.patch(`/api/v1/zones/${inner.id}`).send({ gaugeId: tolleyZone.body.gaugeId }).expect(422);
     expect(res.body.error.message).toMatch(/not on the chosen river/);
+  });
+
+  it('an uploaded zone (the imports pipeline, kind zone) appears open and takes its river, gauge and plan values', async () => {
+    const fc = { type: 'FeatureCollection', features: [rectangle(-38.62, 41.13, 1500, { ZONE_NAME: 'Uploaded test zone' })] };
+    const up = await regulator.post('/api/v1/imports').field('kind', 'zone').attach('file', geojsonBuffer(fc), 'zones.geojson').expect(201);
+    await regulator
+      .post(`/api/v1/imports/${up.body.id}/confirm`)
+      .send({ mapping: { leaseId: 'ZONE_NAME' } })
+      .expect(200);
+    const listed = (await regulator.get('/api/v1/zones').expect(200)).body.items.find(
+      (z: { name: string }) => z.name === 'Uploaded test zone',
+    );
+    expect(listed).toMatchObject({ status: 'open', riverId: null, triggerFlow: null });
+    expect(listed.areaM2).toBeCloseTo(1500 * 1500, -4);
+    const gauge = (await regulator.get(`/api/v1/zones/${inner.id}`).expect(200)).body.gaugeId;
+    const linked = await regulator
+      .patch(`/api/v1/zones/${listed.id}`)
+      .send({ riverId: inner.riverId, gaugeId: gauge, triggerFlow: 800, minClosureDays: 2, indicatorStandard: 14 })
+      .expect(200);
+    expect(linked.body).toMatchObject({ riverName: 'Amberlin River', gaugeCode: 'FCSA-G01', triggerFlow: 800, minClosureDays: 2 });
+    await t.db.pool.query(`delete from closure_zones where id = $1`, [listed.id]);
   });
 
   it('saves a zone drawn on the map, and refuses a shape with no area', async () => {
@@ -429,7 +451,16 @@ describe('privacy, route by route', () => {
     const fb004 = await t.db.pool.query(
       `select l.id from leases l join users u on u.id = l.owner_id where u.email = 'grower@brackline.test' and l.lease_code = 'FB-004'`,
     );
+    await grower
+      .post('/api/v1/leases/shares')
+      .send({ leaseIds: [fb004.rows[0].id], email: 'regulator@brackline.test' })
+      .expect(200);
+    // Shared, the regulator may read the lease itself…
+    await regulator.get(`/api/v1/leases/${fb004.rows[0].id}`).expect(200);
     const c = (await regulator.post('/api/v1/closure-checks').send({ riverId: inner.riverId, flow: 2000 }).expect(200)).body;
+    // …but it is no held lease: not in the check, not counted in the zone.
     expect(c.leases.map((l: { id: string }) => l.id)).not.toContain(fb004.rows[0].id);
+    expect((await regulator.get(`/api/v1/zones/${inner.id}`).expect(200)).body.heldLeases).toBe(6);
+    await t.db.pool.query(`delete from lease_shares where lease_id = $1`, [fb004.rows[0].id]);
   });
 });
