@@ -762,10 +762,17 @@ export function createZonesService(deps: {
       action: string;
       subject_type: string;
       subject_id: string | null;
+      subject_name: string | null;
       before: unknown;
       after: unknown;
     }>(sql`
-      SELECT a.id, a.at, a.actor_id, u.name AS actor_name, u.email AS actor_email, a.action, a.subject_type, a.subject_id, a.before, a.after
+      SELECT a.id, a.at, a.actor_id, u.name AS actor_name, u.email AS actor_email, a.action, a.subject_type, a.subject_id, a.before, a.after,
+             CASE a.subject_type
+               WHEN 'zone' THEN (SELECT z.name FROM closure_zones z WHERE z.id::text = a.subject_id)
+               WHEN 'river' THEN (SELECT r.name FROM rivers r WHERE r.id::text = a.subject_id)
+               WHEN 'user' THEN (SELECT s.email FROM users s WHERE s.id = a.subject_id)
+               WHEN 'notice' THEN (SELECT initcap(n.kind) || ' notice' FROM notices n WHERE n.id::text = a.subject_id)
+             END AS subject_name
         FROM audit_entries a LEFT JOIN users u ON u.id = a.actor_id
        WHERE ${where} ORDER BY a.at DESC, a.id LIMIT ${q.limit} OFFSET ${q.offset}`);
     const total = await db.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM audit_entries a WHERE ${where}`);
@@ -779,6 +786,7 @@ export function createZonesService(deps: {
         action: r.action,
         subjectType: r.subject_type,
         subjectId: r.subject_id,
+        subjectName: r.subject_name,
         before: r.before,
         after: r.after,
       })),

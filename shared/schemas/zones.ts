@@ -236,6 +236,8 @@ export const auditEntrySchema = z.object({
   action: z.string(),
   subjectType: z.string(),
   subjectId: z.string().nullable(),
+  /** The zone's, river's or notice's name, or the user's e-mail, when it still exists. */
+  subjectName: z.string().nullable(),
   before: z.unknown(),
   after: z.unknown(),
 });

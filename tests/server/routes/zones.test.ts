@@ -376,7 +376,7 @@ describe('audit log', () => {
     const change = res.body.items.find(
       (a: { action: string; subjectId: string }) => a.action === 'zone.trigger-change' && a.subjectId === tolley.id,
     );
-    expect(change).toMatchObject({ before: { triggerFlow: 94 }, after: { triggerFlow: 90 }, actorEmail: 'regulator@brackline.test' });
+    expect(change).toMatchObject({ before: { triggerFlow: 94 }, after: { triggerFlow: 90 }, actorEmail: 'regulator@brackline.test', subjectName: 'Tolley shore zone' });
     const actions = new Set(res.body.items.map((a: { action: string }) => a.action));
     expect([...actions]).toEqual(expect.arrayContaining(['zone.status', 'zone.sample', 'zone.update', 'zone.trigger-change']));
     const notices = await regulator.get('/api/v1/audit?subjectType=notice').expect(200);

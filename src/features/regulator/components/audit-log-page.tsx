@@ -73,7 +73,7 @@ export function AuditLogPage() {
                 <td className="p-2">
                   <span className="font-mono text-xs">{a.action}</span>
                   <span className="block text-xs text-shell-700">
-                    {a.subjectType} {a.subjectId?.slice(0, 8)}
+                    {a.subjectName ?? `${a.subjectType} ${a.subjectId?.slice(0, 8) ?? ''}`}
                   </span>
                 </td>
                 <td className="max-w-xs p-2 text-xs break-words">{show(a.before)}</td>
