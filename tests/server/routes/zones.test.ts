@@ -236,6 +236,9 @@ describe('closure checks', () => {
     expect(c.flow).toBe(1100);
     expect(c.flowSource).toMatchObject({ kind: 'latest-gauge-reading', gaugeCode: 'FCSA-G01' });
     expect(c.note).toMatch(/latest reading of gauge FCSA-G01/);
+    const gauges = (await regulator.get('/api/v1/closure-checks/gauges').expect(200)).body.items;
+    expect(gauges.find((g: { code: string }) => g.code === 'FCSA-G01')).toMatchObject({ latestDischarge: 1100 });
+    expect(gauges.find((g: { code: string }) => g.code === 'FCSA-G02')).toMatchObject({ latestDischarge: null, latestAt: null });
   });
 
   it('a typed check needs a flow', async () => {
