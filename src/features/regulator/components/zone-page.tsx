@@ -1,16 +1,19 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { lazy, Suspense, useEffect, useState } from 'react';
+import type { FeatureCollection, Geometry } from 'geojson';
+import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link, useParams } from 'react-router-dom';
 import type { z } from 'zod';
 import { type SampleForm, sampleFormSchema, type TriggerSweep, type Zone, zonePlanSchema } from '#shared/schemas/zones';
+import { LazyVectorMap, type MapLayerSpec } from '../../../components/map/lazy-vector-map';
 import { Button } from '../../../components/ui/button';
 import { Cautions } from '../../../components/ui/cautions';
 import { Notice } from '../../../components/ui/notice';
 import { PageHeader } from '../../../components/ui/page-header';
 import { Empty, LoadError, Loading } from '../../../components/ui/states';
 import { TextField } from '../../../components/ui/text-field';
+import { api } from '../../../lib/api-client';
 import { fmtFlow, fmtNumber, returnPeriodLabel } from '../../../lib/format';
 import { addSample, type GaugeOption, updateZone, zoneKeys } from '../api/zones-api';
 import { fmtWhen, ZoneStatusBadge } from './zone-status';
@@ -87,6 +90,7 @@ function ZoneView({ zone }: { zone: Zone }) {
         <p className="text-sm text-shell-700">{zone.heldLeases} held leases touch this zone.</p>
       </section>
 
+      <ZoneMap zone={zone} />
       <div className="grid gap-8 lg:grid-cols-2">
         <PlanValuesLoader zone={zone} suggested={suggested} />
         <section aria-labelledby="model-trigger" className="space-y-3">
@@ -133,6 +137,36 @@ function ZoneView({ zone }: { zone: Zone }) {
       </div>
     </>
   );
+}
+
+/** The zone's outline on the coast (land from the jurisdiction's shared coasts). */
+function ZoneMap({ zone }: { zone: Zone }) {
+  const coasts = useQuery({ queryKey: ['coasts'], queryFn: () => api<FeatureCollection>('/coasts'), staleTime: 5 * 60_000 });
+  const layers = useMemo<MapLayerSpec[]>(
+    () => [
+      {
+        id: 'land',
+        label: 'Land',
+        data: { type: 'FeatureCollection', features: (coasts.data?.features ?? []).filter((f) => f.properties?.form === 'land') },
+        fill: '#e6dcc3',
+        stroke: '#9c8a5f',
+        strokeWidth: 1,
+      },
+      {
+        id: 'zone',
+        label: zone.name,
+        data: {
+          type: 'FeatureCollection',
+          features: zone.geometry ? [{ type: 'Feature', properties: { name: zone.name }, geometry: zone.geometry as Geometry }] : [],
+        },
+        fill: 'rgba(23, 61, 97, 0.2)',
+        stroke: '#0c2238',
+        strokeWidth: 3,
+      },
+    ],
+    [coasts.data, zone],
+  );
+  return <LazyVectorMap layers={layers} height={260} ariaLabel={`Outline of ${zone.name}`} fitTo={['zone']} fit="once" maxZoom={14} />;
 }
 
 function SweepSummary({ sweep, onUse }: { sweep: TriggerSweep; onUse: (q: number) => void }) {
@@ -320,12 +354,15 @@ function PlanValues({
 function Samples({ zone }: { zone: Zone }) {
   const queryClient = useQueryClient();
   const samples = useQuery(zoneKeys.samples(zone.id));
+  const [formKey, setFormKey] = useState(0);
   const form = useForm<SampleForm>({ resolver: zodResolver(sampleFormSchema), defaultValues: { sampledAt: '', notes: '' } });
   const add = useMutation({
     mutationFn: (v: SampleForm) =>
       addSample(zone.id, { sampledAt: new Date(v.sampledAt).toISOString(), indicator: v.indicator, notes: v.notes || undefined }),
     onSuccess: () => {
       form.reset({ sampledAt: '', notes: '' });
+      // A fresh form element clears the number field too (it has no default value).
+      setFormKey((k) => k + 1);
       void queryClient.invalidateQueries({ queryKey: zoneKeys.all });
     },
   });
@@ -336,6 +373,7 @@ function Samples({ zone }: { zone: Zone }) {
         Sample results
       </h2>
       <form
+        key={formKey}
         className="grid gap-3 sm:grid-cols-3"
         noValidate
         aria-label="Enter a sample result"
