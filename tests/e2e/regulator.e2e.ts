@@ -172,7 +172,7 @@ describe('a regulator justifies a trigger, checks a flood, closes and reopens a 
     await page.getByText('Reopening notice issued').waitFor();
     const reopenMail = await waitForGrowerMail(`Reopening notice: ${ZONE}`);
     for (const g of GROWERS) expect(reopenMail.get(g), g).toBe(1);
-    await page.getByRole('table', { name: 'Notices issued' }).getByText(`${ZONE}: reopening-pending → open`).waitFor();
+    await page.getByRole('table', { name: 'Notices issued' }).getByText(`${ZONE}: Reopening pending → Open`).waitFor();
     await screenshot(page, 'regulator-8-notices');
 
     // 8. The audit log shows the trigger change with before and after, and the status changes.

@@ -3,7 +3,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useForm } from 'react-hook-form';
 import { useSearchParams } from 'react-router-dom';
 import { z } from 'zod';
-import { noticeCreateSchema } from '#shared/schemas/zones';
+import { noticeCreateSchema, ZONE_STATUS_LABEL, type ZoneStatus } from '#shared/schemas/zones';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { PageHeader } from '../../../components/ui/page-header';
@@ -144,7 +144,8 @@ export function NoticesPage() {
                 <td className="p-2">
                   {n.zones.map((z) => (
                     <span key={z.id} className="block">
-                      {z.name}: {z.statusBefore} → {z.statusAfter}
+                      {z.name}: {ZONE_STATUS_LABEL[z.statusBefore as ZoneStatus] ?? z.statusBefore} →{' '}
+                      {ZONE_STATUS_LABEL[z.statusAfter as ZoneStatus] ?? z.statusAfter}
                     </span>
                   ))}
                 </td>
