@@ -412,6 +412,27 @@ describe('audit log', () => {
     expect((await outsider.get('/api/v1/audit?subjectType=zone').expect(200)).body.total).toBe(0);
   });
 
+  it('a regulator reads role changes into its jurisdiction; another authority’s regulator does not', async () => {
+    const j = await t.db.pool.query(`select id from jurisdictions where slug = 'fennick-coast'`);
+    // A grower account, reset to a grower on every run (the test database is reused).
+    const officer = await t.db.pool.query(
+      `insert into users (id, email, name, role) values (gen_random_uuid()::text, 'officer@brackline.test', 'New officer', 'grower')
+       on conflict (email) do update set role = 'grower', jurisdiction_id = null returning id`,
+    );
+    await admin.patch(`/api/v1/admin/users/${officer.rows[0].id}`).send({ role: 'regulator', jurisdictionId: j.rows[0].id }).expect(200);
+    const res = await regulator.get('/api/v1/audit?subjectType=user').expect(200);
+    const change = res.body.items.find(
+      (a: { action: string; subjectId: string }) => a.action === 'user.role-change' && a.subjectId === officer.rows[0].id,
+    );
+    expect(change).toMatchObject({
+      before: { role: 'grower' },
+      after: { role: 'regulator', jurisdictionId: j.rows[0].id },
+      subjectName: 'officer@brackline.test',
+    });
+    const other = await outsider.get('/api/v1/audit?subjectType=user').expect(200);
+    expect(other.body.items.some((a: { subjectId: string }) => a.subjectId === officer.rows[0].id)).toBe(false);
+  });
+
   it('is append-only in the database: UPDATE and DELETE are refused', async () => {
     const count = async () =>
       (await t.db.pool.query(`select count(*)::int as n from audit_entries where action = 'zone.trigger-change'`)).rows[0].n;
