@@ -31,6 +31,8 @@ import { registerOverviewRoutes } from './routes/overview.routes';
 import { createInboxService } from './services/inbox.service';
 import { registerClientRoutes } from './routes/clients.routes';
 import { createClientsService } from './services/clients.service';
+import { registerZoneRoutes } from './routes/zones.routes';
+import { createZonesService } from './services/zones.service';
 import { createInlineScreeningJobs, type ScreeningJobs } from './jobs/screening-jobs';
 import { createRiversService } from './services/rivers.service';
 import { createScreeningService } from './services/screening.service';
@@ -168,6 +170,7 @@ export function createApp(deps: AppDeps): Express {
     email: (id, final) => alerts.sendEmail(id, final),
     pollFeed: async () => void (await gauges.pollFeed()),
   });
+  registerZoneRoutes(ctx, createZonesService({ db, mailer, screening, rivers, appUrl: env.APP_URL }));
 
   const openApi = buildOpenApiDocument(registry);
   router.get('/openapi.json', (_req, res) => {

@@ -767,3 +767,68 @@ export const alerts = pgTable(
   },
   (t) => [uniqueIndex('alerts_rule_dedupe_idx').on(t.ruleId, t.dedupeKey), index('alerts_user_idx').on(t.userId, t.createdAt)],
 );
+
+// Regulator's workspace (issue #8): closure and reopening notices, the zones each covers, and the
+// sample results a regulator enters before a zone may reopen.
+
+/** A closure or reopening notice issued by a regulator for one or more zones of its jurisdiction. */
+export const notices = pgTable(
+  'notices',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    jurisdictionId: uuid('jurisdiction_id')
+      .notNull()
+      .references(() => jurisdictions.id),
+    kind: text('kind', { enum: ['closure', 'reopening'] }).notNull(),
+    /** A note to growers, shown in the e-mail, the in-app message and on the public page. */
+    message: text('message'),
+    /** The flow that prompted a closure (m³/s), when the regulator gave one. */
+    flow: doublePrecision('flow'),
+    issuedBy: text('issued_by')
+      .notNull()
+      .references(() => users.id),
+    issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
+    /** Growers told (one e-mail and one in-app message each) and e-mails the SMTP server accepted. */
+    recipients: integer('recipients').notNull().default(0),
+    emailsSent: integer('emails_sent').notNull().default(0),
+  },
+  (t) => [index('notices_jurisdiction_idx').on(t.jurisdictionId, t.issuedAt)],
+);
+
+export const noticeZones = pgTable(
+  'notice_zones',
+  {
+    noticeId: uuid('notice_id')
+      .notNull()
+      .references(() => notices.id, { onDelete: 'cascade' }),
+    zoneId: uuid('zone_id')
+      .notNull()
+      .references(() => closureZones.id, { onDelete: 'cascade' }),
+    statusBefore: text('status_before').notNull(),
+    statusAfter: text('status_after').notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.noticeId, t.zoneId] }), index('notice_zones_zone_idx').on(t.zoneId)],
+);
+
+/** A sample result for a zone, entered by a regulator; a passing one (at or under the standard) allows reopening. */
+export const zoneSamples = pgTable(
+  'zone_samples',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    zoneId: uuid('zone_id')
+      .notNull()
+      .references(() => closureZones.id, { onDelete: 'cascade' }),
+    sampledAt: timestamp('sampled_at', { withTimezone: true }).notNull(),
+    /** Indicator count per 100 mL. */
+    indicator: doublePrecision('indicator').notNull(),
+    /** The zone's standard when the result was entered, and whether the result is at or under it. */
+    standard: doublePrecision('standard').notNull(),
+    passed: boolean('passed').notNull(),
+    notes: text('notes'),
+    enteredBy: text('entered_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('zone_samples_zone_idx').on(t.zoneId, t.sampledAt)],
+);

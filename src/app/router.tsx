@@ -48,8 +48,19 @@ export function createRouter() {
         { path: '/advisers', lazy: () => import('../features/clients/components/advisers-page').then((m) => ({ Component: m.AdvisersPage })), errorElement: <RouteError /> },
         { path: '/plan', lazy: () => import('../features/billing/components/plan-page').then((m) => ({ Component: m.PlanPage })), errorElement: <RouteError /> },
         { path: '/alerts', lazy: () => import('../features/alerts/components/alerts-page').then((m) => ({ Component: m.AlertsPage })), errorElement: <RouteError /> },
+        { path: '/zones', lazy: () => import('./routes/zones-route').then((m) => ({ Component: m.ZonesRoute })), errorElement: <RouteError /> },
+        { path: '/zones/:id', lazy: () => import('../features/regulator/components/zone-page').then((m) => ({ Component: m.ZonePage })), errorElement: <RouteError /> },
+        { path: '/closure-check', lazy: () => import('../features/regulator/components/closure-check-page').then((m) => ({ Component: m.ClosureCheckPage })), errorElement: <RouteError /> },
+        { path: '/notices', lazy: () => import('../features/regulator/components/notices-page').then((m) => ({ Component: m.NoticesPage })), errorElement: <RouteError /> },
+        { path: '/audit-log', lazy: () => import('../features/regulator/components/audit-log-page').then((m) => ({ Component: m.AuditLogPage })), errorElement: <RouteError /> },
         { path: '*', element: <NotFoundPage /> },
       ],
+    },
+    // The public status page: no sign-in, no app shell, printable.
+    {
+      path: '/status/:jurisdiction',
+      errorElement: <RouteError />,
+      lazy: () => import('../features/public-status/components/public-status-page').then((m) => ({ Component: m.PublicStatusPage })),
     },
   ]);
 }

@@ -44,6 +44,10 @@ export const NAVIGATION: Record<Role, NavItem[]> = {
     { to: '/rivers', label: 'Rivers' },
     { to: '/alerts', label: 'Alerts' },
     { to: '/plan', label: 'Plan' },
+    { to: '/zones', label: 'Zones' },
+    { to: '/closure-check', label: 'Closure check' },
+    { to: '/notices', label: 'Notices' },
+    { to: '/audit-log', label: 'Audit log' },
   ],
   admin: [
     { to: '/', label: 'Overview' },

@@ -6,9 +6,12 @@ const baseUrl = inject('baseUrl');
 const browser = browserForThisFile();
 
 const EXPECTED_NAV = {
-  grower: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox'] },
-  adviser: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox'] },
-  regulator: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox'] },
+  grower: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox', 'Zones', 'Closure check', 'Notices'] },
+  adviser: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox', 'Zones', 'Closure check', 'Notices'] },
+  regulator: {
+    sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator', 'Zones', 'Closure check', 'Notices', 'Audit log'],
+    doesNotSee: ['People', 'Outbox'],
+  },
   admin: { sees: ['Overview', 'People', 'Outbox', 'Audit log'], doesNotSee: ['Plume calculator', 'Leases', 'Exposure map', 'Compare'] },
 } as const;
 
