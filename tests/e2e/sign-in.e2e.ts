@@ -6,11 +6,11 @@ const baseUrl = inject('baseUrl');
 const browser = browserForThisFile();
 
 const EXPECTED_NAV = {
-  grower: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox', 'Zones', 'Closure check', 'Notices'] },
-  adviser: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator'], doesNotSee: ['People', 'Outbox', 'Zones', 'Closure check', 'Notices'] },
+  grower: { sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator', 'Rivers', 'Alerts', 'Advisers', 'Plan'], doesNotSee: ['People', 'Outbox', 'Zones', 'Closure check', 'Notices'] },
+  adviser: { sees: ['Overview', 'Clients', 'Leases', 'Exposure map', 'Compare', 'Plume calculator', 'Rivers', 'Alerts', 'Plan'], doesNotSee: ['People', 'Outbox', 'Zones', 'Closure check', 'Notices'] },
   regulator: {
-    sees: ['Overview', 'Leases', 'Exposure map', 'Compare', 'Plume calculator', 'Zones', 'Closure check', 'Notices', 'Audit log'],
-    doesNotSee: ['People', 'Outbox'],
+    sees: ['Overview', 'Leases', 'Exposure map', 'Plume calculator', 'Zones', 'Closure check', 'Notices', 'Audit log', 'Rivers', 'Alerts'],
+    doesNotSee: ['People', 'Outbox', 'Plan', 'Compare'],
   },
   admin: { sees: ['Overview', 'People', 'Outbox', 'Audit log'], doesNotSee: ['Plume calculator', 'Leases', 'Exposure map', 'Compare'] },
 } as const;
