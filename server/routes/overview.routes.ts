@@ -1,7 +1,7 @@
-import { nearbyClosureListSchema } from '#shared/schemas/closures';
+import { nearbyClosureListSchema, zoneMapSchema } from '#shared/schemas/closures';
 import type { Database } from '../db/client';
 import { defineRoute, type RouteContext } from '../http/route';
-import { nearbyClosures } from '../services/nearby-closures.service';
+import { nearbyClosures, zonesForMap } from '../services/nearby-closures.service';
 
 export function registerOverviewRoutes(ctx: RouteContext, db: Database): void {
   defineRoute(ctx, {
@@ -12,5 +12,15 @@ export function registerOverviewRoutes(ctx: RouteContext, db: Database): void {
     access: { roles: ['grower', 'adviser', 'regulator'] },
     response: nearbyClosureListSchema,
     handler: ({ user }) => nearbyClosures(db, user!),
+  });
+
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/overview/zones',
+    summary: 'Closure zones (outline, status, trigger flow) of the jurisdictions you work in, for the map',
+    tags: ['overview', 'zones'],
+    access: { roles: ['grower', 'adviser', 'regulator'] },
+    response: zoneMapSchema,
+    handler: ({ user }) => zonesForMap(db, user!),
   });
 }

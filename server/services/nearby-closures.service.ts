@@ -3,7 +3,7 @@
  * near them (geodesic distance), for the overview. A zone with no lease of the caller nearby is left out.
  */
 import { sql } from 'drizzle-orm';
-import { NEARBY_CLOSURE_DISTANCE_M, type NearbyClosureList, type ZoneStatus } from '#shared/schemas/closures';
+import { NEARBY_CLOSURE_DISTANCE_M, type NearbyClosureList, type ZoneMap, type ZoneStatus } from '#shared/schemas/closures';
 import type { Database } from '../db/client';
 import type { CurrentUser } from '../http/route';
 import { visibleLeases } from './leases.service';
@@ -42,4 +42,41 @@ export async function nearbyClosures(db: Database, user: CurrentUser): Promise<N
     byZone.set(r.zone_id, zone);
   }
   return { items: [...byZone.values()], distanceM: NEARBY_CLOSURE_DISTANCE_M };
+}
+
+/**
+ * The closure zones of the jurisdictions the caller works in (a regulator's own; a grower's or
+ * adviser's through the leases they can see), for the exposure map. Zones and their statuses are
+ * public (the status page lists them), so nothing private is added here.
+ */
+export async function zonesForMap(db: Database, user: CurrentUser): Promise<ZoneMap> {
+  const rows = await db.execute<{
+    id: string;
+    name: string;
+    status: ZoneStatus;
+    since: Date;
+    river_name: string | null;
+    trigger_flow: number | null;
+    geometry: string;
+  }>(sql`
+    SELECT z.id, z.name, z.status, z.status_since AS since, r.name AS river_name, z.trigger_flow, ST_AsGeoJSON(z.geom, 6) AS geometry
+      FROM closure_zones z LEFT JOIN rivers r ON r.id = z.river_id
+     WHERE z.jurisdiction_id = ${user.jurisdictionId ?? null}::uuid
+        OR z.jurisdiction_id IN (SELECT l.jurisdiction_id FROM leases l WHERE l.jurisdiction_id IS NOT NULL AND ${visibleLeases(user)})
+     ORDER BY z.name`);
+  return {
+    type: 'FeatureCollection',
+    features: rows.rows.map((r) => ({
+      type: 'Feature' as const,
+      properties: {
+        id: r.id,
+        name: r.name,
+        status: r.status,
+        since: new Date(r.since).toISOString(),
+        riverName: r.river_name,
+        triggerFlow: r.trigger_flow === null ? null : Number(r.trigger_flow),
+      },
+      geometry: JSON.parse(r.geometry),
+    })),
+  };
 }

@@ -20,3 +20,23 @@ export const nearbyClosureSchema = z.object({
 export type NearbyClosure = z.infer<typeof nearbyClosureSchema>;
 export const nearbyClosureListSchema = z.object({ items: z.array(nearbyClosureSchema), distanceM: z.number() });
 export type NearbyClosureList = z.infer<typeof nearbyClosureListSchema>;
+
+/** Closure zones as GeoJSON for the exposure map: public plan values and status only. */
+export const zoneMapSchema = z.object({
+  type: z.literal('FeatureCollection'),
+  features: z.array(
+    z.object({
+      type: z.literal('Feature'),
+      properties: z.object({
+        id: z.string(),
+        name: z.string(),
+        status: z.enum(ZONE_STATUSES),
+        since: z.string(),
+        riverName: z.string().nullable(),
+        triggerFlow: z.number().nullable().describe("The management plan's trigger flow, m³/s"),
+      }),
+      geometry: z.unknown().describe('GeoJSON MultiPolygon in EPSG:4326'),
+    }),
+  ),
+});
+export type ZoneMap = z.infer<typeof zoneMapSchema>;

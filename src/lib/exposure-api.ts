@@ -5,6 +5,7 @@
  */
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { FeatureCollection } from 'geojson';
+import type { ZoneMap } from '#shared/schemas/closures';
 import type { Lease } from '#shared/schemas/lease';
 import type { River, Scenario } from '#shared/schemas/river';
 import { api } from './api-client';
@@ -112,6 +113,13 @@ export const exposureKeys = {
     }),
   /** Same key as the leases feature's detail query, so the cache is shared. */
   lease: (id: string) => queryOptions({ queryKey: ['leases', 'detail', id] as const, queryFn: () => api<Lease>(`/leases/${id}`) }),
+  /** Closure zones of the caller's jurisdictions, with status and trigger flow. */
+  zones: () =>
+    queryOptions({
+      queryKey: ['overview', 'zones'] as const,
+      queryFn: () => api<ZoneMap>('/overview/zones'),
+      staleTime: 60_000,
+    }),
   /** How many leases the caller may see (decides between GeoJSON and vector tiles on the map). */
   leaseCount: () =>
     queryOptions({

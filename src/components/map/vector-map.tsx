@@ -103,7 +103,7 @@ export default function VectorMap({
   drawnKey,
   showLegend = true,
 }: VectorMapProps) {
-  const target = useRef<HTMLDivElement>(null);
+  const target = useRef<HTMLElement>(null);
   const mapRef = useRef<OlMap | null>(null);
   const fitted = useRef(false);
   const selectRef = useRef(onSelect);
@@ -221,10 +221,9 @@ export default function VectorMap({
   const legend = layers.filter((l) => !l.hideInLegend);
   return (
     <figure className="m-0">
-      <div
+      {/* A labelled section (a region), not an image: it holds the zoom buttons, which stay reachable by keyboard. */}
+      <section
         ref={target}
-        // A region, not an image: it holds the zoom buttons, which stay reachable by keyboard.
-        role="region"
         aria-roledescription="map"
         data-map=""
         aria-label={ariaLabel}

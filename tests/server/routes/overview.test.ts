@@ -76,3 +76,17 @@ describe('GET /overview/closures', () => {
     expect(testZone((await regulator.get('/api/v1/overview/closures').expect(200)).body)).toEqual(['IN-ZONE']);
   });
 });
+
+describe('GET /overview/zones', () => {
+  it('gives the zones of the jurisdiction of the leases the grower sees, with status and trigger, as GeoJSON', async () => {
+    const res = await grower.get('/api/v1/overview/zones').expect(200);
+    expect(res.body.type).toBe('FeatureCollection');
+    const closed = res.body.features.find((f: { properties: { name: string } }) => f.properties.name === 'Closed test zone');
+    expect(closed.properties.status).toBe('closed');
+    expect(closed.geometry.type).toBe('MultiPolygon');
+    // The outline round-trips: the zone's west edge is at 30.70° W.
+    expect(Math.min(...closed.geometry.coordinates[0][0].map((c: number[]) => c[0]))).toBeCloseTo(-30.7, 6);
+    const reg = await regulator.get('/api/v1/overview/zones').expect(200);
+    expect(reg.body.features.map((f: { properties: { name: string } }) => f.properties.name)).toContain('Open test zone');
+  });
+});

@@ -63,6 +63,7 @@ export function ExposureMapPage() {
   const useTiles = searchParams.get('leaseTiles') === 'on' || (leaseCount.data !== undefined && leaseCount.data > LEASE_TILE_THRESHOLD);
   const leases = useQuery({ ...exposureKeys.leasesWithGeometry(), enabled: leaseCount.isSuccess && !useTiles });
   const land = useQuery(exposureKeys.land());
+  const zones = useQuery(exposureKeys.zones());
 
   const byLease = useMemo(() => new Map((screenings.data?.items ?? []).map((r) => [r.leaseId, r] as const)), [screenings.data]);
 
@@ -82,6 +83,30 @@ export function ExposureMapPage() {
           strokeWidth: 1.5,
         });
       }
+    }
+    if (zones.data?.features.length) {
+      const zoneStatusWords = { open: 'open', closed: 'CLOSED', 'reopening-pending': 'waiting to reopen' } as const;
+      out.push({
+        id: 'zones',
+        label: 'Closure zone (outline; name and status on the map)',
+        data: {
+          type: 'FeatureCollection',
+          features: zones.data.features.map((f) => ({
+            type: 'Feature',
+            properties: {
+              label: `${f.properties.name} · ${zoneStatusWords[f.properties.status]}`,
+              stroke: f.properties.status === 'open' ? '#2f7a66' : '#8a3b12',
+            },
+            geometry: f.geometry as Geometry,
+          })),
+        },
+        fill: 'rgba(0,0,0,0)',
+        stroke: '#2f7a66',
+        strokeProperty: 'stroke',
+        strokeWidth: 2.5,
+        dashed: true,
+        labelProperty: 'label',
+      });
     }
     const mouths: FeatureCollection = {
       type: 'FeatureCollection',
@@ -153,7 +178,7 @@ export function ExposureMapPage() {
       });
     }
     return out;
-  }, [land.data, footprint.data, leases.data, byLease, rivers.data, useTiles, ratingScenario, riverId]);
+  }, [land.data, footprint.data, leases.data, byLease, rivers.data, useTiles, ratingScenario, riverId, zones.data]);
 
   if (rivers.isPending) return <Loading what="Loading rivers…" />;
   if (rivers.isError) return <LoadError error={rivers.error} retry={() => rivers.refetch()} />;
