@@ -53,7 +53,7 @@ describe('accessibility and tablet layout', () => {
     await page.setViewportSize({ width: 820, height: 1180 });
     const errors = watchErrors(page);
     await signInThroughForm(page, baseUrl, 'grower@brackline.test', DEMO_PASSWORD);
-    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
     const problems: string[] = [];
     for (const screen of SCREENS) {
       await page.goto(`${baseUrl}${screen.path}`);

@@ -37,13 +37,13 @@ describe('a grower buys the Alerts plan and gets an alert from the gauge feed', 
     const page = await browser().newPage();
     const errors = watchErrors(page);
     await signInThroughForm(page, baseUrl, 'grower@brackline.test', DEMO_PASSWORD);
-    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
 
     // 1. On the Free plan, the Alerts page points to the plan.
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Alerts' }).click();
     await page.getByText('Lease alerts are part of the Alerts plan').waitFor();
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Plan' }).click();
-    await page.getByRole('heading', { name: 'Plan' }).waitFor();
+    await page.getByRole('heading', { name: 'Plan', exact: true, level: 1 }).waitFor();
     await page.getByText('Subscription: No subscription').waitFor();
     await screenshot(page, 'alerts-1-plan-free');
 
@@ -112,7 +112,7 @@ describe('a grower buys the Alerts plan and gets an alert from the gauge feed', 
     const page = await browser().newPage();
     const errors = watchErrors(page);
     await signInThroughForm(page, baseUrl, 'regulator@brackline.test', DEMO_PASSWORD);
-    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Alerts' }).click();
     const form = page.getByRole('form', { name: 'New closure-zone alert' });
     const zone = form.getByLabel('Closure zone');

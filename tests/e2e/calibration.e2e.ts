@@ -31,9 +31,9 @@ describe('monitoring and calibration', () => {
     const page = await browser().newPage();
     const errors = watchErrors(page);
     await signInThroughForm(page, baseUrl, 'regulator@brackline.test', DEMO_PASSWORD);
-    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Monitoring' }).click();
-    await page.getByRole('heading', { name: 'Monitoring and calibration' }).waitFor();
+    await page.getByRole('heading', { name: 'Monitoring and calibration', exact: true, level: 1 }).waitFor();
 
     // A samples file with bad rows: each is listed with its row number, nothing is saved.
     const samplesForm = page.getByRole('form', { name: 'Upload samples' });

@@ -37,7 +37,7 @@ async function signInAs(email: string) {
   const page = await browser().newPage();
   const errors = watchErrors(page);
   await signInThroughForm(page, baseUrl, email, DEMO_PASSWORD);
-  await page.getByRole('heading', { name: 'Overview' }).waitFor();
+  await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
   return { page, errors };
 }
 
@@ -47,7 +47,7 @@ describe('an adviser and a new client', () => {
     {
       const { page, errors } = await signInAs('adviser@brackline.test');
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Clients' }).click();
-      await page.getByRole('heading', { name: 'Clients' }).waitFor();
+      await page.getByRole('heading', { name: 'Clients', exact: true, level: 1 }).waitFor();
       // The demo client, Saltreed Oysters, with its shared held leases and their ratings.
       await page.getByRole('heading', { name: /Ida Marsh/ }).waitFor();
       const form = page.getByRole('form', { name: 'Invite a grower' });
@@ -69,7 +69,7 @@ describe('an adviser and a new client', () => {
     {
       const { page, errors } = await signInAs(GROWER);
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Advisers' }).click();
-      await page.getByRole('heading', { name: 'Advisers' }).waitFor();
+      await page.getByRole('heading', { name: 'Advisers', exact: true, level: 1 }).waitFor();
       const card = page.getByTestId('adviser').filter({ hasText: 'Tomas Quill' });
       await card.getByText('Shall we look at your two candidate sites').waitFor();
       await card.getByRole('checkbox', { name: /FB-010/ }).check();

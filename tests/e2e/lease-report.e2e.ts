@@ -12,7 +12,7 @@ describe('a grower reads a lease report and the exposure map', () => {
     const page = await browser().newPage();
     const errors = watchErrors(page);
     await signInThroughForm(page, baseUrl, 'grower@brackline.test', DEMO_PASSWORD);
-    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
     // The overview lists the grower's leases by worst rating.
     await page.getByRole('table', { name: 'Leases by worst rating' }).waitFor();
     await screenshot(page, 'overview-grower-ratings');
@@ -53,7 +53,7 @@ describe('a grower reads a lease report and the exposure map', () => {
     const page = await browser().newPage();
     const errors = watchErrors(page);
     await page.goto(`${baseUrl}/map`);
-    await page.getByRole('heading', { name: 'Exposure map' }).waitFor();
+    await page.getByRole('heading', { name: 'Exposure map', exact: true, level: 1 }).waitFor();
     const map = page.locator('[data-map][data-drawn]');
     await map.waitFor();
     const before = await map.getAttribute('data-drawn');
@@ -84,9 +84,9 @@ describe('a grower reads a lease report and the exposure map', () => {
       if (r.url().includes('/api/v1/tiles/leases/')) tiles.push({ status: r.status(), bytes: (await r.body()).length });
     });
     await signInThroughForm(page, baseUrl, 'grower@brackline.test', DEMO_PASSWORD);
-    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
     await page.goto(`${baseUrl}/map?leaseTiles=on`);
-    await page.getByRole('heading', { name: 'Exposure map' }).waitFor();
+    await page.getByRole('heading', { name: 'Exposure map', exact: true, level: 1 }).waitFor();
     await page.locator('[data-map][data-drawn]').waitFor();
     await page.waitForFunction(() => performance.getEntriesByType('resource').some((e) => e.name.includes('/api/v1/tiles/leases/')));
     await page.waitForTimeout(500);

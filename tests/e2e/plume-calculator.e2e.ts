@@ -11,7 +11,7 @@ describe('plume calculator', () => {
     const errors = watchErrors(page);
     await signInThroughForm(page, baseUrl, 'grower@brackline.test', DEMO_PASSWORD);
     await page.getByRole('link', { name: 'Plume calculator' }).click();
-    await page.getByRole('heading', { name: 'Plume calculator' }).waitFor();
+    await page.getByRole('heading', { name: 'Plume calculator', exact: true, level: 1 }).waitFor();
     const turns = page.getByTestId('plume-Turns');
     expect(await turns.textContent()).toMatch(/right/);
     await screenshot(page, 'plume-calculator');

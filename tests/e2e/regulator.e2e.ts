@@ -53,7 +53,7 @@ async function signInAsRegulator() {
   const page = await browser().newPage();
   const errors = watchErrors(page);
   await signInThroughForm(page, baseUrl, 'regulator@brackline.test', DEMO_PASSWORD);
-  await page.getByRole('heading', { name: 'Overview' }).waitFor();
+  await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
   return { page, errors };
 }
 

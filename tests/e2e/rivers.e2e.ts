@@ -38,7 +38,7 @@ describe('an adviser sets up a river from a gauge record', () => {
     const page = await browser().newPage();
     const errors = watchErrors(page);
     await signInThroughForm(page, baseUrl, 'adviser@brackline.test', DEMO_PASSWORD);
-    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
 
     // The list, then a new river from its mouth alone.
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Rivers' }).click();

@@ -29,13 +29,13 @@ async function signInAs(email: string) {
   const page = await browser().newPage();
   const errors = watchErrors(page);
   await signInThroughForm(page, baseUrl, email, DEMO_PASSWORD);
-  await page.getByRole('heading', { name: 'Overview' }).waitFor();
+  await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
   return { page, errors };
 }
 
 async function openLeases(page: Awaited<ReturnType<typeof signInAs>>['page'], search: string) {
   await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Leases' }).click();
-  await page.getByRole('heading', { name: 'Leases' }).waitFor();
+  await page.getByRole('heading', { name: 'Leases', exact: true, level: 1 }).waitFor();
   await page.getByLabel('Find a lease').fill(search);
 }
 
@@ -120,7 +120,7 @@ describe('an adviser sees a client’s lease only after the grower shares it', (
     // 6. The adviser no longer finds FB-004.
     {
       const { page, errors } = await signInAs('adviser@brackline.test');
-      await page.getByRole('heading', { name: 'Overview' }).waitFor();
+      await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
       const res = await page.request.get(`${baseUrl}/api/v1/leases?q=FB-004&withGeometry=false`);
       expect((await res.json()).total).toBe(0);
       expect(errors).toEqual([]);

@@ -21,7 +21,7 @@ describe('each demo role signs in and sees its own navigation', () => {
     const errors = watchErrors(page);
     await browser().clearCookies();
     await signInThroughForm(page, baseUrl, `${role}@brackline.test`, DEMO_PASSWORD);
-    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
     const nav = page.getByRole('navigation', { name: 'Main' });
     for (const label of EXPECTED_NAV[role].sees) {
       expect(await nav.getByRole('link', { name: label }).count(), `${role} sees ${label}`).toBe(1);
@@ -74,7 +74,7 @@ describe('sign-up', () => {
     await page.getByText('password must be at least 10 characters').waitFor();
     await page.getByLabel('Password').fill('a-good-long-password');
     await page.getByRole('button', { name: 'Create account' }).click();
-    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
     await screenshot(page, 'sign-up-done');
     await page.close();
   });

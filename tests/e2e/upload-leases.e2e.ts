@@ -16,9 +16,9 @@ describe('uploading leases through the browser', () => {
     await page.getByLabel('E-mail').fill(`wren.${Date.now()}@brackline.test`);
     await page.getByLabel('Password').fill('a-good-long-password');
     await page.getByRole('button', { name: 'Create account' }).click();
-    await page.getByRole('heading', { name: 'Overview' }).waitFor();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Leases' }).click();
-    await page.getByRole('heading', { name: 'Leases' }).waitFor();
+    await page.getByRole('heading', { name: 'Leases', exact: true, level: 1 }).waitFor();
     await page.getByText('No leases yet').waitFor();
     await page.getByRole('button', { name: 'Upload lease boundaries' }).click();
     await page.getByLabel('File').setInputFiles(path.resolve(import.meta.dirname, '../../demo-data/leases/gullstone-shellfish-leases.zip'));
