@@ -15,6 +15,7 @@
  */
 import { computePlume, type PlumeResult } from '../physics/compute-plume';
 import { MAX_ALONGSHORE_SHARE, MIN_ALONGSHORE_SHARE } from '../physics/constants';
+import { plumeInput } from '../physics/river-plume';
 import { dielDecayRate } from '../physics/decay';
 import {
   type ExposureParameters,
@@ -131,18 +132,7 @@ export function samplePlume(
   discharge: number,
   alongshoreShare = settings.alongshoreShare,
 ): PlumeResult {
-  return computePlume({
-    latitude: settings.mouthLatitude,
-    discharge,
-    riverSalinity: settings.riverSalinity,
-    riverTemperature: settings.riverTemperature,
-    seaSalinity: settings.seaSalinity,
-    seaTemperature: settings.seaTemperature,
-    mouthWidth: settings.mouthWidth,
-    mouthDepth: settings.mouthDepth,
-    shelfSlope: settings.shelfSlope,
-    alongshoreShare,
-  });
+  return computePlume(plumeInput(settings, discharge, alongshoreShare));
 }
 
 /** A sample placed relative to one river. */

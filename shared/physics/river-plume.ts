@@ -9,7 +9,7 @@
 
 import type { IndicatorSpec } from './exposure-field';
 import { type ExposureParameters, exposureParameters, fieldAt, defaultAlongExtent } from './exposure-field';
-import { computePlume, type PlumeResult } from './compute-plume';
+import { computePlume, type PlumeInput, type PlumeResult } from './compute-plume';
 import { coastalCurrentThickness } from './coastal-current';
 
 /** The river settings the plume needs (the shape of shared/schemas/river RiverSettings). */
@@ -32,6 +32,30 @@ export interface RiverPlumeSettings {
 }
 
 /**
+ * The inputs of {@link computePlume} for a river's settings at one flow (no flood duration, so no
+ * alongshore cut-off unless the caller adds one).
+ * Source: (c) a mapping of names; the physics is computePlume's.
+ */
+export function plumeInput(
+  settings: Omit<RiverPlumeSettings, 'mixingLength' | 't90DayHours' | 't90NightHours' | 'indicator'>,
+  discharge: number,
+  alongshoreShare = settings.alongshoreShare,
+): PlumeInput {
+  return {
+    latitude: settings.mouthLatitude,
+    discharge,
+    riverSalinity: settings.riverSalinity,
+    riverTemperature: settings.riverTemperature,
+    seaSalinity: settings.seaSalinity,
+    seaTemperature: settings.seaTemperature,
+    mouthWidth: settings.mouthWidth,
+    mouthDepth: settings.mouthDepth,
+    shelfSlope: settings.shelfSlope,
+    alongshoreShare,
+  };
+}
+
+/**
  * The water and plume inputs of the engine for a river at one flow.
  *
  * @param settings - river settings with defaults filled in
@@ -41,20 +65,11 @@ export interface RiverPlumeSettings {
  * riverPlume(settings, { discharge: 650, durationHours: 72 }).plume.regime; // => 'surface-advected'
  * Source: (c) derived: the chain of {@link computePlume} and {@link exposureParameters}.
  */
-export function riverPlume(settings: RiverPlumeSettings, flow: { discharge: number; durationHours: number }): { plume: PlumeResult; params: ExposureParameters } {
-  const plume = computePlume({
-    latitude: settings.mouthLatitude,
-    discharge: flow.discharge,
-    riverSalinity: settings.riverSalinity,
-    riverTemperature: settings.riverTemperature,
-    seaSalinity: settings.seaSalinity,
-    seaTemperature: settings.seaTemperature,
-    mouthWidth: settings.mouthWidth,
-    mouthDepth: settings.mouthDepth,
-    shelfSlope: settings.shelfSlope,
-    alongshoreShare: settings.alongshoreShare,
-    floodDurationHours: flow.durationHours,
-  });
+export function riverPlume(
+  settings: RiverPlumeSettings,
+  flow: { discharge: number; durationHours: number },
+): { plume: PlumeResult; params: ExposureParameters } {
+  const plume = computePlume({ ...plumeInput(settings, flow.discharge), floodDurationHours: flow.durationHours });
   const base = exposureParameters(
     {
       mixingLength: settings.mixingLength,

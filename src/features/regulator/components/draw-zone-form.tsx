@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { FeatureCollection, Polygon } from 'geojson';
 import { lazy, Suspense, useMemo, useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { type UseFormRegister, useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
 import type { z } from 'zod';
 import { zonePlanSchema } from '#shared/schemas/zones';
@@ -12,12 +12,12 @@ import { Loading } from '../../../components/ui/states';
 import { TextField } from '../../../components/ui/text-field';
 import { api } from '../../../lib/api-client';
 import { createZone, zoneKeys } from '../api/zones-api';
+import { type PlanNumbers, PlanValueFields } from './plan-value-fields';
 
 const DrawZoneMap = lazy(() => import('./draw-zone-map'));
 
 const drawFormSchema = zonePlanSchema.pick({ name: true, riverId: true, triggerFlow: true, minClosureDays: true, indicatorStandard: true });
 type DrawForm = z.infer<typeof drawFormSchema>;
-const numberOrNull = (v: unknown) => (v === '' || v == null ? null : Number(v));
 
 /** A zone drawn on the map, with its first plan values. */
 export function DrawZoneForm({ onCancel }: { onCancel: () => void }) {
@@ -95,27 +95,10 @@ export function DrawZoneForm({ onCancel }: { onCancel: () => void }) {
             ))}
           </select>
         </div>
-        <TextField
-          label="Trigger flow (m³/s)"
-          type="number"
-          step="any"
-          {...form.register('triggerFlow', { setValueAs: numberOrNull })}
-          error={errors.triggerFlow?.message}
-        />
-        <TextField
-          label="Minimum closure (days)"
-          type="number"
-          step="any"
-          {...form.register('minClosureDays', { setValueAs: numberOrNull })}
-          error={errors.minClosureDays?.message}
-        />
-        <TextField
-          label="Indicator standard (per 100 mL)"
-          type="number"
-          step="any"
-          hint="14 is the approved-area geometric mean used for screening."
-          {...form.register('indicatorStandard', { setValueAs: numberOrNull })}
-          error={errors.indicatorStandard?.message}
+        <PlanValueFields
+          register={form.register as unknown as UseFormRegister<PlanNumbers>}
+          errors={errors}
+          standardHint="14 is the approved-area geometric mean used for screening."
         />
         <div className="flex items-end gap-2">
           <Button type="submit" disabled={save.isPending}>

@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { FeatureCollection, Geometry } from 'geojson';
 import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { type UseFormRegister, useForm } from 'react-hook-form';
 import { Link, useParams } from 'react-router-dom';
 import type { z } from 'zod';
 import { type SampleForm, sampleFormSchema, type TriggerSweep, type Zone, zonePlanSchema } from '#shared/schemas/zones';
@@ -17,6 +17,7 @@ import { api } from '../../../lib/api-client';
 import { fmtFlow, fmtNumber, returnPeriodLabel } from '../../../lib/format';
 import { addSample, type GaugeOption, updateZone, zoneKeys } from '../api/zones-api';
 import { fmtWhen, ZoneStatusBadge } from './zone-status';
+import { type PlanNumbers, PlanValueFields } from './plan-value-fields';
 
 const TriggerSweepChart = lazy(() => import('./trigger-sweep-chart').then((m) => ({ default: m.TriggerSweepChart })));
 
@@ -28,7 +29,6 @@ const planFormSchema = zonePlanSchema.pick({
   indicatorStandard: true,
 });
 type PlanForm = z.infer<typeof planFormSchema>;
-const numberOrNull = (v: unknown) => (v === '' || v == null ? null : Number(v));
 
 const SHARES = [
   { value: 0, label: 'Any part of the zone' },
@@ -311,27 +311,7 @@ function PlanValues({
               ))}
           </select>
         </div>
-        <TextField
-          label="Trigger flow (m³/s)"
-          type="number"
-          step="any"
-          {...form.register('triggerFlow', { setValueAs: numberOrNull })}
-          error={errors.triggerFlow?.message}
-        />
-        <TextField
-          label="Minimum closure (days)"
-          type="number"
-          step="any"
-          {...form.register('minClosureDays', { setValueAs: numberOrNull })}
-          error={errors.minClosureDays?.message}
-        />
-        <TextField
-          label="Indicator standard (per 100 mL)"
-          type="number"
-          step="any"
-          {...form.register('indicatorStandard', { setValueAs: numberOrNull })}
-          error={errors.indicatorStandard?.message}
-        />
+        <PlanValueFields register={form.register as unknown as UseFormRegister<PlanNumbers>} errors={errors} />
         <div className="flex items-end">
           <Button type="submit" disabled={save.isPending || !form.formState.isDirty}>
             {save.isPending ? 'Saving…' : 'Save plan values'}
