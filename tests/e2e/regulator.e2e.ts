@@ -58,7 +58,15 @@ async function signInAsRegulator() {
 }
 
 type Page = Awaited<ReturnType<typeof signInAsRegulator>>['page'];
-const nav = (page: Page, name: string) => page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name, exact: true }).click();
+/** Follows a main-menu link and waits until the router has committed the new page (the link is then the current one). */
+async function nav(page: Page, name: string) {
+  const link = page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name, exact: true });
+  await link.click();
+  await page.waitForFunction((label) => {
+    const current = document.querySelector('nav[aria-label="Main"] a[aria-current="page"]');
+    return current?.textContent?.trim() === label;
+  }, name);
+}
 
 /** "YYYY-MM-DDTHH:mm" in the browser's local time, for a datetime-local field. */
 function localInput(d: Date): string {
@@ -104,7 +112,7 @@ describe('a regulator justifies a trigger, checks a flood, closes and reopens a 
     // 2. Closure check at a flood flow: table, map and CSV.
     await nav(page, 'Closure check');
     await page.getByLabel('River', { exact: true }).selectOption({ label: 'Amberlin River' });
-    await page.getByLabel('Flow (m³/s)').fill('2000');
+    await page.getByLabel('Flow (m³/s)', { exact: true }).fill('2000');
     await page.getByRole('button', { name: 'Run the check' }).click();
     const zoneRow = page.getByRole('table', { name: 'Zones at this flow' }).getByRole('row', { name: new RegExp(ZONE) });
     await zoneRow.getByText(/At or above/).waitFor();
