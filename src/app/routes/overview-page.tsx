@@ -62,6 +62,8 @@ function summarise(rows: AnnualRow[]): LeaseSummary[] {
 function chanceWords(p: number): string {
   if (p <= 0) return 'Not at any screened flood';
   if (p >= 0.99) return 'Most years';
+  // 1/p rounds to "1 year in 1" above one half: say it in words instead.
+  if (p > 0.5) return `${fmtNumber(p * 100, 0)}% a year (more years than not)`;
   return `${fmtNumber(p * 100, p < 0.1 ? 1 : 0)}% a year (about 1 year in ${fmtNumber(1 / p, 0)})`;
 }
 
@@ -98,7 +100,7 @@ function LeasesByRating() {
         <tbody>
           {rows.map((r) => (
             <tr key={r.leaseId} className="border-b border-shell-100 hover:bg-sand-50">
-              <td className="p-2">
+              <td className="whitespace-nowrap p-2">
                 <Link className="font-semibold text-deep-700 underline" to={`/leases/${r.leaseId}`}>
                   {r.leaseCode}
                 </Link>
