@@ -78,7 +78,8 @@ export function createApp(deps: AppDeps): Express {
       contentSecurityPolicy: {
         directives: {
           defaultSrc: ["'self'"],
-          imgSrc: ["'self'", 'data:', 'blob:'],
+          // The optional basemap's tile server is the one outside origin a page may load images from.
+          imgSrc: ["'self'", 'data:', 'blob:', ...(env.BASEMAP_URL ? [new URL(env.BASEMAP_URL.replace(/\{[a-z]\}/g, '0')).origin] : [])],
           styleSrc: ["'self'", "'unsafe-inline'"],
           workerSrc: ["'self'", 'blob:'],
           connectSrc: ["'self'"],
@@ -148,7 +149,7 @@ export function createApp(deps: AppDeps): Express {
   registerRiverRoutes(ctx, rivers, jobs);
   registerCoastRoutes(ctx, db);
   registerInboxRoutes(ctx, createInboxService(db));
-  registerOverviewRoutes(ctx, db);
+  registerOverviewRoutes(ctx, db, { basemapUrl: env.BASEMAP_URL ?? null, basemapAttribution: env.BASEMAP_ATTRIBUTION });
   registerClientRoutes(ctx, createClientsService({ db, mailer, appUrl: env.APP_URL }));
   registerScreeningRoutes(ctx, db, rivers, screening, createSweepService({ db, screening }));
   registerMonitoringRoutes(ctx, createMonitoringService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) }));

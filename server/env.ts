@@ -30,18 +30,31 @@ export const envSchema = z.object({
     .min(32, { error: 'AUTH_SECRET must be at least 32 characters long' }),
   /** Public base URL used in e-mailed links. */
   APP_URL: z.string().url({ error: 'APP_URL must be a URL such as http://127.0.0.1:3000' }).default('http://127.0.0.1:3000'),
-  SESSION_MAX_AGE_SECONDS: z.coerce.number().int().positive().default(8 * 3600),
+  SESSION_MAX_AGE_SECONDS: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(8 * 3600),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   /** Sign-in attempts per e-mail address within the throttle window before refusing. */
   SIGN_IN_MAX_FAILURES: z.coerce.number().int().positive().default(5),
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().int().positive().default(15),
   // --- Paid alerts plan: the payment service (a local fake by default) and the gauge feed.
   /** Base URL of the payment API. The local fake by default; https://api.stripe.com for the hosted service. */
-  PAYMENT_API_URL: z.string().url({ error: 'PAYMENT_API_URL must be a URL such as http://127.0.0.1:3010' }).default('http://127.0.0.1:3010'),
+  PAYMENT_API_URL: z
+    .string()
+    .url({ error: 'PAYMENT_API_URL must be a URL such as http://127.0.0.1:3010' })
+    .default('http://127.0.0.1:3010'),
   /** Port of the local payment fake started by npm start (with START_FAKES). */
   PAYMENT_FAKE_PORT: port('PAYMENT_FAKE_PORT', 3010),
-  PAYMENT_SECRET_KEY: z.string().min(8, { error: 'PAYMENT_SECRET_KEY must be the payment service secret key' }).default('sk_test_brackline_local_fake'),
-  PAYMENT_WEBHOOK_SECRET: z.string().min(8, { error: 'PAYMENT_WEBHOOK_SECRET must be the webhook signing secret' }).default('whsec_brackline_local_fake'),
+  PAYMENT_SECRET_KEY: z
+    .string()
+    .min(8, { error: 'PAYMENT_SECRET_KEY must be the payment service secret key' })
+    .default('sk_test_brackline_local_fake'),
+  PAYMENT_WEBHOOK_SECRET: z
+    .string()
+    .min(8, { error: 'PAYMENT_WEBHOOK_SECRET must be the webhook signing secret' })
+    .default('whsec_brackline_local_fake'),
   /** The price of the Alerts plan is looked up (and on the fake, created) by this key. */
   PAYMENT_PRICE_LOOKUP_KEY: z.string().default('brackline-alerts-monthly'),
   /** The local gauge feed (replays the demo rivers' flows); polled every GAUGE_FEED_POLL_SECONDS. */
@@ -51,6 +64,19 @@ export const envSchema = z.object({
   /** Alert e-mail retries while the mail server is down: first delay, doubling, up to the limit. */
   ALERT_RETRY_DELAY_SECONDS: z.coerce.number().int().positive().default(5),
   ALERT_RETRY_LIMIT: z.coerce.number().int().positive().default(16),
+  /**
+   * An optional raster basemap under the maps, as an XYZ template such as
+   * https://tiles.example.org/{z}/{x}/{y}.png. Unset (the default, and in tests) the maps draw
+   * vector layers only and work with no internet; set, users can switch the basemap on.
+   */
+  BASEMAP_URL: z
+    .string()
+    .regex(/^https?:\/\/[^/]+\/.*\{z\}.*\{x\}.*\{y\}/, {
+      error: 'BASEMAP_URL must be an http(s) tile template containing {z}, {x} and {y}, e.g. https://tiles.example.org/{z}/{x}/{y}.png',
+    })
+    .optional(),
+  /** Credit line the basemap's provider asks for, shown on the map. */
+  BASEMAP_ATTRIBUTION: z.string().max(300).default(''),
   /** Serve the built client from dist/ (npm start); off in API tests. */
   SERVE_CLIENT: z
     .enum(['true', 'false'])

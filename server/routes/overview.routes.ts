@@ -1,9 +1,23 @@
-import { nearbyClosureListSchema, zoneMapSchema } from '#shared/schemas/closures';
+import { mapSettingsSchema, nearbyClosureListSchema, zoneMapSchema } from '#shared/schemas/closures';
 import type { Database } from '../db/client';
 import { defineRoute, type RouteContext } from '../http/route';
 import { nearbyClosures, zonesForMap } from '../services/nearby-closures.service';
 
-export function registerOverviewRoutes(ctx: RouteContext, db: Database): void {
+export function registerOverviewRoutes(
+  ctx: RouteContext,
+  db: Database,
+  map: { basemapUrl: string | null; basemapAttribution: string } = { basemapUrl: null, basemapAttribution: '' },
+): void {
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/map-settings',
+    summary: 'Whether an optional raster basemap is configured (BASEMAP_URL); null means vector layers only',
+    tags: ['overview'],
+    access: { roles: 'any' },
+    response: mapSettingsSchema,
+    handler: () => ({ basemap: map.basemapUrl ? { url: map.basemapUrl, attribution: map.basemapAttribution } : null }),
+  });
+
   defineRoute(ctx, {
     method: 'get',
     path: '/overview/closures',

@@ -40,3 +40,12 @@ export const zoneMapSchema = z.object({
   ),
 });
 export type ZoneMap = z.infer<typeof zoneMapSchema>;
+
+/** What the maps may draw beneath their vector layers: nothing (the default), or a raster basemap the user switches on. */
+export const mapSettingsSchema = z.object({
+  basemap: z
+    .object({ url: z.string().describe('XYZ tile template with {z}, {x} and {y}'), attribution: z.string() })
+    .nullable()
+    .describe('null: vector layers only (works with no internet)'),
+});
+export type MapSettings = z.infer<typeof mapSettingsSchema>;

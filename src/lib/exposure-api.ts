@@ -5,7 +5,7 @@
  */
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { FeatureCollection } from 'geojson';
-import type { ZoneMap } from '#shared/schemas/closures';
+import type { MapSettings, ZoneMap } from '#shared/schemas/closures';
 import type { Lease } from '#shared/schemas/lease';
 import type { River, Scenario } from '#shared/schemas/river';
 import { api } from './api-client';
@@ -113,6 +113,9 @@ export const exposureKeys = {
     }),
   /** Same key as the leases feature's detail query, so the cache is shared. */
   lease: (id: string) => queryOptions({ queryKey: ['leases', 'detail', id] as const, queryFn: () => api<Lease>(`/leases/${id}`) }),
+  /** Whether a raster basemap is configured (BASEMAP_URL); null means vector layers only. */
+  mapSettings: () =>
+    queryOptions({ queryKey: ['map-settings'] as const, queryFn: () => api<MapSettings>('/map-settings'), staleTime: Infinity }),
   /** Closure zones of the caller's jurisdictions, with status and trigger flow. */
   zones: () =>
     queryOptions({

@@ -98,6 +98,11 @@ describe('a grower reads a lease report and the exposure map', () => {
     // At least one tile of the demo bay carries leases.
     expect(tiles.some((t) => t.bytes > 100)).toBe(true);
     await screenshot(page, 'exposure-map-lease-tiles');
+    // No basemap is configured in tests: vector layers only, no switch for one, nothing fetched from outside.
+    expect(await page.getByLabel('Background map (needs internet)').count()).toBe(0);
+    expect(
+      await page.evaluate(() => performance.getEntriesByType('resource').filter((e) => !e.name.startsWith(location.origin)).length),
+    ).toBe(0);
     expect(errors).toEqual([]);
     await page.close();
   });

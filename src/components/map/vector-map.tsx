@@ -10,10 +10,12 @@ import type { FeatureLike } from 'ol/Feature';
 import GeoJSON from 'ol/format/GeoJSON';
 import MVT from 'ol/format/MVT';
 import { MultiPolygon, Point, Polygon } from 'ol/geom';
+import TileLayer from 'ol/layer/Tile';
 import VectorLayer from 'ol/layer/Vector';
 import VectorTileLayer from 'ol/layer/VectorTile';
 import VectorSource from 'ol/source/Vector';
 import VectorTileSource from 'ol/source/VectorTile';
+import XYZ from 'ol/source/XYZ';
 import { Circle, Fill, Stroke, Style, Text } from 'ol/style';
 import { useEffect, useRef } from 'react';
 
@@ -70,6 +72,8 @@ export interface VectorMapProps {
   /** Written to the map's data-drawn attribute once these layers are on the map (for tests and printing). */
   drawnKey?: string;
   showLegend?: boolean;
+  /** An XYZ raster basemap drawn beneath the vector layers (off unless given; needs internet). */
+  basemap?: { url: string; attribution: string } | null;
 }
 
 const geojson = new GeoJSON({ dataProjection: 'EPSG:4326', featureProjection: 'EPSG:3857' });
@@ -102,6 +106,7 @@ export default function VectorMap({
   clickableLayers,
   drawnKey,
   showLegend = true,
+  basemap = null,
 }: VectorMapProps) {
   const target = useRef<HTMLElement>(null);
   const mapRef = useRef<OlMap | null>(null);
@@ -142,6 +147,14 @@ export default function VectorMap({
     const map = mapRef.current;
     if (!map) return;
     for (const layer of map.getLayers().getArray().slice()) map.removeLayer(layer);
+    if (basemap) {
+      map.addLayer(
+        new TileLayer({
+          source: new XYZ({ url: basemap.url, attributions: basemap.attribution || undefined, crossOrigin: 'anonymous' }),
+          properties: { id: 'basemap' },
+        }),
+      );
+    }
     const extentSource = new VectorSource();
     for (const spec of layers) {
       const styleFor = (feature: FeatureLike, resolution: number) => {
@@ -216,7 +229,7 @@ export default function VectorMap({
       if (drawnKey) target.current.dataset.drawn = drawnKey;
       else delete target.current.dataset.drawn;
     }
-  }, [layers, fitTo, fit, maxZoom, drawnKey]);
+  }, [layers, fitTo, fit, maxZoom, drawnKey, basemap]);
 
   const legend = layers.filter((l) => !l.hideInLegend);
   return (

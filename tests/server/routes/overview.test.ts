@@ -90,3 +90,33 @@ describe('GET /overview/zones', () => {
     expect(reg.body.features.map((f: { properties: { name: string } }) => f.properties.name)).toContain('Open test zone');
   });
 });
+
+describe('GET /map-settings', () => {
+  it('has no basemap unless one is configured, so the maps work with no internet', async () => {
+    const res = await grower.get('/api/v1/map-settings').expect(200);
+    expect(res.body).toEqual({ basemap: null });
+    // Without a basemap no outside origin may serve images.
+    expect(res.headers['content-security-policy']).toMatch(/img-src 'self' data: blob:;/);
+  });
+
+  it('offers a configured basemap and lets the page load its tiles (and only its tiles) from outside', async () => {
+    const other = await createTestApp({
+      envOverrides: { BASEMAP_URL: 'https://tiles.example.org/{z}/{x}/{y}.png', BASEMAP_ATTRIBUTION: 'Tiles: Example' },
+    });
+    try {
+      const agent = (await signIn(other.app, 'grower@brackline.test')).agent;
+      const res = await agent.get('/api/v1/map-settings').expect(200);
+      expect(res.body).toEqual({ basemap: { url: 'https://tiles.example.org/{z}/{x}/{y}.png', attribution: 'Tiles: Example' } });
+      expect(res.headers['content-security-policy']).toMatch(/img-src 'self' data: blob: https:\/\/tiles\.example\.org;/);
+    } finally {
+      await other.close();
+    }
+  });
+
+  it('refuses a basemap template without {z}, {x} and {y} at boot, naming the variable', async () => {
+    const { loadEnv } = await import('../../../server/env');
+    expect(() =>
+      loadEnv({ DATABASE_URL: 'postgres://x@127.0.0.1/y', AUTH_SECRET: 'x'.repeat(32), BASEMAP_URL: 'https://tiles.example.org/tile.png' }),
+    ).toThrow(/BASEMAP_URL must be an http\(s\) tile template/);
+  });
+});

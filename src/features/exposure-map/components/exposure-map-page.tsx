@@ -64,6 +64,9 @@ export function ExposureMapPage() {
   const leases = useQuery({ ...exposureKeys.leasesWithGeometry(), enabled: leaseCount.isSuccess && !useTiles });
   const land = useQuery(exposureKeys.land());
   const zones = useQuery(exposureKeys.zones());
+  const mapSettings = useQuery(exposureKeys.mapSettings());
+  const [showBasemap, setShowBasemap] = useState(false);
+  const basemap = mapSettings.data?.basemap ?? null;
 
   const byLease = useMemo(() => new Map((screenings.data?.items ?? []).map((r) => [r.leaseId, r] as const)), [screenings.data]);
 
@@ -232,6 +235,12 @@ export function ExposureMapPage() {
                 ))}
               </select>
             </label>
+            {basemap && (
+              <label className="flex items-center gap-2 text-sm font-semibold">
+                <input type="checkbox" checked={showBasemap} onChange={(e) => setShowBasemap(e.target.checked)} />
+                Background map (needs internet)
+              </label>
+            )}
             {list.length > 1 && (
               <FlowSlider
                 min={list[0].discharge}
@@ -257,6 +266,7 @@ export function ExposureMapPage() {
                   fit="once"
                   maxZoom={14}
                   clickableLayers={['leases']}
+                  basemap={showBasemap ? basemap : null}
                   onSelect={setSelection}
                   drawnKey={fp?.footprintId}
                   ariaLabel={`Map of the ${fp?.riverName ?? 'river'} plume at ${fp ? fmtFlow(fp.discharge) : 'the chosen flow'}, with leases coloured by rating`}
