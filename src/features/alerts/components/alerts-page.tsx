@@ -144,14 +144,19 @@ function NewLeaseRule({ allowed }: { allowed: boolean }) {
           <LoadError error={sweep.error} />
         </div>
       )}
-      {create.isError && (
-        <div className="mt-3">
-          <Notice tone="problem" title="The alert was not set">
-            {(create.error as Error).message}
-          </Notice>
-        </div>
-      )}
+      {create.isError && <AlertNotSet error={create.error} />}
     </section>
+  );
+}
+
+/** Why a new alert rule was refused (the server's message names what to fix, or the plan that unlocks it). */
+function AlertNotSet({ error }: { error: unknown }) {
+  return (
+    <div className="mt-3">
+      <Notice tone="problem" title="The alert was not set">
+        {(error as Error).message}
+      </Notice>
+    </div>
   );
 }
 
@@ -203,13 +208,7 @@ function NewZoneRule() {
           {create.isPending ? 'Saving…' : 'Set alert'}
         </Button>
       </form>
-      {create.isError && (
-        <div className="mt-3">
-          <Notice tone="problem" title="The alert was not set">
-            {(create.error as Error).message}
-          </Notice>
-        </div>
-      )}
+      {create.isError && <AlertNotSet error={create.error} />}
     </section>
   );
 }

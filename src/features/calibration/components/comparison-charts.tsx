@@ -39,6 +39,22 @@ function tooltipFormatter(value: unknown, name: unknown) {
 }
 
 /** Observed against predicted salinity (psu, linear) with the 1:1 line. */
+
+/** The dashed line of perfect agreement (measured = predicted) from `from` to `to` on both axes. */
+function oneToOneLine(from: number, to: number) {
+  return (
+    <ReferenceLine
+      segment={[
+        { x: from, y: from },
+        { x: to, y: to },
+      ]}
+      stroke="#8a8b86"
+      strokeDasharray="4 3"
+      ifOverflow="hidden"
+    />
+  );
+}
+
 export function SalinityScatter({ points }: { points: ComparisonPoint[] }) {
   const data = points
     .filter((p) => p.observedSalinity !== null)
@@ -66,15 +82,7 @@ export function SalinityScatter({ points }: { points: ComparisonPoint[] }) {
           label={{ value: 'Measured (psu)', angle: -90, position: 'insideLeft', ...AXIS }}
         />
         <ZAxis range={[28, 28]} />
-        <ReferenceLine
-          segment={[
-            { x: lo, y: lo },
-            { x: hi, y: hi },
-          ]}
-          stroke="#8a8b86"
-          strokeDasharray="4 3"
-          ifOverflow="hidden"
-        />
+        {oneToOneLine(lo, hi)}
         <Tooltip formatter={tooltipFormatter} />
         <Scatter isAnimationActive={false} name="Sample" data={data} fill={MEASURED} fillOpacity={0.7} />
       </ScatterChart>
@@ -118,15 +126,7 @@ export function IndicatorScatter({ points, unit }: { points: ComparisonPoint[]; 
           label={{ value: 'Measured', angle: -90, position: 'insideLeft', ...AXIS }}
         />
         <ZAxis range={[28, 28]} />
-        <ReferenceLine
-          segment={[
-            { x: FLOOR, y: FLOOR },
-            { x: hi, y: hi },
-          ]}
-          stroke="#8a8b86"
-          strokeDasharray="4 3"
-          ifOverflow="hidden"
-        />
+        {oneToOneLine(FLOOR, hi)}
         <Tooltip formatter={tooltipFormatter} />
         <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 11 }} />
         <Scatter isAnimationActive={false} name="Measured count" data={measured} fill={MEASURED} fillOpacity={0.7} />
