@@ -69,7 +69,11 @@ async function main() {
     );
   }
   // Screening runs in pg-boss workers on the same PostgreSQL (WORKERS=false leaves it to other processes).
-  const jobs = await createPgBossScreeningJobs(env.DATABASE_URL, dbHandle.db, createScreeningService({ db: dbHandle.db }), {
+  const screening = createScreeningService({ db: dbHandle.db });
+  // Yearly figures stored before the yearly rating existed are worked out again from the stored screenings.
+  const reannualised = await screening.annualiseMissing();
+  if (reannualised) logger.info({ rivers: reannualised }, 'yearly figures re-computed for the yearly rating');
+  const jobs = await createPgBossScreeningJobs(env.DATABASE_URL, dbHandle.db, screening, {
     work: process.env.WORKERS !== 'false',
   });
   const alertJobs = await createPgBossAlertJobs(env.DATABASE_URL, dbHandle.pool, {

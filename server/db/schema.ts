@@ -489,7 +489,7 @@ export const screenings = pgTable(
   (t) => [primaryKey({ columns: [t.leaseId, t.scenarioId] }), index('screenings_river_idx').on(t.riverId), index('screenings_rating_idx').on(t.rating)],
 );
 
-/** Across a river's flood-frequency scenarios: expected exposure days per year for a lease. */
+/** Across a river's flood-frequency scenarios: a lease's yearly figures (shared/scoring/annualise.ts, annual-rating.ts). */
 export const leaseAnnualExposure = pgTable(
   'lease_annual_exposure',
   {
@@ -502,6 +502,10 @@ export const leaseAnnualExposure = pgTable(
     expectedDaysPerYear: doublePrecision('expected_days_per_year').notNull(),
     probabilityAnyExposure: doublePrecision('probability_any_exposure').notNull(),
     worstRating: text('worst_rating').notNull(),
+    /** Expected days a year the indicator on the lease is above the standard (the yearly rating's first figure). */
+    closureDaysPerYear: doublePrecision('closure_days_per_year'),
+    /** Chance a year of a salinity event harmful to the lease's species (the second figure); null until re-annualised. */
+    harmfulSalinityChance: doublePrecision('harmful_salinity_chance'),
     details: jsonb('details'),
     computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
   },

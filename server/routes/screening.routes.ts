@@ -1,5 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { z } from 'zod';
+import { type AnnualItem, annualListSchema, annualQuerySchema } from '#shared/schemas/annual';
+import { annualRating, compareAnnualWorstFirst } from '#shared/scoring/annual-rating';
 import type { Database } from '../db/client';
 import { defineRoute, type RouteContext } from '../http/route';
 import { NotFoundError, ValidationError } from '../lib/errors';
@@ -126,20 +128,30 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/screenings/annual',
-    summary: 'Annualised exposure per lease and river: expected days a year below the salinity tolerance and above the indicator standard, and the chance a year of each',
+    summary:
+      'Yearly figures per lease and river (expected closure days a year, chance a year of a harmful salinity event, days below the salinity tolerance) and the yearly rating set from them, worst first',
     tags: ['screenings'],
     access: { roles: READERS },
-    query: z.strictObject({ leaseId: z.uuid().optional(), riverId: z.uuid().optional() }),
+    query: annualQuerySchema,
+    response: annualListSchema,
     handler: async ({ user, query }) => {
-      const rows = await db.execute(sql`
+      const rows = await db.execute<Omit<AnnualItem, 'annualRating'>>(sql`
         SELECT a.lease_id AS "leaseId", l.lease_code AS "leaseCode", a.river_id AS "riverId", r.name AS "riverName",
                a.expected_days_per_year AS "expectedDaysPerYear", a.probability_any_exposure AS "probabilityAnyExposure", a.worst_rating AS "worstRating",
                (a.details->'indicator'->>'expectedDaysPerYear')::float8 AS "indicatorDaysPerYear",
-               (a.details->'indicator'->>'probabilityOfAnyExposure')::float8 AS "probabilityIndicatorAboveStandard", a.details
+               (a.details->'indicator'->>'probabilityOfAnyExposure')::float8 AS "probabilityIndicatorAboveStandard",
+               a.closure_days_per_year AS "closureDaysPerYear", a.harmful_salinity_chance AS "harmfulSalinityChancePerYear", a.details
           FROM lease_annual_exposure a JOIN leases l ON l.id = a.lease_id JOIN rivers r ON r.id = a.river_id
-         WHERE ${visibleLeases(user!)} ${query.leaseId ? sql`AND a.lease_id = ${query.leaseId}::uuid` : sql``} ${query.riverId ? sql`AND a.river_id = ${query.riverId}::uuid` : sql``}
-         ORDER BY l.lease_code`);
-      return { items: rows.rows };
+         WHERE ${visibleLeases(user!)} ${query.leaseId ? sql`AND a.lease_id = ${query.leaseId}::uuid` : sql``} ${query.riverId ? sql`AND a.river_id = ${query.riverId}::uuid` : sql``}`);
+      const items: AnnualItem[] = rows.rows.map((row) => ({
+        ...row,
+        annualRating:
+          row.closureDaysPerYear === null || row.harmfulSalinityChancePerYear === null
+            ? null
+            : annualRating({ closureDaysPerYear: row.closureDaysPerYear, harmfulSalinityChancePerYear: row.harmfulSalinityChancePerYear }),
+      }));
+      items.sort((a, b) => compareAnnualWorstFirst(a, b) || a.leaseCode.localeCompare(b.leaseCode) || a.riverName.localeCompare(b.riverName));
+      return { items };
     },
   });
 

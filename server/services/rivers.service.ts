@@ -8,7 +8,7 @@ import { sql } from 'drizzle-orm';
 import { annualMaxima } from '#shared/hydrology/annual-maxima';
 import { fitFloodFrequency, type FloodFrequencyResult } from '#shared/hydrology/flood-frequency';
 import { floodEvents, typicalDurationForPeak } from '#shared/hydrology/flood-duration';
-import { flowPercentiles } from '#shared/hydrology/flow-percentiles';
+import { flowPercentiles, seasonalScenarioName } from '#shared/hydrology/flow-percentiles';
 import { parseFlowRecord } from '#shared/hydrology/parse-flow-record';
 import { plumeProfiles, riverPlume } from '#shared/physics/river-plume';
 import {
@@ -207,7 +207,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
         const events = floodEvents(parsed.readings, p99);
         await t.execute(sql`
           INSERT INTO scenarios (river_id, name, kind, aep, discharge, duration_hours, source)
-          VALUES (${id}::uuid, ${`${season.label} high flow (99th percentile of daily flow)`}, 'seasonal', NULL, ${p99},
+          VALUES (${id}::uuid, ${seasonalScenarioName(season, 99)}, 'seasonal', NULL, ${p99},
                   ${Math.max(24, Math.round(events.medianHours ?? 24))}, ${JSON.stringify({ season: season.label, percentile: 99, recordId })}::jsonb)`);
       }
       await t.execute(sql`UPDATE rivers SET version = version + 1, updated_at = now() WHERE id = ${id}::uuid`);

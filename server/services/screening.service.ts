@@ -15,6 +15,7 @@ import { MODEL_VERSION } from '#shared/physics/model-version';
 import { riverPlume } from '#shared/physics/river-plume';
 import type { RiverSettings } from '#shared/schemas/river';
 import { annualiseExposure } from '#shared/scoring/annualise';
+import { isHarmfulSalinityEvent } from '#shared/scoring/harmful-salinity';
 import { salinityBandId, screeningBandSpecs, strictestSpecies } from '#shared/scoring/lease-band-specs';
 import { daysBelowTolerance, scoreLease } from '#shared/scoring/score-lease';
 import type { Database } from '../db/client';
@@ -285,28 +286,42 @@ export function createScreeningService(deps: { db: Database }) {
     return rows.length;
   }
 
-  /** Annualised exposure per lease across the river's flood-frequency scenarios. */
-  async function annualise(river: RiverInputs, leaseIds?: string[]) {
+  /**
+   * Yearly figures per lease across the river's flood-frequency scenarios (shared/scoring/annualise.ts):
+   * days below the salinity tolerance, closure days (days the indicator is above the standard) and the
+   * chance a year of a salinity event harmful to the lease's species (shared/scoring/harmful-salinity.ts).
+   */
+  async function annualise(river: Pick<RiverInputs, 'id'>, leaseIds?: string[]) {
     const leaseFilter = leaseIds
       ? sql`AND s.lease_id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)`
       : sql``;
     const res = await db.execute<{
       lease_id: string;
-      points: { aep: number; days: number; rating: string; indicator: number | null; durationHours: number }[];
+      species: string | null;
+      points: { aep: number; days: number; rating: string; lowest: number | null; indicator: number | null; durationHours: number }[];
     }>(sql`
-      SELECT s.lease_id, jsonb_agg(jsonb_build_object('aep', sc.aep, 'days', s.days_below_tolerance, 'rating', s.rating,
-                                                      'indicator', s.highest_indicator, 'durationHours', sc.duration_hours)) AS points
-        FROM screenings s JOIN scenarios sc ON sc.id = s.scenario_id
+      SELECT s.lease_id, l.species,
+             jsonb_agg(jsonb_build_object('aep', sc.aep, 'days', s.days_below_tolerance, 'rating', s.rating, 'lowest', s.lowest_salinity,
+                                          'indicator', s.highest_indicator, 'durationHours', sc.duration_hours)) AS points
+        FROM screenings s JOIN scenarios sc ON sc.id = s.scenario_id JOIN leases l ON l.id = s.lease_id
        WHERE s.river_id = ${river.id}::uuid AND sc.kind = 'aep' ${leaseFilter}
-       GROUP BY s.lease_id`);
+       GROUP BY s.lease_id, l.species`);
     for (const row of res.rows) {
       const points = row.points.filter((p) => p.aep > 0 && p.aep < 1);
       if (!points.length) continue;
+      const { tolerance } = speciesOf(row.species);
       const salinity = annualiseExposure(points.map((p) => ({ aep: p.aep, days: p.days })));
-      // The faecal indicator, annualised the same way (c): a flood whose highest indicator on the lease is
-      // above the standard counts its whole duration as days above it.
+      // Closure days (c): a flood whose highest indicator on the lease is above the standard counts its whole
+      // duration as days above it; the sum over the AEP bands of the band's probability mass × those days.
       const indicator = annualiseExposure(
         points.map((p) => ({ aep: p.aep, days: p.indicator !== null && p.indicator > INDICATOR_STANDARD ? p.durationHours / 24 : 0 })),
+      );
+      // Harmful salinity (c): the most frequent flood whose low salinity harms the species gives the chance a year.
+      const harmful = annualiseExposure(
+        points.map((p) => ({
+          aep: p.aep,
+          days: isHarmfulSalinityEvent({ lowestSalinity: p.lowest, daysBelowTolerance: p.days }, tolerance) ? p.days : 0,
+        })),
       );
       const result = {
         ...salinity,
@@ -314,6 +329,12 @@ export function createScreeningService(deps: { db: Database }) {
           standard: INDICATOR_STANDARD,
           expectedDaysPerYear: indicator.expectedDaysPerYear,
           probabilityOfAnyExposure: indicator.probabilityOfAnyExposure,
+          segments: indicator.segments,
+        },
+        harmfulSalinity: {
+          species: tolerance.id,
+          probabilityPerYear: harmful.probabilityOfAnyExposure,
+          expectedDaysPerYear: harmful.expectedDaysPerYear,
         },
       };
       const worst = points.reduce(
@@ -321,11 +342,27 @@ export function createScreeningService(deps: { db: Database }) {
         'low',
       );
       await db.execute(sql`
-        INSERT INTO lease_annual_exposure (lease_id, river_id, expected_days_per_year, probability_any_exposure, worst_rating, details, computed_at)
-        VALUES (${row.lease_id}::uuid, ${river.id}::uuid, ${result.expectedDaysPerYear}, ${result.probabilityOfAnyExposure}, ${worst}, ${JSON.stringify(result)}::jsonb, now())
+        INSERT INTO lease_annual_exposure (lease_id, river_id, expected_days_per_year, probability_any_exposure, worst_rating,
+                                           closure_days_per_year, harmful_salinity_chance, details, computed_at)
+        VALUES (${row.lease_id}::uuid, ${river.id}::uuid, ${result.expectedDaysPerYear}, ${result.probabilityOfAnyExposure}, ${worst},
+                ${indicator.expectedDaysPerYear}, ${harmful.probabilityOfAnyExposure}, ${JSON.stringify(result)}::jsonb, now())
         ON CONFLICT (lease_id, river_id) DO UPDATE SET expected_days_per_year = EXCLUDED.expected_days_per_year,
-          probability_any_exposure = EXCLUDED.probability_any_exposure, worst_rating = EXCLUDED.worst_rating, details = EXCLUDED.details, computed_at = now()`);
+          probability_any_exposure = EXCLUDED.probability_any_exposure, worst_rating = EXCLUDED.worst_rating,
+          closure_days_per_year = EXCLUDED.closure_days_per_year, harmful_salinity_chance = EXCLUDED.harmful_salinity_chance,
+          details = EXCLUDED.details, computed_at = now()`);
     }
+  }
+
+  /**
+   * Yearly figures stored before the yearly rating existed (no harmful-salinity chance): re-annualise their rivers
+   * from the stored screenings. Cheap (no footprint is built); run at start-up.
+   */
+  async function annualiseMissing(): Promise<number> {
+    const stale = await db.execute<{ river_id: string }>(
+      sql`SELECT DISTINCT river_id FROM lease_annual_exposure WHERE harmful_salinity_chance IS NULL OR closure_days_per_year IS NULL`,
+    );
+    for (const r of stale.rows) await annualise({ id: r.river_id });
+    return stale.rows.length;
   }
 
   /** Every scenario of a river: footprints (cached by inputs) and screenings of every scoped lease. */
@@ -365,7 +402,7 @@ export function createScreeningService(deps: { db: Database }) {
     return res.rows.map((r) => r.id);
   }
 
-  return { riverInputs, ensureFootprint, screenFootprint, screenRiver, annualise, riversForLeases };
+  return { riverInputs, ensureFootprint, screenFootprint, screenRiver, annualise, annualiseMissing, riversForLeases };
 }
 
 export type ScreeningService = ReturnType<typeof createScreeningService>;

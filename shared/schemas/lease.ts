@@ -13,6 +13,7 @@ export const LEASE_SORT_FIELDS = [
   'createdAt',
   'worstRating',
   'expectedDaysPerYear',
+  'annualRating',
 ] as const;
 
 export const leaseListQuerySchema = z.strictObject({
@@ -58,6 +59,20 @@ export const leaseSchema = z.object({
     .describe('Worst rating over every scenario of every river that screens the lease; null before screening'),
   expectedDaysPerYear: z.number().nullable().describe('Expected days a year below the species salinity tolerance (largest over rivers)'),
   probabilityAnyExposure: z.number().nullable().describe('Annual chance of any days below tolerance (largest over rivers)'),
+  annualRating: z
+    .enum(['low', 'moderate', 'high', 'severe'])
+    .nullable()
+    .describe(
+      'Yearly rating from closureDaysPerYear and harmfulSalinityChancePerYear (shared/scoring/annual-rating.ts); null before screening. sort=annualRating orders by it, then closure days, then chance',
+    ),
+  closureDaysPerYear: z
+    .number()
+    .nullable()
+    .describe('Expected days a year the faecal indicator on the lease is above the standard, added over rivers (at most 365)'),
+  harmfulSalinityChancePerYear: z
+    .number()
+    .nullable()
+    .describe("Chance a year of a salinity event harmful to the lease's species, over every river (rivers taken as independent)"),
   createdAt: z.string(),
   updatedAt: z.string(),
   geometry: z.unknown().optional().describe('GeoJSON MultiPolygon in EPSG:4326'),

@@ -14,6 +14,7 @@ import {
 import { useDeferredValue, useId, useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { Lease } from '#shared/schemas/lease';
+import { AnnualRatingExplainer, chanceWords, closureDaysWords } from '../../../components/ui/annual-rating';
 import { Button } from '../../../components/ui/button';
 import { RatingBadge } from '../../../components/ui/rating-badge';
 import { Notice } from '../../../components/ui/notice';
@@ -51,9 +52,27 @@ const baseColumns = helper.columns([
     header: 'Area (ha)',
     cell: (c) => (c.getValue() / 10_000).toLocaleString(undefined, { maximumFractionDigits: 2, minimumFractionDigits: 2 }),
   }),
+  helper.accessor('annualRating', {
+    id: 'annualRating',
+    header: 'Yearly rating',
+    cell: (c) => {
+      const rating = c.getValue();
+      if (!rating) return <span className="text-shell-700">Not screened yet</span>;
+      const { closureDaysPerYear, harmfulSalinityChancePerYear } = c.row.original;
+      return (
+        <span className="flex flex-col gap-0.5">
+          <RatingBadge rating={rating} size="sm" />
+          <span className="text-xs text-shell-700">
+            {closureDaysWords(closureDaysPerYear)} closed a year · harmful salinity{' '}
+            {chanceWords(harmfulSalinityChancePerYear).toLowerCase()}
+          </span>
+        </span>
+      );
+    },
+  }),
   helper.accessor('worstRating', {
     id: 'worstRating',
-    header: 'Worst rating',
+    header: 'Worst rating, any flood',
     cell: (c) =>
       c.getValue() ? <RatingBadge rating={c.getValue()} size="sm" /> : <span className="text-shell-700">Not screened yet</span>,
   }),
@@ -81,7 +100,8 @@ const COLUMN_LABELS: Record<string, string> = {
   species: 'Species',
   status: 'Status',
   areaM2: 'Area',
-  worstRating: 'Worst rating',
+  annualRating: 'Yearly rating',
+  worstRating: 'Worst rating, any flood',
   expectedDaysPerYear: 'Days a year below tolerance',
   ownerName: 'Account',
 };
@@ -100,10 +120,14 @@ function scenarioColumns(scenarios: Scenario[]) {
   );
 }
 
-/** Leases you may see, sorted, filtered and paged on the server so thousands of rows stay quick. */
+/**
+ * Leases you may see, sorted, filtered and paged on the server so thousands of rows stay quick; worst yearly
+ * rating first until the reader picks another column.
+ */
 export function LeasesTable({ canEdit, showAccount = true }: { canEdit: boolean; showAccount?: boolean }) {
   const queryClient = useQueryClient();
-  const [sorting, setSorting] = useState<SortingState>([{ id: 'leaseId', desc: false }]);
+  // Worst yearly rating first (then closure days, then the chance), as on the Overview and Compare.
+  const [sorting, setSorting] = useState<SortingState>([{ id: 'annualRating', desc: true }]);
   const [pagination, setPagination] = useState<PaginationState>({ pageIndex: 0, pageSize: 50 });
   const [search, setSearch] = useState('');
   const [status, setStatus] = useState<'' | 'held' | 'candidate'>('');
@@ -131,7 +155,7 @@ export function LeasesTable({ canEdit, showAccount = true }: { canEdit: boolean;
   const params = {
     q: q || undefined,
     status: status || undefined,
-    sort: sorting[0]?.id ?? 'leaseId',
+    sort: sorting[0]?.id ?? 'annualRating',
     order: sorting[0]?.desc ? ('desc' as const) : ('asc' as const),
     limit: pagination.pageSize,
     offset: pagination.pageIndex * pagination.pageSize,
@@ -365,6 +389,7 @@ export function LeasesTable({ canEdit, showAccount = true }: { canEdit: boolean;
               Next
             </Button>
           </nav>
+          <AnnualRatingExplainer />
         </>
       )}
     </div>
