@@ -5,10 +5,11 @@
 import { ANNUAL_RATING_CUTS, annualRatingRuleLines } from '#shared/scoring/annual-rating';
 import { fmtNumber } from '../../lib/format';
 
-/** "3.5 closure days a year", with sensible precision (ui.md "Words"). */
+/** "3.5 days", "0 days", "under 0.1 days": closure days a year with sensible precision (ui.md "Words"). */
 export function closureDaysWords(days: number | null | undefined): string {
   if (days === null || days === undefined) return '—';
-  if (days === 0) return 'none';
+  if (days === 0) return '0 days';
+  if (days < 0.05) return 'under 0.1 days';
   return `${fmtNumber(days, days < 10 ? 1 : 0)} ${days === 1 ? 'day' : 'days'}`;
 }
 

@@ -481,6 +481,22 @@ describe('the yearly rating (GET /screenings/annual, issue #14 item 4)', () => {
     const bad = await grower.get('/api/v1/screenings/annual?riverId=amberlin').expect(400);
     expect(JSON.stringify(bad.body)).toContain('riverId');
   });
+
+  it('is documented in the OpenAPI document with the new fields beside the figures', async () => {
+    const doc = (await request(t.app).get('/api/v1/openapi.json').expect(200)).body;
+    const item = doc.paths['/api/v1/screenings/annual'].get.responses['200'].content['application/json'].schema.properties.items.items;
+    for (const field of ['closureDaysPerYear', 'harmfulSalinityChancePerYear', 'annualRating', 'expectedDaysPerYear', 'worstRating']) {
+      expect(Object.keys(item.properties)).toContain(field);
+    }
+    // null until a lease stored before the yearly rating is re-annualised.
+    expect(item.properties.annualRating.enum).toEqual(['low', 'moderate', 'high', 'severe', null]);
+    const lease = doc.paths['/api/v1/leases'].get.responses['200'].content['application/json'].schema.properties.items.items;
+    expect(Object.keys(lease.properties)).toEqual(
+      expect.arrayContaining(['annualRating', 'closureDaysPerYear', 'harmfulSalinityChancePerYear']),
+    );
+    const sort = doc.paths['/api/v1/leases'].get.parameters.find((p: { name: string }) => p.name === 'sort');
+    expect(sort.schema.enum).toContain('annualRating');
+  });
 });
 
 describe('seasonal scenarios stored under season codes (migration 0015)', () => {
