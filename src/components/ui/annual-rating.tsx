@@ -4,6 +4,7 @@
  */
 import { ANNUAL_RATING_CUTS, annualRatingRuleLines } from '#shared/scoring/annual-rating';
 import { fmtNumber } from '../../lib/format';
+import { RatingBadge } from './rating-badge';
 
 /** "3.5 days", "0 days", "under 0.1 days": closure days a year with sensible precision (ui.md "Words"). */
 export function closureDaysWords(days: number | null | undefined): string {
@@ -21,6 +22,34 @@ export function chanceWords(p: number | null | undefined): string {
   // 1/p rounds to "1 year in 1" above one half: say it in words instead.
   if (p > 0.5) return `${fmtNumber(p * 100, 0)}% a year (more years than not)`;
   return `${fmtNumber(p * 100, p < 0.1 ? 1 : 0)}% a year (about 1 year in ${fmtNumber(1 / p, 0)})`;
+}
+
+/** A chance a year in few words for narrow cells: "1 year in 5", "more years than not", "none screened". */
+export function chanceShort(p: number | null | undefined): string {
+  if (p === null || p === undefined) return '—';
+  if (p <= 0) return 'none screened';
+  if (p > 0.5) return 'more years than not';
+  return `1 year in ${fmtNumber(1 / p, 0)}`;
+}
+
+/** The yearly rating with the two figures it is set from, for table cells. */
+export function AnnualRatingCell({
+  rating,
+  closureDaysPerYear,
+  harmfulSalinityChancePerYear,
+}: {
+  rating: string | null | undefined;
+  closureDaysPerYear: number | null | undefined;
+  harmfulSalinityChancePerYear: number | null | undefined;
+}) {
+  if (!rating) return <span className="text-shell-700">Not screened yet</span>;
+  return (
+    <span className="flex flex-col gap-0.5">
+      <RatingBadge rating={rating} size="sm" />
+      <span className="text-xs text-shell-700">{closureDaysWords(closureDaysPerYear)} closed a year</span>
+      <span className="text-xs text-shell-700">harmful salinity: {chanceShort(harmfulSalinityChancePerYear)}</span>
+    </span>
+  );
 }
 
 /** How the yearly rating is set: the two figures, the cut points and why. */

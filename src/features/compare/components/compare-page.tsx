@@ -1,7 +1,7 @@
 import { useQueries, useQuery } from '@tanstack/react-query';
 import { Link, useSearchParams } from 'react-router-dom';
 import { compareAnnualWorstFirst } from '#shared/scoring/annual-rating';
-import { AnnualRatingExplainer, chanceWords, closureDaysWords } from '../../../components/ui/annual-rating';
+import { AnnualRatingCell, AnnualRatingExplainer } from '../../../components/ui/annual-rating';
 import { Button } from '../../../components/ui/button';
 import { Cautions } from '../../../components/ui/cautions';
 import { PageHeader } from '../../../components/ui/page-header';
@@ -150,17 +150,11 @@ export function ComparePage() {
                   </th>
                   {chosen.map((c) => (
                     <td key={c.id} className="p-2">
-                      {c.lease?.annualRating ? (
-                        <>
-                          <RatingBadge rating={c.lease.annualRating} />
-                          <span className="mt-0.5 block text-xs text-shell-700">
-                            {closureDaysWords(c.lease.closureDaysPerYear)} closed a year · harmful salinity{' '}
-                            {chanceWords(c.lease.harmfulSalinityChancePerYear).toLowerCase()}
-                          </span>
-                        </>
-                      ) : (
-                        <span className="text-shell-700">Not screened yet</span>
-                      )}
+                      <AnnualRatingCell
+                        rating={c.lease?.annualRating}
+                        closureDaysPerYear={c.lease?.closureDaysPerYear}
+                        harmfulSalinityChancePerYear={c.lease?.harmfulSalinityChancePerYear}
+                      />
                     </td>
                   ))}
                 </tr>

@@ -14,7 +14,7 @@ import {
 import { useDeferredValue, useId, useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { Lease } from '#shared/schemas/lease';
-import { AnnualRatingExplainer, chanceWords, closureDaysWords } from '../../../components/ui/annual-rating';
+import { AnnualRatingCell, AnnualRatingExplainer } from '../../../components/ui/annual-rating';
 import { Button } from '../../../components/ui/button';
 import { RatingBadge } from '../../../components/ui/rating-badge';
 import { Notice } from '../../../components/ui/notice';
@@ -55,20 +55,13 @@ const baseColumns = helper.columns([
   helper.accessor('annualRating', {
     id: 'annualRating',
     header: 'Yearly rating',
-    cell: (c) => {
-      const rating = c.getValue();
-      if (!rating) return <span className="text-shell-700">Not screened yet</span>;
-      const { closureDaysPerYear, harmfulSalinityChancePerYear } = c.row.original;
-      return (
-        <span className="flex flex-col gap-0.5">
-          <RatingBadge rating={rating} size="sm" />
-          <span className="text-xs text-shell-700">
-            {closureDaysWords(closureDaysPerYear)} closed a year · harmful salinity{' '}
-            {chanceWords(harmfulSalinityChancePerYear).toLowerCase()}
-          </span>
-        </span>
-      );
-    },
+    cell: (c) => (
+      <AnnualRatingCell
+        rating={c.getValue()}
+        closureDaysPerYear={c.row.original.closureDaysPerYear}
+        harmfulSalinityChancePerYear={c.row.original.harmfulSalinityChancePerYear}
+      />
+    ),
   }),
   helper.accessor('worstRating', {
     id: 'worstRating',

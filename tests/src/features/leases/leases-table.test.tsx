@@ -112,7 +112,7 @@ describe('LeasesTable', () => {
     expect(header.getAttribute('aria-sort')).toBe('descending');
     const row = within(table).getByRole('link', { name: 'FB-002' }).closest('tr')!;
     expect(row.querySelector('[data-rating]')?.getAttribute('data-rating')).toBe('moderate');
-    expect(row.textContent).toContain('0 days closed a year · harmful salinity 5.0% a year (about 1 year in 20)');
+    expect(row.textContent).toContain('0 days closed a yearharmful salinity: 1 year in 20');
     expect(screen.getByText('How the yearly rating is set')).toBeTruthy();
     expect(within(screen.getByRole('list', { name: 'Yearly rating cut points' })).getAllByRole('listitem')).toHaveLength(4);
   }, 20_000);
