@@ -75,6 +75,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'post',
     path: '/stations',
+    operationId: 'uploadStations',
     summary:
       'Upload monitoring stations (points): a zipped shapefile, GeoJSON, or CSV with a code and lon/lat (or x/y with epsg). Same codes are updated.',
     tags: ['monitoring'],
@@ -110,6 +111,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'post',
     path: '/samples',
+    operationId: 'uploadSamples',
     summary:
       'Upload samples (CSV: station, date-time, salinity, indicator with unit and method, optional temperature); detection limits such as <2 or >1600 are kept as censored values. Same station and time are updated.',
     tags: ['monitoring'],
@@ -126,6 +128,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'get',
     path: '/rivers/:id/comparison',
+    operationId: 'getRiverComparison',
     summary:
       "The river's plume against the samples in it: observed and predicted salinity and indicator, residuals, bias, RMSE and skill; samples outside every plume listed apart",
     tags: ['monitoring'],
@@ -152,6 +155,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'post',
     path: '/rivers/:id/calibrations',
+    operationId: 'fitCalibration',
     summary:
       'Fit the mixing length and T90 (optionally the alongshore share and near-field fraction) to the samples in the plume; the river is not changed until applied',
     tags: ['monitoring'],

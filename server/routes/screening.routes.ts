@@ -1,7 +1,15 @@
 import { sql } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Database } from '../db/client';
-import { defineRoute, type RouteContext } from '../http/route';
+import {
+  annualExposureListSchema,
+  footprintSchema,
+  leaseSweepSchema,
+  RATINGS,
+  screeningListSchema,
+  screeningRunListSchema,
+} from '#shared/schemas/screening';
+import { BINARY_BODY, defineRoute, type RouteContext } from '../http/route';
 import { NotFoundError, ValidationError } from '../lib/errors';
 import { visibleLeases } from '../services/leases.service';
 import type { RiversService } from '../services/rivers.service';
@@ -10,7 +18,6 @@ import type { SweepService } from '../services/sweep.service';
 import { leaseTile } from '../db/repositories/tiles.repo';
 
 const READERS = ['grower', 'adviser', 'regulator'] as const;
-const RATINGS = ['low', 'moderate', 'high', 'severe'] as const;
 
 const footprintQuery = z
   .strictObject({
@@ -43,10 +50,12 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/footprints',
+    operationId: 'getFootprint',
     summary: "A river's plume footprint as GeoJSON (bulge and bands), for a scenario or any flow (built once, then cached)",
     tags: ['footprints'],
     access: { roles: READERS },
     query: footprintQuery,
+    response: footprintSchema,
     errors: [404, 422],
     handler: async ({ user, query }) => {
       await rivers.get(user!, query.riverId);
@@ -103,6 +112,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     tags: ['screenings'],
     access: { roles: READERS },
     query: screeningQuery,
+    response: screeningListSchema,
     handler: async ({ user, query }) => {
       const where = [visibleLeases(user!)];
       if (query.leaseId) where.push(sql`s.lease_id = ${query.leaseId}::uuid`);
@@ -126,10 +136,15 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/screenings/annual',
+    operationId: 'listAnnualExposures',
     summary: 'Annualised exposure per lease and river: expected days a year below the salinity tolerance and above the indicator standard, and the chance a year of each',
     tags: ['screenings'],
     access: { roles: READERS },
-    query: z.strictObject({ leaseId: z.uuid().optional(), riverId: z.uuid().optional() }),
+    query: z.strictObject({
+      leaseId: z.uuid({ error: 'leaseId must be a lease id (UUID)' }).optional(),
+      riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }).optional(),
+    }),
+    response: annualExposureListSchema,
     handler: async ({ user, query }) => {
       const rows = await db.execute(sql`
         SELECT a.lease_id AS "leaseId", l.lease_code AS "leaseCode", a.river_id AS "riverId", r.name AS "riverName",
@@ -150,6 +165,8 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     tags: ['screenings'],
     access: { roles: READERS },
     query: z.strictObject({ riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }) }),
+    response: screeningRunListSchema,
+    errors: [404],
     handler: async ({ user, query }) => {
       await rivers.get(user!, query.riverId);
       const rows = await db.execute(sql`
@@ -162,11 +179,13 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/leases/:id/sweep',
+    operationId: 'getLeaseSweep',
     summary: 'Flow sweep for one lease: the river flow at which it enters each band, and the field over it against flow',
     tags: ['screenings'],
     access: { roles: READERS },
     params: z.object({ id: z.uuid({ error: 'id must be a lease id (UUID)' }) }),
     query: z.strictObject({ riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }), steps: z.coerce.number().int().min(10).max(400).default(60) }),
+    response: leaseSweepSchema,
     errors: [404, 422],
     handler: async ({ user, params, query }) => {
       await rivers.get(user!, query.riverId);
@@ -189,6 +208,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/tiles/leases/:z/:x/:y',
+    operationId: 'getLeaseTile',
     summary: 'Leases you may see as Mapbox Vector Tiles (layer "leases": id, lease, status, species, rating at a scenario or worst)',
     tags: ['tiles'],
     access: { roles: READERS },
@@ -197,6 +217,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
       riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }).optional(),
       scenarioId: z.uuid({ error: 'scenarioId must be a scenario id (UUID)' }).optional().describe('Rate each lease at this flood scenario'),
     }),
+    response: { description: 'A Mapbox Vector Tile (empty when nothing is in the tile)', content: { 'application/vnd.mapbox-vector-tile': BINARY_BODY } },
     handler: async ({ user, params, query, res }) => {
       const { z: tz, x, y } = tileXY(params);
       const mvt = await leaseTile(db, user!, tz, x, y, query.riverId, query.scenarioId);
@@ -210,11 +231,14 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/tiles/bands/:z/:x/:y',
+    operationId: 'getBandTile',
     summary: 'The bands of one footprint as Mapbox Vector Tiles (layer "bands")',
     tags: ['tiles'],
     access: { roles: READERS },
     params: tileParams,
     query: z.strictObject({ footprintId: z.uuid({ error: 'footprintId must be a footprint id (UUID)' }) }),
+    response: { description: 'A Mapbox Vector Tile (empty when nothing is in the tile)', content: { 'application/vnd.mapbox-vector-tile': BINARY_BODY } },
+    errors: [404],
     handler: async ({ user, params, query, res }) => {
       const { z: tz, x, y } = tileXY(params);
       const fp = await db.execute<{ river_id: string }>(sql`SELECT river_id FROM footprints WHERE id = ${query.footprintId}::uuid`);

@@ -261,3 +261,17 @@ export const publicStatusSchema = z.object({
   ),
 });
 export type PublicStatus = z.infer<typeof publicStatusSchema>;
+
+/** GET /closure-checks/gauges: the jurisdiction's gauges and their latest reading. */
+export const closureGaugeListSchema = z.object({
+  items: z.array(
+    z.object({
+      id: z.string(),
+      riverId: z.string(),
+      code: z.string(),
+      name: z.string(),
+      latestDischarge: z.number().nullable().describe('m³/s'),
+      latestAt: z.string().nullable().describe('ISO 8601'),
+    }),
+  ),
+});
