@@ -64,6 +64,8 @@ export interface AppDeps {
   jobs?: ScreeningJobs;
   /** Alert evaluation, alert e-mails and the gauge feed poll (pg-boss); inline (after each commit) when not given. */
   alertJobs?: AlertJobs;
+  /** Check JSON answers against the declared response schemas (default: when NODE_ENV is test). */
+  checkResponses?: boolean;
 }
 
 const API_BASE = '/api/v1';
@@ -154,7 +156,13 @@ export function createApp(deps: AppDeps): Express {
   router.use(express.json({ limit: '2mb' }));
   router.use(['/account', '/invitations'], authLimiter);
   router.use('/calc', calcLimiter);
-  const ctx: RouteContext = { router, registry, basePath: API_BASE, resolveUser: createUserResolver(db, env.AUTH_SECRET) };
+  const ctx: RouteContext = {
+    router,
+    registry,
+    basePath: API_BASE,
+    resolveUser: createUserResolver(db, env.AUTH_SECRET),
+    checkResponses: deps.checkResponses ?? env.NODE_ENV === 'test',
+  };
   const accounts = createAccountsService({ db, mailer, appUrl: env.APP_URL });
   registerAccountRoutes(ctx, accounts);
   registerAdminRoutes(ctx, db, accounts);

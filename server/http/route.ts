@@ -7,7 +7,7 @@ import type { OpenAPIRegistry, ResponseConfig, ZodMediaTypeObject } from '@astea
 import type { NextFunction, Request, RequestHandler, Response, Router } from 'express';
 import { z } from 'zod';
 import type { Role } from '#shared/schemas/roles';
-import { ForbiddenError, UnauthenticatedError, ValidationError } from '../lib/errors';
+import { AppError, ForbiddenError, UnauthenticatedError, ValidationError } from '../lib/errors';
 import { describeZodError } from './zod-issues';
 
 export interface CurrentUser {
@@ -45,6 +45,14 @@ export type ResponseSpec = z.ZodType | { content: Record<string, z.ZodType | Sch
 
 /** A binary body (vector tiles, files) in the OpenAPI document. */
 export const BINARY_BODY: SchemaObject = { type: 'string', format: 'binary' };
+
+/**
+ * The file field of a multipart body, documented as binary. multer takes the file out of the body (req.file),
+ * so the field is optional to the validation; the upload middleware refuses a request without it.
+ */
+export function uploadedFile(description: string) {
+  return z.unknown().optional().meta({ type: 'string', format: 'binary', description });
+}
 
 export interface RouteSpec<B extends z.ZodType, Q extends z.ZodType, P extends z.ZodType> {
   method: 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -114,11 +122,27 @@ export interface RouteContext {
   /** Resolves the signed-in user (or null) for a request. */
   resolveUser: (req: Request) => Promise<CurrentUser | null>;
   basePath: string;
+  /**
+   * Check every JSON answer against the route's declared response schema (as it goes over the wire) and
+   * answer 500 `response_contract` when it does not match. On in tests (NODE_ENV=test), so every API and
+   * browser test also proves the document tells the truth; off in production.
+   */
+  checkResponses?: boolean;
 }
 
-const errorBody = z.object({
-  error: z.object({ code: z.string(), message: z.string(), details: z.unknown().optional() }),
-});
+/** The one error body (server/lib/errors.ts → middleware/error-handler.ts), a component of the document. */
+const errorBody = z
+  .object({
+    error: z.object({
+      code: z.string().describe('Stable machine-readable code, e.g. validation_error, unauthenticated, not_found'),
+      message: z.string().describe('What is wrong and how to fix it'),
+      details: z
+        .unknown()
+        .optional()
+        .describe('More about the problem when there is more: the fields at fault for a validation error, or the rows of a refused upload'),
+    }),
+  })
+  .meta({ id: 'Error' });
 
 const declared = new WeakMap<OpenAPIRegistry, DeclaredRoute[]>();
 
@@ -298,6 +322,24 @@ const ERROR_DESCRIPTIONS: Record<number, string> = {
   503: 'A service this needs is not available; try again later',
 };
 
+/** Fails when a JSON answer, as serialised, does not match the declared schema (see RouteContext.checkResponses). */
+function checkResponse(method: string, path: string, response: ResponseSpec, result: unknown): void {
+  if (!(response instanceof z.ZodType)) {
+    throw new AppError(500, 'response_contract', `${method.toUpperCase()} ${path} returned JSON but declares a ${Object.keys(response?.content ?? {}).join(' or ')} body.`);
+  }
+  const wire: unknown = JSON.parse(JSON.stringify(result));
+  const parsed = response.safeParse(wire);
+  if (!parsed.success) {
+    const issues = parsed.error.issues.slice(0, 5).map((i) => `${i.path.join('.') || '(body)'}: ${i.message}`);
+    throw new AppError(
+      500,
+      'response_contract',
+      `${method.toUpperCase()} ${path} answered a body that does not match its declared response schema: ${issues.join('; ')}. Fix the schema or the handler.`,
+      parsed.error.issues.slice(0, 20),
+    );
+  }
+}
+
 /**
  * Documents an operation mounted outside the API router (the payment webhook, which needs the raw body;
  * the health check). It is held to the same contract rules as defineRoute's routes.
@@ -336,6 +378,7 @@ export function defineRoute<
         return;
       }
       if (spec.response === null) throw new Error(`${spec.method.toUpperCase()} ${spec.path} is declared with no content (response: null) but returned a body.`);
+      if (ctx.checkResponses) checkResponse(spec.method, spec.path, spec.response, result);
       res.status(spec.successStatus ?? 200).json(result);
     } catch (err) {
       next(err);

@@ -6,7 +6,7 @@ import { formatBytes } from '#shared/geometry/upload-limits';
 import { importConfirmBodySchema, importCrsBodySchema, importPreviewSchema, importResponseSchema, uploadKindSchema } from '#shared/schemas/upload';
 import { previewImportFeatures } from '../db/repositories/import-features.repo';
 import type { Database } from '../db/client';
-import { defineRoute, type RouteContext } from '../http/route';
+import { defineRoute, type RouteContext, uploadedFile } from '../http/route';
 import { AppError, ValidationError } from '../lib/errors';
 import type { ImportsService } from '../services/imports.service';
 
@@ -59,7 +59,7 @@ export function registerImportRoutes(ctx: RouteContext, db: Database, imports: I
     access: { roles: UPLOADERS },
     middleware: [multipartFile(maxBytes)],
     bodyContentType: 'multipart/form-data',
-    body: z.object({ kind: uploadKindSchema, file: z.any().optional().describe('The file (.zip or .geojson)') }),
+    body: z.object({ kind: uploadKindSchema, file: uploadedFile('The file (.zip or .geojson)') }),
     response: importResponseSchema,
     successStatus: 201,
     errors: [413, 415, 422],

@@ -14,7 +14,7 @@ import {
   stationUploadResultSchema,
 } from '#shared/schemas/monitoring';
 import { formatBytes } from '#shared/geometry/upload-limits';
-import { defineRoute, type RouteContext } from '../http/route';
+import { defineRoute, type RouteContext, uploadedFile } from '../http/route';
 import { AppError, ValidationError } from '../lib/errors';
 import type { MonitoringService } from '../services/monitoring.service';
 
@@ -83,7 +83,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
     middleware: [oneFile('stations')],
     bodyContentType: 'multipart/form-data',
     body: z.object({
-      file: z.any().optional().describe('The file (.zip, .geojson or .csv)'),
+      file: uploadedFile('The file (.zip, .geojson or .csv)'),
       epsg: z.coerce
         .number({ error: 'epsg must be an EPSG code such as 32624' })
         .int({ error: 'epsg must be a whole EPSG code' })
@@ -118,7 +118,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
     access: { roles: UPLOADERS },
     middleware: [oneFile('samples')],
     bodyContentType: 'multipart/form-data',
-    body: z.object({ file: z.any().optional().describe('The CSV file') }),
+    body: z.object({ file: uploadedFile('The CSV file') }),
     response: sampleUploadResultSchema,
     successStatus: 201,
     errors: [413, 415, 422],

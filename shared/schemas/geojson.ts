@@ -6,28 +6,38 @@
 import { z } from 'zod';
 
 /** [longitude, latitude] or [longitude, latitude, elevation] (RFC 7946 §3.1.1). */
-export const positionSchema = z.array(z.number()).min(2).max(3).describe('[longitude, latitude] in degrees (EPSG:4326)');
+export const positionSchema = z.array(z.number()).min(2).max(3).meta({ id: 'GeoJsonPosition', description: '[longitude, latitude] in degrees (EPSG:4326)' });
 
-export const pointSchema = z.object({ type: z.literal('Point'), coordinates: positionSchema });
-export const multiPointSchema = z.object({ type: z.literal('MultiPoint'), coordinates: z.array(positionSchema) });
-export const lineStringSchema = z.object({ type: z.literal('LineString'), coordinates: z.array(positionSchema) });
-export const multiLineStringSchema = z.object({ type: z.literal('MultiLineString'), coordinates: z.array(z.array(positionSchema)) });
-export const polygonSchema = z.object({
-  type: z.literal('Polygon'),
-  coordinates: z.array(z.array(positionSchema)).describe('Linear rings: the outer ring first, then holes'),
-});
-export const multiPolygonSchema = z.object({ type: z.literal('MultiPolygon'), coordinates: z.array(z.array(z.array(positionSchema))) });
+export const pointSchema = z.object({ type: z.literal('Point'), coordinates: positionSchema }).meta({ id: 'GeoJsonPoint' });
+export const multiPointSchema = z.object({ type: z.literal('MultiPoint'), coordinates: z.array(positionSchema) }).meta({ id: 'GeoJsonMultiPoint' });
+export const lineStringSchema = z.object({ type: z.literal('LineString'), coordinates: z.array(positionSchema) }).meta({ id: 'GeoJsonLineString' });
+export const multiLineStringSchema = z
+  .object({ type: z.literal('MultiLineString'), coordinates: z.array(z.array(positionSchema)) })
+  .meta({ id: 'GeoJsonMultiLineString' });
+export const polygonSchema = z
+  .object({
+    type: z.literal('Polygon'),
+    coordinates: z.array(z.array(positionSchema)).describe('Linear rings: the outer ring first, then holes'),
+  })
+  .meta({ id: 'GeoJsonPolygon' });
+export const multiPolygonSchema = z
+  .object({ type: z.literal('MultiPolygon'), coordinates: z.array(z.array(z.array(positionSchema))) })
+  .meta({ id: 'GeoJsonMultiPolygon' });
 
 const simpleGeometries = [pointSchema, multiPointSchema, lineStringSchema, multiLineStringSchema, polygonSchema, multiPolygonSchema] as const;
 
 /** A collection of simple geometries (ST_MakeValid can produce one from a broken polygon). */
-export const geometryCollectionSchema = z.object({
-  type: z.literal('GeometryCollection'),
-  geometries: z.array(z.discriminatedUnion('type', [...simpleGeometries])),
-});
+export const geometryCollectionSchema = z
+  .object({
+    type: z.literal('GeometryCollection'),
+    geometries: z.array(z.discriminatedUnion('type', [...simpleGeometries])),
+  })
+  .meta({ id: 'GeoJsonGeometryCollection' });
 
 /** Any GeoJSON geometry (RFC 7946 §3.1). */
-export const geometrySchema = z.discriminatedUnion('type', [...simpleGeometries, geometryCollectionSchema]).describe('A GeoJSON geometry (RFC 7946)');
+export const geometrySchema = z
+  .discriminatedUnion('type', [...simpleGeometries, geometryCollectionSchema])
+  .meta({ id: 'GeoJsonGeometry', description: 'A GeoJSON geometry (RFC 7946)' });
 export type Geometry = z.infer<typeof geometrySchema>;
 
 /** An area: a Polygon or MultiPolygon. */

@@ -61,7 +61,7 @@ export const leaseSchema = z.object({
   probabilityAnyExposure: z.number().nullable().describe('Annual chance of any days below tolerance (largest over rivers)'),
   createdAt: z.string(),
   updatedAt: z.string(),
-  geometry: z.unknown().optional().describe('GeoJSON MultiPolygon in EPSG:4326'),
+  geometry: areaGeometrySchema.optional().describe('GeoJSON MultiPolygon in EPSG:4326'),
   scenarioRatings: z
     .record(z.string(), z.enum(['low', 'moderate', 'high', 'severe']))
     .optional()

@@ -98,12 +98,18 @@ export function applyRiverDefaults(input: RiverCreate): { settings: RiverSetting
   return { settings: filled as RiverSettings, defaultsUsed };
 }
 
+/** A river's stored settings: what was given, with every defaultable field filled in (see defaultsUsed). */
+export const riverSettingsSchema = z
+  .object(settingsShape)
+  .required(Object.fromEntries(DEFAULTABLE_FIELDS.map((f) => [f, true])) as { [K in DefaultableField]: true })
+  .describe('The river settings with every default filled in');
+
 export const riverSchema = z.object({
   id: z.string(),
   name: z.string(),
   jurisdictionId: z.string().nullable(),
   ownerId: z.string().nullable(),
-  settings: z.record(z.string(), z.unknown()),
+  settings: riverSettingsSchema,
   defaultsUsed: z.array(z.string()),
   version: z.number(),
   hasFlowRecord: z.boolean(),
@@ -151,7 +157,22 @@ export const scenarioSchema = z.object({
   aep: z.number().nullable(),
   discharge: z.number(),
   durationHours: z.number(),
-  source: z.unknown().nullable(),
+  source: z
+    .union([
+      z
+        .object({
+          distribution: z.enum(['gev', 'lp3', 'gumbel']),
+          lower: z.number().nullable(),
+          upper: z.number().nullable(),
+          durationRule: z.string(),
+          recordId: z.string(),
+        })
+        .describe('A design flood of the flood-frequency fit (kind aep), with its confidence limits'),
+      z.object({ season: z.string(), percentile: z.number(), recordId: z.string() }).describe('A seasonal high flow of the record (kind seasonal)'),
+      z.object({ typedBy: z.string() }).describe('Typed by a user (kind manual)'),
+    ])
+    .nullable()
+    .describe('Where the scenario comes from'),
 });
 export type Scenario = z.infer<typeof scenarioSchema>;
 
