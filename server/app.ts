@@ -139,7 +139,7 @@ export function createApp(deps: AppDeps): Express {
   });
 
   documentRoute(
-    { router: express.Router(), registry, basePath: '/api', resolveUser: async () => null },
+    { registry, basePath: '/api' },
     {
       method: 'get',
       path: '/health',
@@ -203,7 +203,7 @@ export function createApp(deps: AppDeps): Express {
   registerZoneRoutes(ctx, createZonesService({ db, mailer, screening, rivers, appUrl: env.APP_URL }));
 
   const openApi = buildOpenApiDocument(registry);
-  /** Every documented operation, walked by tests/server/api-contract.test.ts. */
+  /** Every documented operation, walked by tests/server/routes/api-contract.test.ts. */
   app.locals.apiRoutes = declaredRoutes(registry);
   router.get('/openapi.json', (_req, res) => {
     res.json(openApi);

@@ -146,7 +146,7 @@ const errorBody = z
 
 const declared = new WeakMap<OpenAPIRegistry, DeclaredRoute[]>();
 
-/** Every operation declared on a registry, in declaration order (read by tests/server/api-contract). */
+/** Every operation declared on a registry, in declaration order (read by tests/server/routes/api-contract.test.ts). */
 export function declaredRoutes(registry: OpenAPIRegistry): readonly DeclaredRoute[] {
   return declared.get(registry) ?? [];
 }
@@ -227,7 +227,7 @@ function toOpenApiPath(basePath: string, path: string): string {
 }
 
 /** Registers one operation in the OpenAPI document and in the list the contract tests walk. */
-function register(ctx: RouteContext, spec: DocumentedSpec, handlerSource: string, external: boolean): DeclaredRoute {
+function register(ctx: Pick<RouteContext, 'registry' | 'basePath'>, spec: DocumentedSpec, handlerSource: string, external: boolean): DeclaredRoute {
   const basePath = spec.basePath ?? ctx.basePath;
   const openApiPath = toOpenApiPath(basePath, spec.path);
   const operationId = spec.operationId ?? deriveOperationId(spec.method, spec.path);
@@ -347,7 +347,7 @@ function checkResponse(method: string, path: string, response: ResponseSpec, res
  * Documents an operation mounted outside the API router (the payment webhook, which needs the raw body;
  * the health check). It is held to the same contract rules as defineRoute's routes.
  */
-export function documentRoute(ctx: RouteContext, spec: DocumentedSpec): void {
+export function documentRoute(ctx: Pick<RouteContext, 'registry' | 'basePath'>, spec: DocumentedSpec): void {
   register(ctx, spec, '', true);
 }
 
