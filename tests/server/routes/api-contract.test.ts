@@ -240,7 +240,7 @@ describe('types generated from the document (openapi-typescript)', () => {
     const base = await t.listen();
     const client = (await import(path.join(work, 'client.ts'))) as { demo: (base: string, cookie: string) => Promise<Record<string, unknown>> };
     const result = await client.demo(base, await sessionCookie(base, 'grower@brackline.test'));
-    expect(result.plumeTurnsTo).toBe('right'); // 40° N: a northern-hemisphere plume turns right (science.md §1)
+    expect(result.plumeTurnsTo).toBe('right'); // 40° N: the coast is on the right of a northern-hemisphere plume (science.md, turning direction, a)
     expect(result.leaseCount).toBeGreaterThan(0);
     expect(result.firstLeaseArea).toBeGreaterThan(0);
     expect(typeof result.scenarioName).toBe('string');
