@@ -7,12 +7,13 @@ import rateLimit from 'express-rate-limit';
 import helmet from 'helmet';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
+import { z } from 'zod';
 import { createAuthConfig } from './auth/auth-config';
 import { createUserResolver } from './auth/current-user';
 import type { DbHandle } from './db/client';
 import type { Env } from './env';
 import { buildOpenApiDocument, createRegistry } from './http/openapi';
-import type { RouteContext } from './http/route';
+import { declaredRoutes, documentRoute, type RouteContext } from './http/route';
 import { NotFoundError, TooManyRequestsError } from './lib/errors';
 import type { Mailer } from './mail/mailer';
 import { errorHandler } from './middleware/error-handler';
@@ -63,6 +64,8 @@ export interface AppDeps {
   jobs?: ScreeningJobs;
   /** Alert evaluation, alert e-mails and the gauge feed poll (pg-boss); inline (after each commit) when not given. */
   alertJobs?: AlertJobs;
+  /** Check JSON answers against the declared response schemas (default: when NODE_ENV is test). */
+  checkResponses?: boolean;
 }
 
 const API_BASE = '/api/v1';
@@ -118,6 +121,13 @@ export function createApp(deps: AppDeps): Express {
   app.use(['/auth/callback', '/auth/signin'], authLimiter);
   app.use('/auth', express.urlencoded({ extended: false }), express.json(), ExpressAuth(authConfig));
 
+  const registry = createRegistry();
+  const healthSchema = z.object({
+    status: z.enum(['ok', 'degraded']),
+    database: z.enum(['ok', 'unreachable']),
+    smtp: z.enum(['ok', 'unreachable']),
+    time: z.string().describe('ISO 8601'),
+  });
   app.get('/api/health', async (_req, res) => {
     const database = await deps.db.pool
       .query('select 1')
@@ -128,12 +138,31 @@ export function createApp(deps: AppDeps): Express {
     res.status(status === 'ok' ? 200 : 503).json({ status, database, smtp, time: new Date().toISOString() });
   });
 
+  documentRoute(
+    { registry, basePath: '/api' },
+    {
+      method: 'get',
+      path: '/health',
+      operationId: 'getHealth',
+      summary: 'Whether the database and the mail server answer (200 ok, 503 degraded)',
+      tags: ['health'],
+      access: { public: true },
+      response: healthSchema,
+      otherResponses: { 503: { description: 'Degraded: the database or the mail server does not answer', schema: healthSchema } },
+    },
+  );
+
   const router = express.Router();
   router.use(express.json({ limit: '2mb' }));
   router.use(['/account', '/invitations'], authLimiter);
   router.use('/calc', calcLimiter);
-  const registry = createRegistry();
-  const ctx: RouteContext = { router, registry, basePath: API_BASE, resolveUser: createUserResolver(db, env.AUTH_SECRET) };
+  const ctx: RouteContext = {
+    router,
+    registry,
+    basePath: API_BASE,
+    resolveUser: createUserResolver(db, env.AUTH_SECRET),
+    checkResponses: deps.checkResponses ?? env.NODE_ENV === 'test',
+  };
   const accounts = createAccountsService({ db, mailer, appUrl: env.APP_URL });
   registerAccountRoutes(ctx, accounts);
   registerAdminRoutes(ctx, db, accounts);
@@ -174,6 +203,8 @@ export function createApp(deps: AppDeps): Express {
   registerZoneRoutes(ctx, createZonesService({ db, mailer, screening, rivers, appUrl: env.APP_URL }));
 
   const openApi = buildOpenApiDocument(registry);
+  /** Every documented operation, walked by tests/server/routes/api-contract.test.ts. */
+  app.locals.apiRoutes = declaredRoutes(registry);
   router.get('/openapi.json', (_req, res) => {
     res.json(openApi);
   });

@@ -3,10 +3,10 @@ import multer from 'multer';
 import { z } from 'zod';
 import { searchCrs } from '#shared/geometry/crs-catalogue';
 import { formatBytes } from '#shared/geometry/upload-limits';
-import { importConfirmBodySchema, importCrsBodySchema, importResponseSchema, uploadKindSchema } from '#shared/schemas/upload';
+import { importConfirmBodySchema, importCrsBodySchema, importPreviewSchema, importResponseSchema, uploadKindSchema } from '#shared/schemas/upload';
 import { previewImportFeatures } from '../db/repositories/import-features.repo';
 import type { Database } from '../db/client';
-import { defineRoute, type RouteContext } from '../http/route';
+import { defineRoute, type RouteContext, uploadedFile } from '../http/route';
 import { AppError, ValidationError } from '../lib/errors';
 import type { ImportsService } from '../services/imports.service';
 
@@ -53,12 +53,13 @@ export function registerImportRoutes(ctx: RouteContext, db: Database, imports: I
   defineRoute(ctx, {
     method: 'post',
     path: '/imports',
+    operationId: 'uploadImport',
     summary: 'Upload a zipped shapefile or a GeoJSON FeatureCollection of leases, a coastline or closure zones; returns the preview',
     tags: ['imports'],
     access: { roles: UPLOADERS },
     middleware: [multipartFile(maxBytes)],
     bodyContentType: 'multipart/form-data',
-    body: z.object({ kind: uploadKindSchema, file: z.any().optional().describe('The file (.zip or .geojson)') }),
+    body: z.object({ kind: uploadKindSchema, file: uploadedFile('The file (.zip or .geojson)') }),
     response: importResponseSchema,
     successStatus: 201,
     errors: [413, 415, 422],
@@ -68,6 +69,7 @@ export function registerImportRoutes(ctx: RouteContext, db: Database, imports: I
   defineRoute(ctx, {
     method: 'post',
     path: '/imports/:id/crs',
+    operationId: 'setImportCrs',
     summary: "Choose the coordinate system (EPSG code) of an upload whose .prj was missing or unreadable",
     tags: ['imports'],
     access: { roles: UPLOADERS },
@@ -97,6 +99,7 @@ export function registerImportRoutes(ctx: RouteContext, db: Database, imports: I
     tags: ['imports'],
     access: { roles: UPLOADERS },
     params: idParams,
+    response: importPreviewSchema,
     errors: [404],
     handler: async ({ user, params }) => {
       await imports.get(user!, params.id);
@@ -120,6 +123,7 @@ export function registerImportRoutes(ctx: RouteContext, db: Database, imports: I
   defineRoute(ctx, {
     method: 'get',
     path: '/crs',
+    operationId: 'searchCrs',
     summary: 'Search coordinate systems by name or EPSG code (for uploads without a usable .prj)',
     tags: ['imports'],
     access: { roles: 'any' },

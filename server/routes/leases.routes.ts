@@ -1,5 +1,14 @@
 import { z } from 'zod';
-import { leaseExportQuerySchema, leaseListQuerySchema, leaseListSchema, leaseSchema, leaseUpdateSchema } from '#shared/schemas/lease';
+import {
+  LEASE_EXPORT_CSV_COLUMNS,
+  leaseExportCsvSchema,
+  leaseExportGeoJsonSchema,
+  leaseExportQuerySchema,
+  leaseListQuerySchema,
+  leaseListSchema,
+  leaseSchema,
+  leaseUpdateSchema,
+} from '#shared/schemas/lease';
 import { defineRoute, type RouteContext } from '../http/route';
 import { type LeasesService, toCsv } from '../services/leases.service';
 
@@ -22,10 +31,15 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
   defineRoute(ctx, {
     method: 'get',
     path: '/leases/export',
+    operationId: 'exportLeases',
     summary: 'Export the leases you may see as CSV (attributes and areas) or GeoJSON',
     tags: ['leases'],
     access: { roles: LEASE_READERS },
     query: leaseExportQuerySchema,
+    response: {
+      description: 'A file download (Content-Disposition: attachment): CSV for format=csv, GeoJSON for format=geojson',
+      content: { 'text/csv': leaseExportCsvSchema, 'application/geo+json': leaseExportGeoJsonSchema },
+    },
     handler: async ({ user, query, res }) => {
       const rows = await leases.exportRows(user!, query.status);
       const stamp = new Date().toISOString().slice(0, 10);
@@ -44,7 +58,7 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
       res.setHeader('Content-Disposition', `attachment; filename="brackline-leases-${stamp}.csv"`);
       res.send(
         toCsv(
-          ['id', 'lease_id', 'holder', 'species', 'status', 'area_m2', 'area_ha', 'on_land', 'owner', 'created_at'],
+          [...LEASE_EXPORT_CSV_COLUMNS],
           rows.map((l) => [l.id, l.leaseId, l.holder, l.species, l.status, Math.round(l.areaM2 * 100) / 100, Math.round(l.areaM2 / 100) / 100, l.onLand, l.ownerName, l.createdAt]),
         ),
       );
@@ -84,6 +98,7 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
     tags: ['leases'],
     access: { roles: ['grower', 'adviser', 'regulator'] },
     params: idParams,
+    response: null,
     errors: [404],
     handler: async ({ user, params }) => {
       await leases.remove(user!, params.id);

@@ -14,7 +14,7 @@ import {
   stationUploadResultSchema,
 } from '#shared/schemas/monitoring';
 import { formatBytes } from '#shared/geometry/upload-limits';
-import { defineRoute, type RouteContext } from '../http/route';
+import { defineRoute, type RouteContext, uploadedFile } from '../http/route';
 import { AppError, ValidationError } from '../lib/errors';
 import type { MonitoringService } from '../services/monitoring.service';
 
@@ -75,6 +75,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'post',
     path: '/stations',
+    operationId: 'uploadStations',
     summary:
       'Upload monitoring stations (points): a zipped shapefile, GeoJSON, or CSV with a code and lon/lat (or x/y with epsg). Same codes are updated.',
     tags: ['monitoring'],
@@ -82,7 +83,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
     middleware: [oneFile('stations')],
     bodyContentType: 'multipart/form-data',
     body: z.object({
-      file: z.any().optional().describe('The file (.zip, .geojson or .csv)'),
+      file: uploadedFile('The file (.zip, .geojson or .csv)'),
       epsg: z.coerce
         .number({ error: 'epsg must be an EPSG code such as 32624' })
         .int({ error: 'epsg must be a whole EPSG code' })
@@ -110,13 +111,14 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'post',
     path: '/samples',
+    operationId: 'uploadSamples',
     summary:
       'Upload samples (CSV: station, date-time, salinity, indicator with unit and method, optional temperature); detection limits such as <2 or >1600 are kept as censored values. Same station and time are updated.',
     tags: ['monitoring'],
     access: { roles: UPLOADERS },
     middleware: [oneFile('samples')],
     bodyContentType: 'multipart/form-data',
-    body: z.object({ file: z.any().optional().describe('The CSV file') }),
+    body: z.object({ file: uploadedFile('The CSV file') }),
     response: sampleUploadResultSchema,
     successStatus: 201,
     errors: [413, 415, 422],
@@ -126,6 +128,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'get',
     path: '/rivers/:id/comparison',
+    operationId: 'getRiverComparison',
     summary:
       "The river's plume against the samples in it: observed and predicted salinity and indicator, residuals, bias, RMSE and skill; samples outside every plume listed apart",
     tags: ['monitoring'],
@@ -152,6 +155,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'post',
     path: '/rivers/:id/calibrations',
+    operationId: 'fitCalibration',
     summary:
       'Fit the mixing length and T90 (optionally the alongshore share and near-field fraction) to the samples in the plume; the river is not changed until applied',
     tags: ['monitoring'],

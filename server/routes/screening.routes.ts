@@ -3,7 +3,14 @@ import { z } from 'zod';
 import { type AnnualItem, annualListSchema, annualQuerySchema } from '#shared/schemas/annual';
 import { annualRating, compareAnnualWorstFirst } from '#shared/scoring/annual-rating';
 import type { Database } from '../db/client';
-import { defineRoute, type RouteContext } from '../http/route';
+import {
+  footprintSchema,
+  leaseSweepSchema,
+  RATINGS,
+  screeningListSchema,
+  screeningRunListSchema,
+} from '#shared/schemas/screening';
+import { BINARY_BODY, defineRoute, type RouteContext } from '../http/route';
 import { NotFoundError, ValidationError } from '../lib/errors';
 import { visibleLeases } from '../services/leases.service';
 import type { RiversService } from '../services/rivers.service';
@@ -12,7 +19,6 @@ import type { SweepService } from '../services/sweep.service';
 import { leaseTile } from '../db/repositories/tiles.repo';
 
 const READERS = ['grower', 'adviser', 'regulator'] as const;
-const RATINGS = ['low', 'moderate', 'high', 'severe'] as const;
 
 const footprintQuery = z
   .strictObject({
@@ -45,10 +51,12 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/footprints',
+    operationId: 'getFootprint',
     summary: "A river's plume footprint as GeoJSON (bulge and bands), for a scenario or any flow (built once, then cached)",
     tags: ['footprints'],
     access: { roles: READERS },
     query: footprintQuery,
+    response: footprintSchema,
     errors: [404, 422],
     handler: async ({ user, query }) => {
       await rivers.get(user!, query.riverId);
@@ -105,6 +113,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     tags: ['screenings'],
     access: { roles: READERS },
     query: screeningQuery,
+    response: screeningListSchema,
     handler: async ({ user, query }) => {
       const where = [visibleLeases(user!)];
       if (query.leaseId) where.push(sql`s.lease_id = ${query.leaseId}::uuid`);
@@ -128,6 +137,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/screenings/annual',
+    operationId: 'listAnnualExposures',
     summary:
       'Yearly figures per lease and river (expected closure days a year, chance a year of a harmful salinity event, days below the salinity tolerance) and the yearly rating set from them, worst first',
     tags: ['screenings'],
@@ -162,6 +172,8 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     tags: ['screenings'],
     access: { roles: READERS },
     query: z.strictObject({ riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }) }),
+    response: screeningRunListSchema,
+    errors: [404],
     handler: async ({ user, query }) => {
       await rivers.get(user!, query.riverId);
       const rows = await db.execute(sql`
@@ -174,11 +186,13 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/leases/:id/sweep',
+    operationId: 'getLeaseSweep',
     summary: 'Flow sweep for one lease: the river flow at which it enters each band, and the field over it against flow',
     tags: ['screenings'],
     access: { roles: READERS },
     params: z.object({ id: z.uuid({ error: 'id must be a lease id (UUID)' }) }),
     query: z.strictObject({ riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }), steps: z.coerce.number().int().min(10).max(400).default(60) }),
+    response: leaseSweepSchema,
     errors: [404, 422],
     handler: async ({ user, params, query }) => {
       await rivers.get(user!, query.riverId);
@@ -201,6 +215,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/tiles/leases/:z/:x/:y',
+    operationId: 'getLeaseTile',
     summary: 'Leases you may see as Mapbox Vector Tiles (layer "leases": id, lease, status, species, rating at a scenario or worst)',
     tags: ['tiles'],
     access: { roles: READERS },
@@ -209,6 +224,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
       riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }).optional(),
       scenarioId: z.uuid({ error: 'scenarioId must be a scenario id (UUID)' }).optional().describe('Rate each lease at this flood scenario'),
     }),
+    response: { description: 'A Mapbox Vector Tile (empty when nothing is in the tile)', content: { 'application/vnd.mapbox-vector-tile': BINARY_BODY } },
     handler: async ({ user, params, query, res }) => {
       const { z: tz, x, y } = tileXY(params);
       const mvt = await leaseTile(db, user!, tz, x, y, query.riverId, query.scenarioId);
@@ -222,11 +238,14 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/tiles/bands/:z/:x/:y',
+    operationId: 'getBandTile',
     summary: 'The bands of one footprint as Mapbox Vector Tiles (layer "bands")',
     tags: ['tiles'],
     access: { roles: READERS },
     params: tileParams,
     query: z.strictObject({ footprintId: z.uuid({ error: 'footprintId must be a footprint id (UUID)' }) }),
+    response: { description: 'A Mapbox Vector Tile (empty when nothing is in the tile)', content: { 'application/vnd.mapbox-vector-tile': BINARY_BODY } },
+    errors: [404],
     handler: async ({ user, params, query, res }) => {
       const { z: tz, x, y } = tileXY(params);
       const fp = await db.execute<{ river_id: string }>(sql`SELECT river_id FROM footprints WHERE id = ${query.footprintId}::uuid`);

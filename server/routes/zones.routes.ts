@@ -9,6 +9,7 @@ import {
   auditQuerySchema,
   closureCheckResultSchema,
   closureCheckSchema,
+  closureGaugeListSchema,
   noticeCreateSchema,
   noticeListSchema,
   noticeSchema,
@@ -82,6 +83,7 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'get',
     path: '/zones/:id/trigger-sweep',
+    operationId: 'getZoneTriggerSweep',
     summary:
       "Share of the zone where the modelled indicator is above the zone's standard, against river flow; the suggested trigger, its margin to the plan's and the AEP of each",
     tags: ['zones'],
@@ -135,6 +137,7 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'post',
     path: '/closure-checks',
+    operationId: 'runClosureCheck',
     summary: 'Which zones and which held leases a flow (typed, or the latest gauge reading) puts in which bands',
     tags: ['closure-checks'],
     access: { roles: REGULATOR },
@@ -147,9 +150,11 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'get',
     path: '/closure-checks/gauges',
+    operationId: 'listClosureCheckGauges',
     summary: "Your jurisdiction's gauges with their latest reading (read only)",
     tags: ['closure-checks'],
     access: { roles: REGULATOR },
+    response: closureGaugeListSchema,
     handler: ({ user }) => zones.gaugesOf(user!),
   });
 
@@ -166,6 +171,7 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'post',
     path: '/notices',
+    operationId: 'issueNotice',
     summary:
       'Issue a closure or reopening notice for one or more zones: statuses change, every grower with a held lease there gets an e-mail and an in-app message',
     tags: ['notices'],
@@ -180,6 +186,7 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'get',
     path: '/audit',
+    operationId: 'listAuditEntries',
     summary: 'The audit log (append-only): a regulator reads its jurisdiction’s entries, an administrator all',
     tags: ['audit'],
     access: { roles: ['regulator', 'admin'] },
@@ -191,6 +198,7 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'get',
     path: '/public/status/:jurisdiction',
+    operationId: 'getPublicStatus',
     summary: "A jurisdiction's zone statuses and recent notices, for the public status page (no sign-in)",
     tags: ['public'],
     access: { public: true },

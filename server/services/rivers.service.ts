@@ -50,7 +50,7 @@ function toRiver(r: RiverRow): River {
     name: r.name,
     jurisdictionId: r.jurisdiction_id,
     ownerId: r.owner_id,
-    settings: r.settings as unknown as Record<string, unknown>,
+    settings: r.settings,
     defaultsUsed: r.defaults_used,
     version: r.version,
     hasFlowRecord: r.has_record,
@@ -257,7 +257,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
 
   async function scenarios(user: CurrentUser, riverId: string): Promise<Scenario[]> {
     await load(user, riverId);
-    const res = await db.execute<{ id: string; river_id: string; name: string; kind: Scenario['kind']; aep: number | null; discharge: number; duration_hours: number; source: unknown }>(sql`
+    const res = await db.execute<{ id: string; river_id: string; name: string; kind: Scenario['kind']; aep: number | null; discharge: number; duration_hours: number; source: Scenario['source'] }>(sql`
       SELECT * FROM scenarios WHERE river_id = ${riverId}::uuid ORDER BY kind, aep DESC NULLS LAST, discharge`);
     return res.rows.map((s) => ({ id: s.id, riverId: s.river_id, name: s.name, kind: s.kind, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, source: s.source }));
   }
