@@ -29,6 +29,10 @@ npm run --silent lint || status=1
 say "Unit, API and component tests"
 npx vitest run --project node --project dom --reporter=default --reporter=json --outputFile.json="$BRACKLINE_DATA/results/unit.json" || status=1
 
+# The fault tests that take under a minute; npm run faults runs them all (database restarts included).
+say "Fault tests (a PostgreSQL cluster of their own)"
+npx vitest run --project faults tests/faults/crash-during-upload.fault.ts --reporter=default --reporter=json --outputFile.json="$BRACKLINE_DATA/results/faults.json" || status=1
+
 say "Client build (production, as npm start serves it)"
 NODE_ENV=production npx vite build --logLevel warn || status=1
 
