@@ -98,7 +98,6 @@ export function createApp(deps: AppDeps): Express {
   // Throttles on the sign-in family and the calculators only; counters shared by every app process.
   const limits = createRateLimits({
     pool: deps.db.pool,
-    databaseUrl: env.DATABASE_URL,
     prefix: deps.rateLimitPrefix ?? 'brackline',
     address: deps.authRateLimit ?? DEFAULT_RATE_LIMITS.address,
     account: deps.accountRateLimit ?? DEFAULT_RATE_LIMITS.account,

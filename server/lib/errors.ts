@@ -67,7 +67,7 @@ export class DatabaseUnavailableError extends AppError {
     super(
       503,
       'database_unavailable',
-      `The database is not reachable just now (it may be restarting). Nothing was changed by this request; try again in ${retryAfterSeconds} seconds.`,
+      `The database is not reachable just now (it may be restarting). Try again in ${retryAfterSeconds} seconds.`,
     );
     this.retryAfterSeconds = retryAfterSeconds;
   }

@@ -24,7 +24,6 @@ export interface RateLimitWindow {
 export interface RateLimitOptions {
   /** The app's pool (guarded, with a short connect timeout). */
   pool: pg.Pool;
-  databaseUrl: string;
   /** Names this app's counters; every process of one deployment must use the same. */
   prefix: string;
   /** Sign-in, sign-up, reset and invitation requests from one address. */
@@ -57,6 +56,22 @@ function accountOf(req: Request): string | undefined {
   return undefined;
 }
 
+/**
+ * The package's store on the app's pool. Its constructor would start applying its migrations without
+ * waiting (an unhandled rejection if the database is down at boot) and its init() would open a pool of
+ * its own without an error listener (a restart would then kill the process). Both jobs are done
+ * elsewhere: the migrations by db:migrate, the pool by createDb. The queries are the package's own.
+ */
+function postgresStore(pool: pg.Pool, prefix: string): PostgresStore {
+  const store: PostgresStore = Object.create(PostgresStore.prototype);
+  store.prefix = prefix;
+  store.init = (options: { windowMs: number }) => {
+    store.windowMs = options.windowMs;
+    store.pool = pool;
+  };
+  return store;
+}
+
 export interface RateLimits {
   /** Per address then per account: the sign-in family. Mount with a body parser before it. */
   signIn: RequestHandler[];
@@ -65,9 +80,8 @@ export interface RateLimits {
 
 export function createRateLimits(o: RateLimitOptions): RateLimits {
   const limiter = (name: string, w: RateLimitWindow, message: string, key: (req: Request) => string | undefined) => {
-    // The store's constructor applies its migrations (already done by db:migrate: a no-op check).
-    const store = new PostgresStore({ connectionString: o.databaseUrl, connectionTimeoutMillis: 3_000 }, `${o.prefix}:${name}`);
-    const middleware = rateLimit({
+    const store = postgresStore(o.pool, `${o.prefix}:${name}`);
+    return rateLimit({
       windowMs: w.windowMs,
       limit: w.limit,
       standardHeaders: 'draft-8',
@@ -77,11 +91,6 @@ export function createRateLimits(o: RateLimitOptions): RateLimits {
       skip: (req) => key(req) === undefined,
       handler: (_req, _res, next) => next(new TooManyRequestsError(message)),
     });
-    // rateLimit() has called the store's init(), which opened a pool of its own: use the app's instead.
-    const own = store.pool as pg.Pool;
-    store.pool = o.pool;
-    void own.end().catch(() => undefined);
-    return middleware;
   };
   const address = (req: Request) => ipKeyGenerator(req.ip ?? '0.0.0.0');
   return {
