@@ -31,7 +31,7 @@ npx vitest run --project node --project dom --reporter=default --reporter=json -
 
 # The fault tests that take under a minute; npm run faults runs them all (database restarts included).
 say "Fault tests (a PostgreSQL cluster of their own)"
-npx vitest run --project faults tests/faults/crash-during-upload.fault.ts --reporter=default --reporter=json --outputFile.json="$BRACKLINE_DATA/results/faults.json" || status=1
+npx vitest run --project faults tests/faults/crash-during-upload.fault.ts tests/faults/pg-settings.fault.ts --reporter=default --reporter=json --outputFile.json="$BRACKLINE_DATA/results/faults.json" || status=1
 
 say "Client build (production, as npm start serves it)"
 NODE_ENV=production npx vite build --logLevel warn || status=1

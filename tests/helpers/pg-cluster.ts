@@ -20,7 +20,8 @@ export interface FaultCluster {
   /** `pg_ctl restart -m fast`, as a minor upgrade or a failover does. */
   restart(): Promise<void>;
   stop(): Promise<void>;
-  start(): Promise<void>;
+  /** `scripts/pg.sh up` with the safe settings, as npm start runs it; returns what it printed. */
+  start(): Promise<string>;
   /** SIGKILL to the postmaster and then to every process it started: a crash, not a shutdown. Resolves once they are gone. */
   kill(): Promise<void>;
   destroy(): Promise<void>;
@@ -37,22 +38,22 @@ export async function freePort(): Promise<number> {
   });
 }
 
-export async function createFaultCluster(name: string, databases: string[] = ['brackline_fault']): Promise<FaultCluster> {
+export async function createFaultCluster(name: string, databases: string[] = ['brackline_fault'], options: { relaxed?: boolean } = {}): Promise<FaultCluster> {
   const port = await freePort();
   const dataRoot = path.join(process.env.BRACKLINE_DATA ?? path.join(ROOT, '.data'), 'faults', `${name}-${port}`);
   rmSync(dataRoot, { recursive: true, force: true });
   mkdirSync(dataRoot, { recursive: true });
-  // The safe settings: PG_RELAXED is cleared even if the test run itself set it.
+  // The safe settings unless asked: PG_RELAXED is cleared even if the test run itself set it.
   const env = { ...process.env, PGPORT: String(port), BRACKLINE_DATA: dataRoot, PG_RELAXED: 'false' };
   const pg = (...args: string[]) => run('bash', [path.join(ROOT, 'scripts/pg.sh'), ...args], { env, cwd: ROOT });
-  await pg('up', ...databases);
+  await run('bash', [path.join(ROOT, 'scripts/pg.sh'), 'up', ...databases], { env: { ...env, PG_RELAXED: options.relaxed ? 'true' : 'false' }, cwd: ROOT });
   return {
     port,
     dataRoot,
     url: (db = databases[0]) => `postgres://app@127.0.0.1:${port}/${db}`,
     restart: async () => void (await pg('restart')),
     stop: async () => void (await pg('stop')),
-    start: async () => void (await pg('up')),
+    start: async () => (await pg('up')).stdout,
     async kill() {
       const pid = Number(readFileSync(path.join(dataRoot, 'pg', 'postmaster.pid'), 'utf8').split('\n')[0]);
       // Its children first listed, then killed right after it, before any of them can finish cleanly.
