@@ -121,8 +121,13 @@ export function createApp(deps: AppDeps): Express {
   app.get('/auth/callback/nodemailer', limits.signIn[0]);
   app.use('/auth', express.urlencoded({ extended: false }), express.json(), ExpressAuth(authConfig));
 
-  // Health for people and load balancers: 200 "ok", or 503 "degraded" with Retry-After when PostgreSQL or
-  // the mail server does not answer within two seconds. Never throttled, never needs a session.
+  // Liveness: the process runs and answers (a process manager restarts it otherwise). It stays 200 during a
+  // database outage, because restarting the app would not bring PostgreSQL back.
+  app.get('/api/health/live', (_req, res) => {
+    res.json({ status: 'ok', time: new Date().toISOString() });
+  });
+  // Readiness and health for people and load balancers: 200 "ok", or 503 "degraded" with Retry-After when
+  // PostgreSQL or the mail server does not answer within two seconds. Never throttled, never needs a session.
   app.get('/api/health', async (_req, res) => {
     const within = <T>(p: Promise<T>, fallback: T) =>
       Promise.race([p.catch(() => fallback), new Promise<T>((resolve) => setTimeout(() => resolve(fallback), 2_000).unref())]);

@@ -99,6 +99,8 @@ describe('requests while the database is unreachable', () => {
       const health = await request(app).get('/api/health').expect(503);
       expect(health.body).toMatchObject({ status: 'degraded', database: 'unreachable' });
       expect(health.headers['retry-after']).toBe('5');
+      // Liveness stays 200: restarting the app would not bring the database back.
+      await request(app).get('/api/health/live').expect(200);
     } finally {
       mailer.close();
       await db.pool.end();
