@@ -30,6 +30,18 @@ export default defineConfig({
       },
       {
         test: {
+          // Fault tests: each makes, restarts and kills a PostgreSQL cluster of its own (npm test, npm run faults).
+          name: 'faults',
+          environment: 'node',
+          include: ['tests/faults/**/*.fault.ts'],
+          // No console.error trap: a store or driver may log while the database is down on purpose.
+          testTimeout: 120_000,
+          hookTimeout: 120_000,
+          fileParallelism: false,
+        },
+      },
+      {
+        test: {
           name: 'dom',
           environment: 'jsdom',
           include: ['tests/src/**/*.test.tsx'],

@@ -3,7 +3,6 @@
  */
 import { ExpressAuth } from '@auth/express';
 import express, { type Express } from 'express';
-import rateLimit from 'express-rate-limit';
 import helmet from 'helmet';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
@@ -14,9 +13,10 @@ import type { DbHandle } from './db/client';
 import type { Env } from './env';
 import { buildOpenApiDocument, createRegistry } from './http/openapi';
 import { declaredRoutes, documentRoute, type RouteContext } from './http/route';
-import { NotFoundError, TooManyRequestsError } from './lib/errors';
+import { NotFoundError } from './lib/errors';
 import type { Mailer } from './mail/mailer';
 import { errorHandler } from './middleware/error-handler';
+import { createRateLimits, DEFAULT_RATE_LIMITS } from './middleware/rate-limits';
 import { registerAccountRoutes } from './routes/account.routes';
 import { registerAdminRoutes } from './routes/admin.routes';
 import { registerCalcRoutes } from './routes/calc.routes';
@@ -56,9 +56,13 @@ export interface AppDeps {
   env: Env;
   db: DbHandle;
   mailer: Mailer;
-  /** Requests per window for sign-in, sign-up and reset, per client address. */
+  /** Requests per window for sign-in, sign-up, reset and invitation accept, per client address. */
   authRateLimit?: { limit: number; windowMs: number };
+  /** The same requests per window for one account (e-mail address or token). */
+  accountRateLimit?: { limit: number; windowMs: number };
   calcRateLimit?: { limit: number; windowMs: number };
+  /** Names the shared rate-limit counters in PostgreSQL; tests give each app its own. */
+  rateLimitPrefix?: string;
   uploadLimits?: Partial<UploadLimits>;
   /** Background screening; inline (at once, in the request) when not given. */
   jobs?: ScreeningJobs;
@@ -94,18 +98,14 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
 
-  const limited = (o: { limit: number; windowMs: number }, message: string) =>
-    rateLimit({
-      ...o,
-      standardHeaders: 'draft-8',
-      legacyHeaders: false,
-      handler: (_req, _res, next) => next(new TooManyRequestsError(message)),
-    });
-  const authLimiter = limited(
-    deps.authRateLimit ?? { limit: 60, windowMs: 10 * 60_000 },
-    'Too many sign-in attempts from this address. Wait ten minutes, then try again.',
-  );
-  const calcLimiter = limited(deps.calcRateLimit ?? { limit: 300, windowMs: 60_000 }, 'Too many calculator requests. Wait a minute, then try again.');
+  // Throttles on the sign-in family and the calculators only; counters shared by every app process.
+  const limits = createRateLimits({
+    pool: deps.db.pool,
+    prefix: deps.rateLimitPrefix ?? 'brackline',
+    address: deps.authRateLimit ?? DEFAULT_RATE_LIMITS.address,
+    account: deps.accountRateLimit ?? DEFAULT_RATE_LIMITS.account,
+    calc: deps.calcRateLimit ?? DEFAULT_RATE_LIMITS.calc,
+  });
 
   const authConfig = createAuthConfig({
     db,
@@ -118,8 +118,12 @@ export function createApp(deps: AppDeps): Express {
     mailFrom: env.MAIL_FROM,
   });
   // Auth.js must be mounted at '/auth' exactly on Express 5 (stack.md gotcha 7).
-  app.use(['/auth/callback', '/auth/signin'], authLimiter);
+  // Password sign-in and sign-in link requests (per address and per e-mail), and following a link (per address).
+  // Reading the session (/auth/session, /auth/csrf) is never throttled.
+  app.post(['/auth/callback/credentials', '/auth/signin/nodemailer'], express.urlencoded({ extended: false }), express.json(), ...limits.signIn);
+  app.get('/auth/callback/nodemailer', limits.signIn[0]);
   app.use('/auth', express.urlencoded({ extended: false }), express.json(), ExpressAuth(authConfig));
+
 
   const registry = createRegistry();
   const healthSchema = z.object({
@@ -128,13 +132,22 @@ export function createApp(deps: AppDeps): Express {
     smtp: z.enum(['ok', 'unreachable']),
     time: z.string().describe('ISO 8601'),
   });
+  // Liveness: the process runs and answers (a process manager restarts it otherwise). It stays 200 during a
+  // database outage, because restarting the app would not bring PostgreSQL back.
+  app.get('/api/health/live', (_req, res) => {
+    res.json({ status: 'ok', time: new Date().toISOString() });
+  });
+  // Readiness and health for people and load balancers: 200 "ok", or 503 "degraded" with Retry-After when
+  // PostgreSQL or the mail server does not answer within two seconds. Never throttled, never needs a session.
   app.get('/api/health', async (_req, res) => {
-    const database = await deps.db.pool
-      .query('select 1')
-      .then(() => 'ok' as const)
-      .catch(() => 'unreachable' as const);
-    const smtp = (await mailer.verify()) ? ('ok' as const) : ('unreachable' as const);
+    const within = <T>(p: Promise<T>, fallback: T) =>
+      Promise.race([p.catch(() => fallback), new Promise<T>((resolve) => setTimeout(() => resolve(fallback), 2_000).unref())]);
+    const [database, smtp] = await Promise.all([
+      within(deps.db.pool.query('select 1').then(() => 'ok' as const), 'unreachable' as const),
+      within(mailer.verify().then((ok) => (ok ? ('ok' as const) : ('unreachable' as const))), 'unreachable' as const),
+    ]);
     const status = database === 'ok' && smtp === 'ok' ? 'ok' : 'degraded';
+    if (status !== 'ok') res.set('Retry-After', '5');
     res.status(status === 'ok' ? 200 : 503).json({ status, database, smtp, time: new Date().toISOString() });
   });
 
@@ -152,10 +165,23 @@ export function createApp(deps: AppDeps): Express {
     },
   );
 
+  documentRoute(
+    { registry, basePath: '/api' },
+    {
+      method: 'get',
+      path: '/health/live',
+      operationId: 'getLiveness',
+      summary: 'Whether the process runs (stays 200 during a database outage: restarting the app would not help)',
+      tags: ['health'],
+      access: { public: true },
+      response: z.object({ status: z.literal('ok'), time: z.string().describe('ISO 8601') }),
+    },
+  );
+
   const router = express.Router();
   router.use(express.json({ limit: '2mb' }));
-  router.use(['/account', '/invitations'], authLimiter);
-  router.use('/calc', calcLimiter);
+  router.post(['/account/sign-up', '/account/password-reset', '/account/password-reset/confirm', '/invitations/:token/accept'], ...limits.signIn);
+  router.use('/calc', limits.calc);
   const ctx: RouteContext = {
     router,
     registry,

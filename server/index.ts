@@ -96,7 +96,7 @@ async function main() {
   });
   server.on('listening', () => {
     logger.info({ url: `http://${env.HOST}:${env.PORT}` }, 'listening');
-    console.log(`\n[brackline] Brackline is running at http://${env.HOST}:${env.PORT}`);
+    console.log(`\n[brackline] Brackline is running at http://${env.HOST}:${env.PORT} (NODE_ENV=${env.NODE_ENV})`);
     if (smtp) console.log(`[brackline] Local e-mail fake on smtp://127.0.0.1:${smtp.port} (see Admin → Outbox)`);
     if (payment) console.log(`[brackline] Local payment fake on ${payment.url} (test card 4242 4242 4242 4242)`);
     if (feed) console.log(`[brackline] Local gauge feed on ${feed.url} (polled every ${env.GAUGE_FEED_POLL_SECONDS} s)`);
