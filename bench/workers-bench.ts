@@ -20,7 +20,8 @@ const CHUNK_LEASES = 1000;
 const ROOT = path.resolve(import.meta.dirname, '..');
 
 function startWorker(databaseUrl: string, id: string): Promise<ChildProcess> {
-  const child = spawn(path.join(ROOT, 'node_modules/.bin/tsx'), ['server/worker.ts'], {
+  // node with tsx's loader, so the pid is the worker's own (the tsx command runs it in a child).
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/worker.ts'], {
     cwd: ROOT,
     env: {
       ...process.env,
@@ -94,7 +95,12 @@ export async function workersBenchmarks(databaseUrl: string): Promise<BenchResul
           await new Promise((r) => setTimeout(r, 100));
         }
         const ms = performance.now() - t0;
-        const chunks = (await handle.pool.query('select worker, count(*)::int as n from screening_run_chunks where run_id = $1 group by worker order by worker', [runId])).rows;
+        const chunks = (
+          await handle.pool.query(
+            'select worker, count(*)::int as n from screening_run_chunks where run_id = $1 group by worker order by worker',
+            [runId],
+          )
+        ).rows;
         const leases = (await handle.pool.query('select total from screening_runs where id = $1', [runId])).rows[0].total as number;
         results.push({
           name: `full re-screen of one river in ${CHUNK_LEASES}-lease chunk jobs, ${n} worker process${n > 1 ? 'es' : ''}: ${leases} leases × ${scenarios} scenarios`,

@@ -30,7 +30,14 @@ async function main() {
   const { jobs, alertJobs, workerId } = started;
   // The alert handlers are wired to the same services the app builds; the app is built for that
   // and never listens, so a worker runs exactly the code an app process with workers on would.
-  const app = createApp({ env: { ...env, SERVE_CLIENT: false }, db: dbHandle, mailer, uploadLimits: uploadLimitsFromEnv(), jobs, alertJobs });
+  const app = createApp({
+    env: { ...env, SERVE_CLIENT: false },
+    db: dbHandle,
+    mailer,
+    uploadLimits: uploadLimitsFromEnv(),
+    jobs,
+    alertJobs,
+  });
   await app.locals.alertsReady;
   logger.info({ workerId }, 'worker started');
   console.log(`[brackline] Worker ${workerId} is running (screening, alerts, gauge feed); no HTTP server.`);

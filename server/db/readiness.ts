@@ -32,7 +32,14 @@ export async function readiness(pool: pg.Pool): Promise<Readiness> {
     const code = (err as { code?: string }).code;
     // 42P01 / 3F000: the migrations table or schema does not exist yet (a new database).
     if (code === '42P01' || code === '3F000') applied = 0;
-    else return { status: 'not-ready', database: 'unreachable', migrations: 'unknown', expected: latest.tag, message: 'The database does not answer.' };
+    else
+      return {
+        status: 'not-ready',
+        database: 'unreachable',
+        migrations: 'unknown',
+        expected: latest.tag,
+        message: 'The database does not answer.',
+      };
   }
   if (applied < latest.when) {
     return {

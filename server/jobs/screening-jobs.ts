@@ -81,7 +81,9 @@ async function failRun(db: Database, runId: string, message: string) {
 }
 
 async function newRun(db: Database, riverId: string): Promise<string> {
-  const res = await db.execute<{ id: string }>(sql`INSERT INTO screening_runs (river_id, status) VALUES (${riverId}::uuid, 'queued') RETURNING id`);
+  const res = await db.execute<{ id: string }>(
+    sql`INSERT INTO screening_runs (river_id, status) VALUES (${riverId}::uuid, 'queued') RETURNING id`,
+  );
   return res.rows[0].id;
 }
 
@@ -121,11 +123,7 @@ async function inTransaction<T>(pool: pg.Pool, fn: (client: pg.PoolClient) => Pr
  * The chunked runner's two steps, for any pg-boss (or a test's own loop): plan a run (footprints,
  * then chunk rows and chunk jobs, committed together), and screen one chunk.
  */
-export function createChunkedScreening(
-  handle: DbHandle,
-  screening: ScreeningService,
-  options: { chunkLeases: number; workerId: string },
-) {
+export function createChunkedScreening(handle: DbHandle, screening: ScreeningService, options: { chunkLeases: number; workerId: string }) {
   const { db, pool } = handle;
 
   /**
@@ -199,7 +197,9 @@ export function createChunkedScreening(
       const hopeless = err instanceof UnprocessableError || err instanceof NotFoundError;
       if (!hopeless && !finalTry) throw err;
       logger.warn({ err, riverId, chunkNo }, 'screening chunk failed');
-      await db.execute(sql`UPDATE screening_run_chunks SET status = 'failed', finished_at = now() WHERE run_id = ${runId}::uuid AND chunk_no = ${chunkNo}`);
+      await db.execute(
+        sql`UPDATE screening_run_chunks SET status = 'failed', finished_at = now() WHERE run_id = ${runId}::uuid AND chunk_no = ${chunkNo}`,
+      );
       await failRun(db, runId, (err as Error).message);
       return;
     }

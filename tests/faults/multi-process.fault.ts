@@ -22,10 +22,10 @@ import { type SmtpFake, startSmtpFake } from '../../server/fakes/smtp-fake';
 const ROOT = path.resolve(import.meta.dirname, '../..');
 const DB_NAME = 'brackline_multiproc';
 const EXTRA_LEASES = 2000;
-const CHUNK_LEASES = 400;
+const CHUNK_LEASES = 200;
 const ALERTS = 100;
 /** A dead worker's chunk goes back to the queue this long after it was taken (pg-boss expiry). */
-const CHUNK_EXPIRE_SECONDS = 20;
+const CHUNK_EXPIRE_SECONDS = 30;
 
 interface Proc {
   name: string;
@@ -55,7 +55,9 @@ function testDatabaseUrl(): string {
 
 /** Starts one process; resolves when its output shows `ready`. */
 function start(name: string, script: string, env: Record<string, string>, ready: RegExp): Promise<Proc> {
-  const child = spawn(path.join(ROOT, 'node_modules/.bin/tsx'), [script], {
+  // node itself with tsx's loader (not the tsx command, which runs the script in a child process
+  // of its own): the pid here is the server's, so SIGKILL kills the server.
+  const child = spawn(process.execPath, ['--import', 'tsx', script], {
     cwd: ROOT,
     env: { ...process.env, ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
@@ -146,7 +148,11 @@ async function changeRiver(regulator: Jar, mixingLength: number): Promise<string
   expect(res.status).toBe(200);
   const run = await waitFor(
     'the run the change queued',
-    () => one<{ id: string } | undefined>(`select id from screening_runs where river_id = $1 and queued_at >= $2 order by queued_at desc limit 1`, [amberlinId, before]),
+    () =>
+      one<{ id: string } | undefined>(
+        `select id from screening_runs where river_id = $1 and queued_at >= $2 order by queued_at desc limit 1`,
+        [amberlinId, before],
+      ),
     (r) => r !== undefined,
     10_000,
   );
@@ -265,7 +271,10 @@ describe('two app processes and two workers on one PostgreSQL', () => {
     const viewer = await signIn(appB.url!, 'regulator@brackline.test');
     const run = await waitFor(
       'the re-screen to finish',
-      async () => (await api(appB.url!, viewer, 'GET', `/screenings/runs?riverId=${amberlinId}`)).body.items.find((r: { id: string }) => r.id === runId),
+      async () =>
+        (await api(appB.url!, viewer, 'GET', `/screenings/runs?riverId=${amberlinId}`)).body.items.find(
+          (r: { id: string }) => r.id === runId,
+        ),
       (r) => r?.status === 'done' || r?.status === 'failed',
       240_000,
       500,
@@ -280,10 +289,15 @@ describe('two app processes and two workers on one PostgreSQL', () => {
     );
     expect(leaseCount).toBe(scoped.n);
     expect(leaseCount).toBeGreaterThan(EXTRA_LEASES);
-    const chunks = await db.pool.query(`select chunk_no, worker, status, cardinality(lease_ids) as n from screening_run_chunks where run_id = $1 order by chunk_no`, [runId]);
+    const chunks = await db.pool.query(
+      `select chunk_no, worker, status, cardinality(lease_ids) as n from screening_run_chunks where run_id = $1 order by chunk_no`,
+      [runId],
+    );
     expect(chunks.rows).toHaveLength(Math.ceil(leaseCount / CHUNK_LEASES));
     expect(chunks.rows.every((c) => c.status === 'done')).toBe(true);
-    figures.chunksByWorker = JSON.stringify(Object.fromEntries(['w1', 'w2'].map((w) => [w, chunks.rows.filter((c) => c.worker === w).length])));
+    figures.chunksByWorker = JSON.stringify(
+      Object.fromEntries(['w1', 'w2'].map((w) => [w, chunks.rows.filter((c) => c.worker === w).length])),
+    );
     expect(new Set(chunks.rows.map((c) => c.worker))).toEqual(new Set(['w1', 'w2']));
     // Every lease × scenario screened again by this run, each once.
     const fresh = await one<{ n: number; distinct: number }>(
@@ -305,7 +319,12 @@ describe('two app processes and two workers on one PostgreSQL', () => {
     const gauge = (await api(appA.url!, grower, 'GET', '/gauges')).body.items.find((g: { code: string }) => g.code === 'FCSA-G01');
     const token = (await api(appB.url!, regulator, 'POST', `/gauges/${gauge.id}/token`)).body.token;
     const fb001 = (await api(appA.url!, grower, 'GET', '/leases?q=FB-001')).body.items[0].id;
-    const rule = await api(appB.url!, grower, 'POST', '/alert-rules', { kind: 'lease', leaseId: fb001, riverId: gauge.riverId, bandId: 'plume-edge' });
+    const rule = await api(appB.url!, grower, 'POST', '/alert-rules', {
+      kind: 'lease',
+      leaseId: fb001,
+      riverId: gauge.riverId,
+      bandId: 'plume-edge',
+    });
     expect(rule.status).toBe(201);
     const threshold = rule.body.thresholdFlow as number;
     // Readings go up and down 100 times: 100 crossings, 100 alerts, half the readings through each app.
@@ -315,11 +334,23 @@ describe('two app processes and two workers on one PostgreSQL', () => {
     }));
     const started = Date.now();
     for (const [k, app] of [appA, appB].entries()) {
-      const posted = await api(app.url!, null, 'POST', `/gauges/${gauge.id}/readings`, { readings: readings.slice(k * ALERTS, (k + 1) * ALERTS) }, { authorization: `Bearer ${token}` });
+      const posted = await api(
+        app.url!,
+        null,
+        'POST',
+        `/gauges/${gauge.id}/readings`,
+        { readings: readings.slice(k * ALERTS, (k + 1) * ALERTS) },
+        { authorization: `Bearer ${token}` },
+      );
       expect(posted.status).toBe(201);
     }
     const count = async (q: string) => (await one<{ n: number }>(q)).n;
-    await waitFor('every alert e-mailed', () => count(`select count(*)::int as n from alerts where email_status = 'sent'`), (n) => n === ALERTS, 120_000);
+    await waitFor(
+      'every alert e-mailed',
+      () => count(`select count(*)::int as n from alerts where email_status = 'sent'`),
+      (n) => n === ALERTS,
+      120_000,
+    );
     figures.alertBurstSeconds = Number(((Date.now() - started) / 1000).toFixed(1));
     await waitFor(
       'the alert queues to drain',
@@ -342,7 +373,11 @@ describe('two app processes and two workers on one PostgreSQL', () => {
     // Worker 1 has taken a chunk and is screening it: kill it (no clean-up, no goodbye).
     const taken = await waitFor(
       'worker 1 to be screening a chunk',
-      () => one<{ chunk_no: number } | undefined>(`select chunk_no from screening_run_chunks where run_id = $1 and worker = 'w1' and status = 'running'`, [runId]),
+      () =>
+        one<{ chunk_no: number } | undefined>(
+          `select chunk_no from screening_run_chunks where run_id = $1 and worker = 'w1' and status = 'running'`,
+          [runId],
+        ),
       (r) => r !== undefined,
       180_000,
       20,
@@ -351,15 +386,24 @@ describe('two app processes and two workers on one PostgreSQL', () => {
     const killedAt = Date.now();
     await new Promise((r) => w1.child.once('exit', r));
     const killedChunk = taken!.chunk_no;
-    expect((await one<{ status: string }>(`select status from screening_run_chunks where run_id = $1 and chunk_no = $2`, [runId, killedChunk])).status).toBe('running');
+    expect(
+      (await one<{ status: string }>(`select status from screening_run_chunks where run_id = $1 and chunk_no = $2`, [runId, killedChunk]))
+        .status,
+    ).toBe('running');
 
     const chunk = await waitFor(
       "the killed worker's chunk to be finished",
-      () => one<{ status: string; worker: string; attempts: number; finished_at: Date | null }>(`select status, worker, attempts, finished_at from screening_run_chunks where run_id = $1 and chunk_no = $2`, [runId, killedChunk]),
+      () =>
+        one<{ status: string; worker: string; attempts: number; started_at: Date; finished_at: Date | null }>(
+          `select status, worker, attempts, started_at, finished_at from screening_run_chunks where run_id = $1 and chunk_no = $2`,
+          [runId, killedChunk],
+        ),
       (c) => c.status === 'done',
       CHUNK_EXPIRE_SECONDS * 1000 + 120_000,
       200,
     );
+    // Taken again by the survivor once pg-boss expired it (CHUNK_EXPIRE_SECONDS after it was first taken).
+    figures.killedChunkRetakenAfterSeconds = Number(((chunk.started_at.getTime() - killedAt) / 1000).toFixed(1));
     figures.killedChunkFinishedAfterSeconds = Number(((chunk.finished_at!.getTime() - killedAt) / 1000).toFixed(1));
     expect(chunk.worker).toBe('w2');
     expect(chunk.attempts).toBe(2);

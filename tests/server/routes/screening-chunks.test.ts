@@ -142,7 +142,9 @@ describe('chunked screening', () => {
       );
       expect(run.status).toBe('done');
       expect(run.done).toBe(run.total);
-      const chunks = await t.db.pool.query(`select worker, cardinality(lease_ids) as n from screening_run_chunks where run_id = $1`, [runId]);
+      const chunks = await t.db.pool.query(`select worker, cardinality(lease_ids) as n from screening_run_chunks where run_id = $1`, [
+        runId,
+      ]);
       expect(chunks.rows.reduce((s, c) => s + c.n, 0)).toBe(run.total);
       expect(new Set(chunks.rows.map((c) => c.worker))).toEqual(new Set(['boss-a', 'boss-b']));
       const leases = await screening.scopedLeaseIds(await screening.riverInputs(riverId));
