@@ -130,7 +130,7 @@ export function createChunkedScreening(handle: DbHandle, screening: ScreeningSer
    * The parent step. Idempotent: a retried parent (its worker died) finds the chunks already
    * queued and stops; a run whose chunks were not committed is planned again from the start.
    */
-  async function planRun(job: RunJob, sendChunk: (client: pg.PoolClient, chunk: ChunkJob) => Promise<void>) {
+  async function planRun(job: RunJob, sendChunk: (client: pg.PoolClient, chunk: ChunkJob) => Promise<void>, finalTry = true) {
     const { runId, riverId } = job;
     const started = await db.execute(sql`
       UPDATE screening_runs SET status = 'running', started_at = COALESCE(started_at, now())
@@ -168,6 +168,9 @@ export function createChunkedScreening(handle: DbHandle, screening: ScreeningSer
       });
     } catch (err) {
       // No coastline, a bad setting, the river gone: retrying will not help; the run says why.
+      // Anything else (the database away for a moment) is retried by pg-boss until the last try.
+      const hopeless = err instanceof UnprocessableError || err instanceof NotFoundError;
+      if (!hopeless && !finalTry) throw err;
       logger.warn({ err, riverId }, 'screening run failed');
       await failRun(db, runId, (err as Error).message);
     }
@@ -255,8 +258,8 @@ export async function createPgBossScreeningJobs(
     await boss.send(Q_CHUNK, chunk, { ...chunkRetry, db: { executeSql: (text: string, values: unknown[]) => client.query(text, values) } });
   };
   if (options.work) {
-    await boss.work<RunJob>(Q_RUN, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
-      await chunked.planRun(job.data, sendChunk);
+    await boss.work<RunJob>(Q_RUN, { batchSize: 1, pollingIntervalSeconds: 1, includeMetadata: true }, async ([job]) => {
+      await chunked.planRun(job.data, sendChunk, job.retryCount >= job.retryLimit);
     });
     await boss.work<ChunkJob>(Q_CHUNK, { batchSize: 1, pollingIntervalSeconds: 1, includeMetadata: true }, async ([job]) => {
       await chunked.runChunk(job.data, job.retryCount >= job.retryLimit);
