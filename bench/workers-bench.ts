@@ -1,8 +1,9 @@
 /**
  * Issue "Several processes, one PostgreSQL" benchmark: the full re-screen of one river over a
  * jurisdiction of 20 000 generated leases, run as chunk jobs by one worker process and then by two
- * (`tsx server/worker.ts`, real processes, as `npm run worker` starts them). The footprints are
- * cached, so the time is the planning plus the chunks. On the 2-core reference machine the second
+ * (`tsx server/worker.ts`, real processes, as `npm run worker` starts them), beside the inline
+ * runner's time for the same river in one process. The footprints are cached, so the time is the
+ * planning plus the chunks. On the 2-core reference machine the second
  * worker shares the cores with PostgreSQL, so the gain is bounded well below 2×.
  */
 import { type ChildProcess, spawn } from 'node:child_process';
@@ -83,6 +84,19 @@ export async function workersBenchmarks(databaseUrl: string): Promise<BenchResul
   });
   const results: BenchResult[] = [];
   try {
+    // The reference: the inline runner, the whole river at once in this process (no chunks, no queue).
+    const screening = createScreeningService({ db });
+    const t0 = performance.now();
+    const inline = await screening.screenRiver(river);
+    const inlineMs = performance.now() - t0;
+    results.push({
+      name: `full re-screen of one river, inline in one process (no chunks): ${inline.screenings / Math.max(1, inline.scenarios)} leases × ${inline.scenarios} scenarios`,
+      medianMs: inlineMs,
+      p90Ms: inlineMs,
+      runs: 1,
+      ratioToBaseline: inlineMs / (await baseline()),
+      note: `${(inline.screenings / (inlineMs / 1000)).toFixed(0)} screenings/s`,
+    });
     for (const n of [1, 2]) {
       const workers = await Promise.all(Array.from({ length: n }, (_, i) => startWorker(databaseUrl, `bench-${n}-${i + 1}`)));
       try {
@@ -119,6 +133,6 @@ export async function workersBenchmarks(databaseUrl: string): Promise<BenchResul
     await db.execute(sql`DELETE FROM leases WHERE lease_code LIKE 'BENCHW-%'`);
     await handle.pool.end();
   }
-  if (results.length === 2) results[1].note += `; ${(results[0].medianMs / results[1].medianMs).toFixed(2)}× the one-worker speed`;
+  if (results.length === 3) results[2].note += `; ${(results[1].medianMs / results[2].medianMs).toFixed(2)}× the one-worker speed`;
   return results;
 }
