@@ -10,6 +10,7 @@ import { z } from 'zod';
 import { createAuthConfig } from './auth/auth-config';
 import { createUserResolver } from './auth/current-user';
 import type { DbHandle } from './db/client';
+import { readiness } from './db/readiness';
 import type { Env } from './env';
 import { buildOpenApiDocument, createRegistry } from './http/openapi';
 import { declaredRoutes, documentRoute, type RouteContext } from './http/route';
@@ -120,10 +121,14 @@ export function createApp(deps: AppDeps): Express {
   // Auth.js must be mounted at '/auth' exactly on Express 5 (stack.md gotcha 7).
   // Password sign-in and sign-in link requests (per address and per e-mail), and following a link (per address).
   // Reading the session (/auth/session, /auth/csrf) is never throttled.
-  app.post(['/auth/callback/credentials', '/auth/signin/nodemailer'], express.urlencoded({ extended: false }), express.json(), ...limits.signIn);
+  app.post(
+    ['/auth/callback/credentials', '/auth/signin/nodemailer'],
+    express.urlencoded({ extended: false }),
+    express.json(),
+    ...limits.signIn,
+  );
   app.get('/auth/callback/nodemailer', limits.signIn[0]);
   app.use('/auth', express.urlencoded({ extended: false }), express.json(), ExpressAuth(authConfig));
-
 
   const registry = createRegistry();
   const healthSchema = z.object({
@@ -143,8 +148,14 @@ export function createApp(deps: AppDeps): Express {
     const within = <T>(p: Promise<T>, fallback: T) =>
       Promise.race([p.catch(() => fallback), new Promise<T>((resolve) => setTimeout(() => resolve(fallback), 2_000).unref())]);
     const [database, smtp] = await Promise.all([
-      within(deps.db.pool.query('select 1').then(() => 'ok' as const), 'unreachable' as const),
-      within(mailer.verify().then((ok) => (ok ? ('ok' as const) : ('unreachable' as const))), 'unreachable' as const),
+      within(
+        deps.db.pool.query('select 1').then(() => 'ok' as const),
+        'unreachable' as const,
+      ),
+      within(
+        mailer.verify().then((ok) => (ok ? ('ok' as const) : ('unreachable' as const))),
+        'unreachable' as const,
+      ),
     ]);
     const status = database === 'ok' && smtp === 'ok' ? 'ok' : 'degraded';
     if (status !== 'ok') res.set('Retry-After', '5');
@@ -178,9 +189,41 @@ export function createApp(deps: AppDeps): Express {
     },
   );
 
+  const readinessSchema = z.object({
+    status: z.enum(['ready', 'not-ready']),
+    database: z.enum(['ok', 'unreachable']),
+    migrations: z.enum(['applied', 'pending', 'unknown']),
+    expected: z.string(),
+    message: z.string().optional(),
+  });
+  documentRoute(
+    { registry, basePath: '/api' },
+    {
+      method: 'get',
+      path: '/ready',
+      operationId: 'getReadiness',
+      summary:
+        "Whether this process can take traffic: the database answers and this build's migrations are applied (200 ready, 503 not ready)",
+      tags: ['health'],
+      access: { public: true },
+      response: readinessSchema,
+      otherResponses: {
+        503: { description: 'Not ready: the database does not answer or migrations are pending', schema: readinessSchema },
+      },
+    },
+  );
+  // Readiness (load balancers): the database answers and this build's migrations are applied.
+  app.get('/api/ready', async (_req, res) => {
+    const ready = await readiness(deps.db.pool);
+    res.status(ready.status === 'ready' ? 200 : 503).json(ready);
+  });
+
   const router = express.Router();
   router.use(express.json({ limit: '2mb' }));
-  router.post(['/account/sign-up', '/account/password-reset', '/account/password-reset/confirm', '/invitations/:token/accept'], ...limits.signIn);
+  router.post(
+    ['/account/sign-up', '/account/password-reset', '/account/password-reset/confirm', '/invitations/:token/accept'],
+    ...limits.signIn,
+  );
   router.use('/calc', limits.calc);
   const ctx: RouteContext = {
     router,
@@ -193,11 +236,19 @@ export function createApp(deps: AppDeps): Express {
   registerAccountRoutes(ctx, accounts);
   registerAdminRoutes(ctx, db, accounts);
   registerCalcRoutes(ctx);
-  const uploadLimits = { ...DEFAULT_UPLOAD_LIMITS, ...Object.fromEntries(Object.entries(deps.uploadLimits ?? {}).filter(([, v]) => v !== undefined)) };
+  const uploadLimits = {
+    ...DEFAULT_UPLOAD_LIMITS,
+    ...Object.fromEntries(Object.entries(deps.uploadLimits ?? {}).filter(([, v]) => v !== undefined)),
+  };
   const screening = createScreeningService({ db });
   const jobs = deps.jobs ?? createInlineScreeningJobs(db, screening);
   const leasesChanged = (ids: string[]) => jobs.enqueueLeases(ids);
-  registerImportRoutes(ctx, db, createImportsService({ db, limits: uploadLimits, onLeasesChanged: leasesChanged }), uploadLimits.maxCompressedBytes);
+  registerImportRoutes(
+    ctx,
+    db,
+    createImportsService({ db, limits: uploadLimits, onLeasesChanged: leasesChanged }),
+    uploadLimits.maxCompressedBytes,
+  );
   registerSharingRoutes(ctx, createSharingService(db));
   registerLeaseRoutes(ctx, createLeasesService(db, { onLeasesChanged: leasesChanged }));
   const rivers = createRiversService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) });
@@ -207,18 +258,35 @@ export function createApp(deps: AppDeps): Express {
   registerOverviewRoutes(ctx, db, { basemapUrl: env.BASEMAP_URL ?? null, basemapAttribution: env.BASEMAP_ATTRIBUTION });
   registerClientRoutes(ctx, createClientsService({ db, mailer, appUrl: env.APP_URL }));
   registerScreeningRoutes(ctx, db, rivers, screening, createSweepService({ db, screening }));
-  registerMonitoringRoutes(ctx, createMonitoringService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) }));
+  registerMonitoringRoutes(
+    ctx,
+    createMonitoringService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) }),
+  );
   // Paid alerts plan: billing (its webhook reads the raw body, so it is mounted before the API router), gauges, alerts.
   const billing = createBillingService({
     db,
-    config: { apiUrl: env.PAYMENT_API_URL, secretKey: env.PAYMENT_SECRET_KEY, webhookSecret: env.PAYMENT_WEBHOOK_SECRET, priceLookupKey: env.PAYMENT_PRICE_LOOKUP_KEY, appUrl: env.APP_URL },
+    config: {
+      apiUrl: env.PAYMENT_API_URL,
+      secretKey: env.PAYMENT_SECRET_KEY,
+      webhookSecret: env.PAYMENT_WEBHOOK_SECRET,
+      priceLookupKey: env.PAYMENT_PRICE_LOOKUP_KEY,
+      appUrl: env.APP_URL,
+    },
   });
   mountBillingWebhook(app, ctx, billing);
   registerBillingRoutes(ctx, billing);
   const alertJobs = deps.alertJobs ?? createInlineAlertJobs(deps.db.pool);
   const gauges = createGaugesService({ db, jobs: alertJobs, feedUrl: env.GAUGE_FEED_URL });
   registerGaugeRoutes(ctx, gauges);
-  const alerts = createAlertsService({ db, pool: deps.db.pool, jobs: alertJobs, billing, sweeps: createSweepService({ db, screening }), mailer, appUrl: env.APP_URL });
+  const alerts = createAlertsService({
+    db,
+    pool: deps.db.pool,
+    jobs: alertJobs,
+    billing,
+    sweeps: createSweepService({ db, screening }),
+    mailer,
+    appUrl: env.APP_URL,
+  });
   registerAlertRoutes(ctx, alerts);
   /** Resolves once the alert workers are registered (index.ts and tests await it). */
   app.locals.alertsReady = alertJobs.attach({
@@ -234,9 +302,13 @@ export function createApp(deps: AppDeps): Express {
   router.get('/openapi.json', (_req, res) => {
     res.json(openApi);
   });
-  router.use((req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${API_BASE}${req.path}. See ${API_BASE}/openapi.json for the routes.`)));
+  router.use((req, _res, next) =>
+    next(new NotFoundError(`No API route ${req.method} ${API_BASE}${req.path}. See ${API_BASE}/openapi.json for the routes.`)),
+  );
   app.use(API_BASE, router);
-  app.use('/api', (req, _res, next) => next(new NotFoundError(`No API route ${req.method} /api${req.path}. The API lives under ${API_BASE}.`)));
+  app.use('/api', (req, _res, next) =>
+    next(new NotFoundError(`No API route ${req.method} /api${req.path}. The API lives under ${API_BASE}.`)),
+  );
 
   const dist = path.resolve(import.meta.dirname, '../dist');
   if (env.SERVE_CLIENT && existsSync(path.join(dist, 'index.html'))) {
