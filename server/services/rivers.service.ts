@@ -59,11 +59,17 @@ function toRiver(r: RiverRow): River {
   };
 }
 
-/** Rivers a user may read: their own and those of their jurisdiction. */
+/**
+ * Rivers a user may read: their own, those of their jurisdiction, those that screen one of their
+ * leases (issue #15: a river of any jurisdiction whose plume reaches the lease), and a grower's
+ * advisers' rivers (an accepted client link shares them).
+ */
 export function visibleRivers(user: CurrentUser, alias = 'r') {
   const a = sql.raw(alias);
   if (user.role === 'admin') return sql`false`;
-  return sql`(${a}.owner_id = ${user.id} OR (${a}.jurisdiction_id IS NOT NULL AND ${a}.jurisdiction_id = ${user.jurisdictionId}::uuid))`;
+  return sql`(${a}.owner_id = ${user.id} OR (${a}.jurisdiction_id IS NOT NULL AND ${a}.jurisdiction_id = ${user.jurisdictionId}::uuid)
+    OR EXISTS (SELECT 1 FROM screenings vs JOIN leases vl ON vl.id = vs.lease_id WHERE vs.river_id = ${a}.id AND vl.owner_id = ${user.id})
+    OR EXISTS (SELECT 1 FROM client_invitations vc WHERE vc.status = 'accepted' AND vc.adviser_id = ${a}.owner_id AND vc.grower_id = ${user.id}))`;
 }
 
 function ordinalAep(aep: number): string {

@@ -80,6 +80,27 @@ export async function leaseBandFractions(db: Database, footprintId: string, wher
   return new Map(fractions.rows.map((r) => [r.lease_id, r.fractions]));
 }
 
+/**
+ * Which leases a river screens (issue #15), as SQL over a lease alias:
+ * - leases of the river's jurisdiction and leases of the river's creator (as before), and
+ * - any lease its plume can reach (it meets a stored footprint band of the river) whose holder may use
+ *   the river: a river of any jurisdiction (shared by the authority), or a river created by an adviser the
+ *   holder has an accepted client link with. Another grower's private river (no jurisdiction) never pairs.
+ */
+function riverReachesLeaseSql(riverId: SQL, jurisdictionId: SQL, ownerId: SQL, alias: string): SQL {
+  const a = sql.raw(alias);
+  return sql`((${jurisdictionId} IS NOT NULL AND ${a}.jurisdiction_id = ${jurisdictionId})
+    OR ${a}.owner_id = ${ownerId}
+    OR ((${jurisdictionId} IS NOT NULL
+         OR EXISTS (SELECT 1 FROM client_invitations ci WHERE ci.status = 'accepted' AND ci.adviser_id = ${ownerId} AND ci.grower_id = ${a}.owner_id))
+        AND EXISTS (SELECT 1 FROM footprints rf JOIN footprint_band_pieces rp ON rp.footprint_id = rf.id
+                     WHERE rf.river_id = ${riverId} AND rp.band_id = 'plume-edge' AND ST_Intersects(rp.geom, ${a}.geom))))`;
+}
+
+function riverReachesLease(river: { id: string; jurisdictionId: string | null; ownerId: string | null }, alias: string): SQL {
+  return riverReachesLeaseSql(sql`${river.id}::uuid`, sql`${river.jurisdictionId}::uuid`, sql`${river.ownerId}::text`, alias);
+}
+
 export function createScreeningService(deps: { db: Database }) {
   const { db } = deps;
 
@@ -197,10 +218,9 @@ export function createScreeningService(deps: { db: Database }) {
     });
   }
 
-  /** Leases a river screens: those of its jurisdiction and those of its owner. */
+  /** Leases a river screens (see riverReachesLease): those of its jurisdiction, its owner's, and any it may reach. */
   function scopedLeases(river: RiverInputs, alias = 'l') {
-    const a = sql.raw(alias);
-    return sql`((${river.jurisdictionId}::uuid IS NOT NULL AND ${a}.jurisdiction_id = ${river.jurisdictionId}::uuid) OR ${a}.owner_id = ${river.ownerId})`;
+    return riverReachesLease({ id: river.id, jurisdictionId: river.jurisdictionId, ownerId: river.ownerId }, alias);
   }
 
   /** Screens every scoped lease under one scenario's footprint, replacing earlier rows. */
@@ -338,12 +358,16 @@ export function createScreeningService(deps: { db: Database }) {
     const scenarios = await db.execute<{ id: string; aep: number | null; discharge: number; duration_hours: number; name: string }>(sql`
       SELECT id, aep, discharge, duration_hours, name FROM scenarios WHERE river_id = ${riverId}::uuid ORDER BY discharge`);
     let screened = 0;
+    // Every footprint first: which leases the river reaches depends on its largest flood's footprint.
+    const built: { id: string; plume: PlumeResult }[] = [];
     for (const [i, s] of scenarios.rows.entries()) {
       await onProgress?.(i, scenarios.rows.length, `Building the plume for ${s.name}`);
-      const fp = await ensureFootprint(river, { scenarioId: s.id, discharge: s.discharge, durationHours: s.duration_hours });
+      built.push(await ensureFootprint(river, { scenarioId: s.id, discharge: s.discharge, durationHours: s.duration_hours }));
+    }
+    for (const [i, s] of scenarios.rows.entries()) {
       screened += await screenFootprint(
         river,
-        fp,
+        built[i],
         { id: s.id, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, name: s.name },
         leaseIds,
       );
@@ -353,14 +377,21 @@ export function createScreeningService(deps: { db: Database }) {
       sql`DELETE FROM footprints f WHERE f.river_id = ${riverId}::uuid AND f.scenario_id IS NULL AND f.created_at < now() - interval '1 day'`,
     );
     await annualise(river, leaseIds);
+    if (!leaseIds) {
+      // A lease the changed river no longer reaches loses that river's results.
+      await db.execute(sql`DELETE FROM screenings s USING leases l WHERE s.river_id = ${riverId}::uuid AND l.id = s.lease_id AND NOT ${scopedLeases(river)}`);
+      await db.execute(
+        sql`DELETE FROM lease_annual_exposure x USING leases l WHERE x.river_id = ${riverId}::uuid AND l.id = x.lease_id AND NOT ${scopedLeases(river)}`,
+      );
+    }
     await onProgress?.(scenarios.rows.length, scenarios.rows.length, 'Done');
     return { scenarios: scenarios.rows.length, screenings: screened };
   }
 
-  /** Rivers whose screenings a change to these leases affects. */
+  /** Rivers whose screenings a change to these leases affects: every river that pairs with one of them. */
   async function riversForLeases(leaseIds: string[]): Promise<string[]> {
     const res = await db.execute<{ id: string }>(sql`
-      SELECT DISTINCT r.id FROM rivers r JOIN leases l ON (r.jurisdiction_id IS NOT NULL AND r.jurisdiction_id = l.jurisdiction_id) OR r.owner_id = l.owner_id
+      SELECT DISTINCT r.id FROM rivers r JOIN leases l ON ${riverReachesLeaseSql(sql`r.id`, sql`r.jurisdiction_id`, sql`r.owner_id`, 'l')}
        WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)`);
     return res.rows.map((r) => r.id);
   }
