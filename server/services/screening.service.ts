@@ -19,6 +19,7 @@ import { salinityBandId, screeningBandSpecs, strictestSpecies } from '#shared/sc
 import { daysBelowTolerance, scoreLease } from '#shared/scoring/score-lease';
 import type { Database } from '../db/client';
 import { NotFoundError, UnprocessableError } from '../lib/errors';
+import { BUILTIN_COAST_CAUTION } from './builtin-coast.service';
 
 const RATING_ORDER = ['low', 'moderate', 'high', 'severe'] as const;
 const INDICATOR_STANDARD = 14;
@@ -33,6 +34,7 @@ interface RiverInputs {
   coastId: string;
   coastGeometry: Geometry;
   coastStamp: string;
+  coastSource: string;
 }
 
 export interface FlowSpec {
@@ -117,8 +119,8 @@ export function createScreeningService(deps: { db: Database }) {
       SELECT id, name, version, jurisdiction_id, owner_id, settings, coast_id FROM rivers WHERE id = ${riverId}::uuid`);
     const river = res.rows[0];
     if (!river) throw new NotFoundError('No river with this id.');
-    const coast = await db.execute<{ id: string; geometry: string; created_at: Date }>(sql`
-      SELECT id, ST_AsGeoJSON(geom) AS geometry, created_at FROM coasts
+    const coast = await db.execute<{ id: string; geometry: string; created_at: Date; source: string }>(sql`
+      SELECT id, ST_AsGeoJSON(geom) AS geometry, created_at, source FROM coasts
        WHERE (${river.coast_id}::uuid IS NOT NULL AND id = ${river.coast_id}::uuid)
           OR (${river.coast_id}::uuid IS NULL AND ((shared AND jurisdiction_id = ${river.jurisdiction_id}::uuid) OR owner_id = ${river.owner_id}))
        ORDER BY (id = ${river.coast_id}::uuid) DESC NULLS LAST, (form = 'line') DESC, shared DESC, created_at DESC LIMIT 1`);
@@ -137,6 +139,7 @@ export function createScreeningService(deps: { db: Database }) {
       coastId: coast.rows[0].id,
       coastGeometry: JSON.parse(coast.rows[0].geometry),
       coastStamp: `${coast.rows[0].id}@${new Date(coast.rows[0].created_at).toISOString()}`,
+      coastSource: coast.rows[0].source,
     };
   }
 
@@ -180,7 +183,7 @@ export function createScreeningService(deps: { db: Database }) {
       if (err instanceof RangeError || err instanceof TypeError) throw new UnprocessableError(`${river.name}: ${(err as Error).message}`);
       throw err;
     }
-    const warnings = [...plume.warnings, ...footprint.warnings];
+    const warnings = [...plume.warnings, ...footprint.warnings, ...(river.coastSource === 'builtin' ? [BUILTIN_COAST_CAUTION] : [])];
     return db.transaction(async (tx) => {
       const inserted = await tx.execute<{ id: string }>(sql`
         INSERT INTO footprints (river_id, scenario_id, discharge, duration_hours, model_version, input_hash, plume, warnings, path)
@@ -223,6 +226,21 @@ export function createScreeningService(deps: { db: Database }) {
     return riverReachesLease({ id: river.id, jurisdictionId: river.jurisdictionId, ownerId: river.ownerId }, alias);
   }
 
+  /** The same set as scopedLeases, found through the indexes (the footprint pieces first, then the leases they meet). */
+  async function pairedLeaseIds(river: RiverInputs, leaseIds?: string[]): Promise<string[]> {
+    const only = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
+    const res = await db.execute<{ id: string }>(sql`
+      SELECT l.id FROM leases l
+       WHERE ((${river.jurisdictionId}::uuid IS NOT NULL AND l.jurisdiction_id = ${river.jurisdictionId}::uuid) OR l.owner_id = ${river.ownerId}) ${only}
+      UNION
+      SELECT DISTINCT l.id FROM footprints f JOIN footprint_band_pieces p ON p.footprint_id = f.id AND p.band_id = 'plume-edge'
+        JOIN leases l ON ST_Intersects(p.geom, l.geom)
+       WHERE f.river_id = ${river.id}::uuid ${only}
+         AND (${river.jurisdictionId}::uuid IS NOT NULL
+              OR EXISTS (SELECT 1 FROM client_invitations ci WHERE ci.status = 'accepted' AND ci.adviser_id = ${river.ownerId} AND ci.grower_id = l.owner_id))`);
+    return res.rows.map((r) => r.id);
+  }
+
   /** Screens every scoped lease under one scenario's footprint, replacing earlier rows. */
   async function screenFootprint(
     river: RiverInputs,
@@ -231,13 +249,15 @@ export function createScreeningService(deps: { db: Database }) {
     leaseIds?: string[],
   ) {
     const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
-    const byLease = await leaseBandFractions(db, footprint.id, sql`${scopedLeases(river)} ${leaseFilter}`);
+    // leaseIds (the paired leases, from screenRiver) stand for the river's scope; without them the scope is computed here.
+    const scope = leaseIds ? sql`true` : scopedLeases(river);
+    const byLease = await leaseBandFractions(db, footprint.id, sql`${scope} ${leaseFilter}`);
     const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null }>(sql`
       SELECT l.id, l.species,
              ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * ST_Length(f.path::geography) AS s,
              ST_Distance(l.geom::geography, f.path::geography) AS x
         FROM leases l, footprints f
-       WHERE f.id = ${footprint.id}::uuid AND ${scopedLeases(river)} ${leaseFilter}`);
+       WHERE f.id = ${footprint.id}::uuid AND ${scope} ${leaseFilter}`);
     const { params } = plumeFor(river.settings, scenario);
     const days = scenario.durationHours / 24;
     const rows = leases.rows.map((l) => {
@@ -364,12 +384,13 @@ export function createScreeningService(deps: { db: Database }) {
       await onProgress?.(i, scenarios.rows.length, `Building the plume for ${s.name}`);
       built.push(await ensureFootprint(river, { scenarioId: s.id, discharge: s.discharge, durationHours: s.duration_hours }));
     }
+    const paired = await pairedLeaseIds(river, leaseIds);
     for (const [i, s] of scenarios.rows.entries()) {
       screened += await screenFootprint(
         river,
         built[i],
         { id: s.id, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, name: s.name },
-        leaseIds,
+        paired,
       );
     }
     // Scenarios deleted since: their screenings went with them (cascade); stale footprints of older versions are dropped.
@@ -379,10 +400,9 @@ export function createScreeningService(deps: { db: Database }) {
     await annualise(river, leaseIds);
     if (!leaseIds) {
       // A lease the changed river no longer reaches loses that river's results.
-      await db.execute(sql`DELETE FROM screenings s USING leases l WHERE s.river_id = ${riverId}::uuid AND l.id = s.lease_id AND NOT ${scopedLeases(river)}`);
-      await db.execute(
-        sql`DELETE FROM lease_annual_exposure x USING leases l WHERE x.river_id = ${riverId}::uuid AND l.id = x.lease_id AND NOT ${scopedLeases(river)}`,
-      );
+      const keep = sql`(SELECT jsonb_array_elements_text(${JSON.stringify(paired)}::jsonb)::uuid)`;
+      await db.execute(sql`DELETE FROM screenings WHERE river_id = ${riverId}::uuid AND lease_id NOT IN ${keep}`);
+      await db.execute(sql`DELETE FROM lease_annual_exposure WHERE river_id = ${riverId}::uuid AND lease_id NOT IN ${keep}`);
     }
     await onProgress?.(scenarios.rows.length, scenarios.rows.length, 'Done');
     return { scenarios: scenarios.rows.length, screenings: screened };
