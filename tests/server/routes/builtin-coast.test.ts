@@ -14,7 +14,7 @@ let t: TestApp;
 let grower: Awaited<ReturnType<typeof signIn>>['agent'];
 const MOUTH = { lon: -1.25, lat: 44.5 };
 /** A lease about 2 km north of the mouth and half a kilometre off the shore: to the right of a westward outflow. */
-export const LEASE_NEAR_MOUTH = {
+const LEASE_NEAR_MOUTH = {
   type: 'Polygon',
   coordinates: [
     [
