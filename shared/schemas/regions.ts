@@ -83,3 +83,16 @@ export const accountRegionSchema = z.strictObject({
   regionId: z.uuid({ error: 'regionId must be a region id (UUID) or null for none' }).nullable(),
 });
 export type AccountRegion = z.infer<typeof accountRegionSchema>;
+
+/** The first-run path on a grower's Overview: the steps to an answer and which are done. */
+export const firstRunSchema = z.object({
+  region: z.object({ id: z.string(), name: z.string() }).nullable(),
+  leases: z.number().int(),
+  /** Rivers the grower may use: their own, their region's, and those whose plume reaches their leases. */
+  rivers: z.number().int(),
+  /** Of those rivers, how many have a flow record (so flood scenarios). */
+  riversWithRecord: z.number().int(),
+  /** Leases with at least one rating. */
+  leasesRated: z.number().int(),
+});
+export type FirstRun = z.infer<typeof firstRunSchema>;
