@@ -10,6 +10,7 @@ import { readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import { sql } from 'drizzle-orm';
 import type { Geometry } from 'geojson';
+import { BUILTIN_COAST_ATTRIBUTION, BUILTIN_COAST_CAUTION } from '#shared/cautions';
 import { clipRingToBox } from '#shared/geometry/clip-ring-to-box';
 import type { PlanarPoint } from '#shared/geometry/overlay-rings';
 import type { Database } from '../db/client';
@@ -27,13 +28,7 @@ export const MOUTH_MAX_DISTANCE_M = 2000;
 export const UPLOADED_COAST_REACH_M = 50_000;
 
 export const BUILTIN_COAST_NAME = 'Built-in world coastline (© OpenStreetMap contributors, ODbL)';
-export const BUILTIN_COAST_ATTRIBUTION = 'Coast © OpenStreetMap contributors (ODbL 1.0), via the @geo-maps/earth-seas-10m package';
-/**
- * The accuracy stated wherever the built-in coast is used. The vertex spacing near coasts was
- * measured on windows of the package's data (see DEVELOPERS.md, 2026-12-02 "A coast for any place").
- */
-export const BUILTIN_COAST_CAUTION =
-  'This plume walks the built-in world coastline (OpenStreetMap data; its vertices lie about 0.4 to 1 km apart near coasts, a median of about 650 m), so its shore can be off by a few hundred metres: harbours, river mouths, marshes and small islands may be missing or cut straight. Upload or trace your own coast for a closer answer.';
+export { BUILTIN_COAST_ATTRIBUTION, BUILTIN_COAST_CAUTION };
 
 function windowAround(lon: number, lat: number): [number, number, number, number] {
   const halfLon = Math.min(3, WINDOW_HALF_LAT_DEG / Math.max(0.2, Math.cos((lat * Math.PI) / 180)));
