@@ -11,6 +11,7 @@ import { PageHeader } from '../../../components/ui/page-header';
 import { Empty, LoadError, Loading } from '../../../components/ui/states';
 import { fmtNumber } from '../../../lib/format';
 import { useMe } from '../../account/api/get-me';
+import { CoastChoice } from './coast-choice';
 import { riverKeys, updateRiver } from '../api/rivers-api';
 import { DesignFlowTable } from './design-flow-table';
 import { type DistributionId, FloodFrequencyChart } from './flood-frequency-chart';
@@ -144,6 +145,11 @@ function RiverView({ river }: { river: River }) {
         <Notice tone="info" title="On the built-in world coastline">
           <p>{BUILTIN_COAST_CAUTION}</p>
           <p className="mt-1 text-xs">{BUILTIN_COAST_ATTRIBUTION}</p>
+          {canEdit && (
+            <div className="mt-2">
+              <CoastChoice river={river} />
+            </div>
+          )}
         </Notice>
       )}
       {river.defaultsUsed.length > 0 && (
