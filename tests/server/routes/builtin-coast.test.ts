@@ -31,9 +31,10 @@ const riverCount = async () => (await t.db.pool.query('select count(*)::int as n
 
 beforeAll(async () => {
   t = await createTestApp();
-  await t.db.pool.query("delete from users where email = 'coastless@brackline.test'").catch(() => undefined);
-  await request(t.app).post('/api/v1/account/sign-up').send({ name: 'Coastless', email: 'coastless@brackline.test', password: 'coastless-pw-1' }).expect(201);
-  grower = (await signIn(t.app, 'coastless@brackline.test', 'coastless-pw-1')).agent;
+  // A new address per run: the file can run again on the same database.
+  const email = `coastless.${Date.now().toString(36)}@brackline.test`;
+  await request(t.app).post('/api/v1/account/sign-up').send({ name: 'Coastless', email, password: 'coastless-pw-1' }).expect(201);
+  grower = (await signIn(t.app, email, 'coastless-pw-1')).agent;
 }, 60_000);
 afterAll(async () => {
   await t.close();

@@ -20,10 +20,13 @@ let regionRiverIds: string[];
 let inPlumeLease: { type: 'MultiPolygon'; coordinates: number[][][][] };
 const demo = (file: string) => readFileSync(path.resolve(import.meta.dirname, '../../../demo-data', file));
 
-async function newGrower(email: string, regionId?: string | null): Promise<Agent> {
+const RUN = Date.now().toString(36);
+async function newGrower(name: string, regionId?: string | null): Promise<Agent> {
+  // A new address per run: the file can run again on the same database.
+  const email = name.replace('@', `.${RUN}@`);
   await request(t.app)
     .post('/api/v1/account/sign-up')
-    .send({ name: email.split('@')[0], email, password: 'new-grower-pw-1', ...(regionId !== undefined ? { regionId } : {}) })
+    .send({ name: name.split('@')[0], email, password: 'new-grower-pw-1', ...(regionId !== undefined ? { regionId } : {}) })
     .expect(201);
   return (await signIn(t.app, email, 'new-grower-pw-1')).agent;
 }
@@ -54,15 +57,24 @@ beforeAll(async () => {
     demoJurisdictionId,
   ]);
   regionRiverIds = rivers.rows.map((r: { id: string }) => r.id).sort();
-  // A demo lease every region river's largest flood reaches: the new growers' leases sit on it.
-  const lease = await t.db.pool.query(
-    `select ST_AsGeoJSON(l.geom) as g from leases l
-      where l.lease_code like 'FB-%' and (select count(distinct x.river_id) from screenings x
-              where x.lease_id = l.id and (x.band_fractions->>'plume-edge')::float > 0) = $1
-      order by l.lease_code limit 1`,
-    [regionRiverIds.length],
+  // A small square every region river's largest flood reaches (from the stored footprints, which other test
+  // files leave alone even when they empty the leases table): the new growers' leases sit on it.
+  let reach: string | null = null;
+  for (const riverId of regionRiverIds) {
+    const band = await t.db.pool.query(
+      `select ST_AsText(ST_Union(b.geom)) as g from footprint_bands b
+        where b.band_id = 'plume-edge' and b.footprint_id = (select f.id from footprints f where f.river_id = $1 and f.scenario_id is not null order by f.discharge desc limit 1)`,
+      [riverId],
+    );
+    reach = reach === null ? band.rows[0].g : (await t.db.pool.query('select ST_AsText(ST_Intersection(ST_GeomFromText($1), ST_GeomFromText($2))) as g', [reach, band.rows[0].g])).rows[0].g;
+  }
+  // …and inside the region's area (the seeded box of the demo leases).
+  reach = (await t.db.pool.query('select ST_AsText(ST_Intersection(ST_GeomFromText($1, 4326), area)) as g from jurisdictions where id = $2', [reach, demoJurisdictionId])).rows[0].g;
+  const square = await t.db.pool.query(
+    `select ST_AsGeoJSON(ST_Multi(ST_Envelope(ST_Buffer(ST_PointOnSurface(ST_GeomFromText($1, 4326))::geography, 60)::geometry)), 7) as g`,
+    [reach],
   );
-  inPlumeLease = JSON.parse(lease.rows[0].g);
+  inPlumeLease = JSON.parse(square.rows[0].g);
 }, 180_000);
 afterAll(async () => {
   await t.db.db.execute(sql`DELETE FROM jurisdictions WHERE slug = 'test-neighbour'`);
@@ -90,6 +102,26 @@ describe('regions', () => {
     // The region's rivers are now the grower's to read.
     const rivers = await grower.get('/api/v1/rivers').expect(200);
     expect(rivers.body.items.map((r: { id: string }) => r.id)).toEqual(expect.arrayContaining(regionRiverIds));
+  });
+
+  it("a lease outside every region's area is still screened by the region's rivers whose plume reaches it", async () => {
+    const saved = await t.db.pool.query('select ST_AsText(area) as a from jurisdictions where id = $1', [demoJurisdictionId]);
+    await t.db.pool.query('update jurisdictions set area = null where id = $1', [demoJurisdictionId]);
+    try {
+      const grower = await newGrower('no-area@brackline.test');
+      const leaseId = await uploadLeases(grower, 'NOAREA-1', inPlumeLease);
+      const lease = await t.db.pool.query('select jurisdiction_id from leases where id = $1', [leaseId]);
+      expect(lease.rows[0].jurisdiction_id).toBeNull(); // no region claims it…
+      expect(await screenedRivers(leaseId)).toEqual(regionRiverIds); // …yet every river that reaches it screens it
+      expect((await grower.get('/api/v1/account/me')).body.jurisdictionId).toBeNull();
+      // The first-run path: leases, rivers and records are there, and ratings too.
+      const steps = await grower.get('/api/v1/overview/first-run').expect(200);
+      expect(steps.body).toMatchObject({ region: null, leases: 1, leasesRated: 1 });
+      expect(steps.body.rivers).toBeGreaterThanOrEqual(regionRiverIds.length);
+      expect(steps.body.riversWithRecord).toBeGreaterThanOrEqual(regionRiverIds.length);
+    } finally {
+      await t.db.pool.query('update jurisdictions set area = ST_GeomFromText($2, 4326) where id = $1', [demoJurisdictionId, saved.rows[0].a]);
+    }
   });
 
   it("a lease is not screened against another grower's private river", async () => {
@@ -142,6 +174,10 @@ describe('regions', () => {
 
   it('a grower picks a region at sign-up or later, or none', async () => {
     const picked = await newGrower('picker@brackline.test', demoJurisdictionId);
+    const steps = await picked.get('/api/v1/overview/first-run').expect(200);
+    expect(steps.body.region.id).toBe(demoJurisdictionId);
+    expect(steps.body).toMatchObject({ leases: 0, leasesRated: 0 });
+    expect(steps.body.rivers).toBeGreaterThanOrEqual(regionRiverIds.length); // the region's rivers count as the river step
     expect((await picked.get('/api/v1/account/me')).body.jurisdictionId).toBe(demoJurisdictionId);
     await picked.put('/api/v1/account/region').send({ regionId: null }).expect(200);
     expect((await picked.get('/api/v1/account/me')).body.jurisdictionId).toBeNull();
@@ -149,7 +185,7 @@ describe('regions', () => {
     expect((await picked.get('/api/v1/account/me')).body.jurisdictionId).toBe(demoJurisdictionId);
     const bad = await request(t.app)
       .post('/api/v1/account/sign-up')
-      .send({ name: 'x', email: 'badregion@brackline.test', password: 'new-grower-pw-1', regionId: '00000000-0000-4000-8000-000000000000' })
+      .send({ name: 'x', email: `badregion.${RUN}@brackline.test`, password: 'new-grower-pw-1', regionId: '00000000-0000-4000-8000-000000000000' })
       .expect(400);
     expect(bad.body.error.message).toMatch(/regionId: no region has this id/);
     await regulator.put('/api/v1/account/region').send({ regionId: null }).expect(403);
