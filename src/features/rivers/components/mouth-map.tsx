@@ -17,18 +17,9 @@ import { fromLonLat, toLonLat } from 'ol/proj';
 import VectorSource from 'ol/source/Vector';
 import { Circle, Fill, RegularShape, Stroke, Style } from 'ol/style';
 import { useEffect, useRef } from 'react';
+import { initialBearingDeg } from '#shared/geometry/bearing';
 
 const geojson = new GeoJSON({ dataProjection: 'EPSG:4326', featureProjection: 'EPSG:3857' });
-
-/** Initial bearing (degrees clockwise from north) from a to b on the sphere; common practice (great-circle formula). */
-export function bearingDeg(a: [number, number], b: [number, number]): number {
-  const rad = Math.PI / 180;
-  const [lon1, lat1] = [a[0] * rad, a[1] * rad];
-  const [lon2, lat2] = [b[0] * rad, b[1] * rad];
-  const y = Math.sin(lon2 - lon1) * Math.cos(lat2);
-  const x = Math.cos(lat1) * Math.sin(lat2) - Math.sin(lat1) * Math.cos(lat2) * Math.cos(lon2 - lon1);
-  return ((Math.atan2(y, x) / rad) % 360 + 360) % 360;
-}
 
 export interface MouthMapProps {
   /** Where to look (the "Go to" place), at bay scale. */
@@ -95,7 +86,7 @@ export default function MouthMap({ centre, coasts, mouth, azimuthDeg, placing, o
       handleUpEvent: (e) => {
         if (start) {
           const moved = Math.hypot(e.coordinate[0] - start[0], e.coordinate[1] - start[1]) / (map.getView().getResolution() ?? 1);
-          if (moved > 8) props.current.onAzimuth(Math.round(bearingDeg(toLonLat(start) as [number, number], toLonLat(e.coordinate) as [number, number])));
+          if (moved > 8) props.current.onAzimuth(Math.round(initialBearingDeg(toLonLat(start) as [number, number], toLonLat(e.coordinate) as [number, number])));
         }
         start = null;
         props.current.onPlacingDone();
