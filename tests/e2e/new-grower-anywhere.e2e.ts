@@ -76,7 +76,9 @@ describe('a new grower anywhere gets an answer', () => {
     await page.mouse.move(cx, cy);
     await page.mouse.down();
     await page.waitForSelector('[data-mouth="placed"]');
-    // The page may scroll a little as the form fills in below: drag relative to where the map is now.
+    // The server's check of the placed mouth (its caution) arrives while the button is held; then drag
+    // relative to where the map is now.
+    await form.getByText(/vertices lie about 0\.4 to 1 km apart/).waitFor();
     const now = (await map.boundingBox())!;
     const y = now.y + now.height / 2;
     const x = now.x + now.width / 2;
@@ -95,7 +97,6 @@ describe('a new grower anywhere gets an answer', () => {
     await form.getByLabel('Mouth width (m)').fill('40');
     await form.getByLabel('Mouth depth (m)').fill('2.5');
     await preview.getByText(/bulge about [\d.]+ km offshore/).waitFor();
-    await form.getByText(/vertices lie about 0\.4 to 1 km apart/).waitFor();
     await screenshot(page, 'anywhere-2-river-on-the-map');
     await form.getByRole('button', { name: 'Create river' }).click();
 

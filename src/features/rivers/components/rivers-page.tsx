@@ -93,7 +93,14 @@ function NewRiverForm() {
     if (goTo.lat !== '' && goTo.lon !== '' && Math.abs(lat) <= 85 && Math.abs(lon) <= 180) setCentre([lon, lat]);
   };
   return (
-    <form className="space-y-3 rounded-lg border border-sand-200 bg-white p-4" noValidate onSubmit={form.handleSubmit((b) => create.mutate(b))} aria-label="Set up a river">
+    <form
+      className="space-y-3 rounded-lg border border-sand-200 bg-white p-4"
+      // The check of a placed mouth appears while the user may still be dragging the arrow: the page must not scroll under the pointer.
+      style={{ overflowAnchor: 'none' }}
+      noValidate
+      onSubmit={form.handleSubmit((b) => create.mutate(b))}
+      aria-label="Set up a river"
+    >
       <h2 className="font-semibold text-deep-900">Set up a river</h2>
       <p className="text-sm text-shell-700">
         The mouth is all you need to start: place it on the map (or type it). Water properties, mixing and die-off begin at documented regional defaults, marked on the river’s page until you set them.
