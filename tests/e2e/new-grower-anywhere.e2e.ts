@@ -128,6 +128,25 @@ describe('a new grower anywhere gets an answer', () => {
     expect(await row.textContent()).toContain('Dune Water');
     expect(await page.getByRole('list', { name: 'Steps to an answer' }).count()).toBe(0);
     await screenshot(page, 'anywhere-3-ratings');
+
+    // The built-in coast can be replaced by one traced on the map.
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Rivers' }).click();
+    await page.getByRole('heading', { name: 'Rivers', exact: true, level: 1 }).waitFor();
+    await page.getByRole('link', { name: 'Dune Water' }).click();
+    await page.getByRole('heading', { name: 'Dune Water', level: 1 }).waitFor();
+    await page.getByText('On the built-in world coastline').waitFor();
+    await page.getByRole('button', { name: 'Trace the coast on the map' }).click();
+    const trace = page.getByRole('application', { name: /Map for tracing the coast/ });
+    await trace.waitFor();
+    const t = (await trace.boundingBox())!;
+    const tx = t.x + t.width / 2;
+    await page.mouse.click(tx, t.y + 30);
+    await page.mouse.click(tx - 2, t.y + t.height / 2);
+    await page.mouse.dblclick(tx - 4, t.y + t.height - 30);
+    await page.waitForSelector('[data-traced="yes"]');
+    await page.getByRole('button', { name: 'Save the traced coast and use it' }).click();
+    // The river now walks the traced coast (its leases are screened again), so the built-in notice goes.
+    await page.getByText('On the built-in world coastline').waitFor({ state: 'detached', timeout: 120_000 });
     expect(errors).toEqual([]);
   }, 300_000);
 });

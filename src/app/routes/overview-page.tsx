@@ -69,7 +69,8 @@ function chanceWords(p: number): string {
 }
 
 function LeasesByRating() {
-  const annual = useQuery(exposureKeys.annual());
+  // Leases uploaded or rivers screened since the last visit change this list: read it again on every visit.
+  const annual = useQuery({ ...exposureKeys.annual(), refetchOnMount: 'always' });
   if (annual.isPending) return <Loading what="Loading your leases’ ratings…" />;
   if (annual.isError) return <LoadError error={annual.error} retry={() => annual.refetch()} />;
   const rows = summarise(annual.data.items);
@@ -124,7 +125,7 @@ function LeasesByRating() {
 
 /** A new grower's steps to an answer, each ticked when done; hidden once every step is done. */
 function FirstRunPath() {
-  const q = useQuery(regionKeys.firstRun());
+  const q = useQuery({ ...regionKeys.firstRun(), refetchOnMount: 'always' });
   if (q.isPending) return <Loading what="Checking your first steps…" />;
   if (q.isError) return <LoadError error={q.error} retry={() => q.refetch()} />;
   const d = q.data;
