@@ -18,6 +18,7 @@ import { findEmptyAfterRepair, flagOnLand, insertImportFeatures, type StagedFeat
 import type { CurrentUser } from '../http/route';
 import { AppError, ConflictError, ForbiddenError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors';
 import { recordAudit } from './audit.service';
+import { assignLeasesToRegions } from './regions.service';
 
 /** Who may upload what: growers and advisers their leases; regulators zones; all three coastlines. */
 export const UPLOAD_ROLES: Record<UploadKind, readonly string[]> = {
@@ -266,6 +267,8 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
             created++;
           }
         }
+        // A lease inside a region's area belongs to that region (and brings a grower of no region into it).
+        await assignLeasesToRegions(tx, user, ids);
       } else if (row.kind === 'zone') {
         if (!user.jurisdictionId) throw new ValidationError('Your account has no jurisdiction, so closure zones cannot be saved. Ask an administrator to set it.');
         for (const f of features) {
