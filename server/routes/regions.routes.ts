@@ -14,6 +14,8 @@ export function registerRegionRoutes(ctx: RouteContext, regions: RegionsService)
     summary: 'Regions a grower may join (jurisdictions with their area as GeoJSON, null when not set); no sign-in needed',
     tags: ['regions'],
     access: { public: true },
+    // No parameters: an unknown one is refused (400) rather than silently ignored.
+    query: z.strictObject({}),
     response: regionListSchema,
     handler: async () => ({ items: await regions.list() }),
   });
