@@ -145,7 +145,7 @@ writeGeoJson(out('leases', 'fennick-leases.geojson'), 'fennick-leases', leaseFea
 // ---------------------------------------------------------------- zones
 const zones = buildZones(landRingsLocal);
 const zoneFeatures: Feature<Polygon>[] = zones.map(({ spec, ring }) => {
-  const trigger = roundSignificant(riverSummaries[spec.RIVER].gev50, 2);
+  const trigger = floorSignificant(riverSummaries[spec.RIVER].gev50, 2);
   return polygon([ring.map(toLonLat)], {
     ZONE_NAME: spec.ZONE_NAME,
     RIVER: spec.RIVER,
@@ -265,7 +265,8 @@ for (const s of placedStations) log(`  ${s.STATION_ID} ${s.river.padEnd(14)} s $
 const shoreLength = coast.mainland.reduce((sum, p, i, a) => (i ? sum + Math.hypot(p[0] - a[i - 1][0], p[1] - a[i - 1][1]) : 0), 0);
 log(`mainland shoreline: ${(shoreLength / 1000).toFixed(1)} km`);
 
-/** @private Rounds to n significant figures. */
-function roundSignificant(v: number, n: number): number {
-  return Number(v.toPrecision(n));
+/** @private Rounds down to n significant figures (a plan trigger a little under the 2-year flood). */
+function floorSignificant(v: number, n: number): number {
+  const step = 10 ** (Math.floor(Math.log10(v)) - n + 1);
+  return Math.floor(v / step) * step;
 }
