@@ -118,7 +118,10 @@ export const outsideSampleSchema = z.object({
 });
 
 export const calibratedValuesSchema = z.object({
-  mixingLength: z.number(),
+  /** Entrainment coefficient E (model 2 on). */
+  entrainmentCoefficient: z.number().optional(),
+  /** Fixed alongshore mixing length, m (calibrations saved by model 1 only). */
+  mixingLength: z.number().optional(),
   t90Hours: z.number(),
   alongshoreShare: z.number(),
   nearFieldFreshwaterFraction: z.number(),
