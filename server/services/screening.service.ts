@@ -11,7 +11,7 @@ import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared
 import { buildFootprint } from '#shared/geometry/build-footprint';
 import type { PlumeResult } from '#shared/physics/compute-plume';
 import { type ExposureParameters, type fieldAt, worstField } from '#shared/physics/exposure-field';
-import { type CoastFrame, coastFrame, coastPosition, outlinePoints } from '#shared/geometry/coast-position';
+import { type CoastFrame, coastPosition, outlinePoints } from '#shared/geometry/coast-position';
 import { MODEL_VERSION } from '#shared/physics/model-version';
 import { riverPlume } from '#shared/physics/river-plume';
 import type { RiverSettings } from '#shared/schemas/river';
@@ -20,6 +20,7 @@ import { salinityBandId, screeningBandSpecs, strictestSpecies } from '#shared/sc
 import { daysBelowTolerance, scoreLease } from '#shared/scoring/score-lease';
 import type { Database } from '../db/client';
 import { NotFoundError, UnprocessableError } from '../lib/errors';
+import { footprintCoastFrame } from './coast-positions';
 
 const RATING_ORDER = ['low', 'moderate', 'high', 'severe'] as const;
 const INDICATOR_STANDARD = 14;
@@ -245,18 +246,6 @@ export function createScreeningService(deps: { db: Database }) {
     return sql`((${river.jurisdictionId}::uuid IS NOT NULL AND ${a}.jurisdiction_id = ${river.jurisdictionId}::uuid) OR ${a}.owner_id = ${river.ownerId})`;
   }
 
-  /** The plume's coordinate frame on the footprint's walked coast. */
-  async function footprintFrame(river: RiverInputs, footprint: { id: string; plume: PlumeResult }): Promise<CoastFrame | null> {
-    const res = await db.execute<{ path: string | null }>(sql`SELECT ST_AsGeoJSON(path, 7) AS path FROM footprints WHERE id = ${footprint.id}::uuid`);
-    const path = res.rows[0]?.path ? (JSON.parse(res.rows[0].path) as { type: string; coordinates: Position[] }) : null;
-    if (path?.type !== 'LineString' || !path.coordinates.length) return null;
-    const radial = footprint.plume.turnsTo === 'none' || footprint.plume.regime === 'equatorial-jet';
-    return coastFrame(path.coordinates, river.settings.outflowAzimuthDeg, radial ? 'none' : footprint.plume.turnsTo, [
-      river.settings.mouthLongitude,
-      river.settings.mouthLatitude,
-    ]);
-  }
-
   /** Screens every scoped lease under one scenario's footprint, replacing earlier rows. */
   async function screenFootprint(
     river: RiverInputs,
@@ -284,7 +273,7 @@ export function createScreeningService(deps: { db: Database }) {
         SELECT l.id, ST_AsGeoJSON(l.geom, 7) AS geometry FROM leases l
          WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(inPlumeIds)}::jsonb)::uuid)`);
       for (const g of geo.rows) outlines.set(g.id, polygonRings(JSON.parse(g.geometry)));
-      frame = await footprintFrame(river, footprint);
+      frame = await footprintCoastFrame(db, footprint.id, river.settings);
     }
     const rows = leases.rows.map((l) => {
       const fractionsOfLease = byLease.get(l.id) ?? {};

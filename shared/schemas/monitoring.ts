@@ -91,7 +91,7 @@ export const comparisonPointSchema = z.object({
   stationName: z.string().nullable(),
   sampledAt: z.string(),
   flow: z.number().describe('River flow on the date (m³/s): the largest daily flow over the lag window'),
-  along: z.number().describe('Alongshore distance downcoast from the mouth, m'),
+  along: z.number().describe('Signed alongshore distance from the mouth, m: positive down-coast (the way the coastal current turns), negative up-coast'),
   offshore: z.number().describe('Distance from the walked coast, m'),
   distanceFromMouth: z.number().describe('Straight-line distance from the mouth, m'),
   observedSalinity: z.number().nullable(),
