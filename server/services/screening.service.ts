@@ -6,11 +6,12 @@
  */
 import { createHash } from 'node:crypto';
 import { type SQL, sql } from 'drizzle-orm';
-import type { Geometry } from 'geojson';
+import type { Geometry, Position } from 'geojson';
 import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared/biology/species-tolerance';
 import { buildFootprint } from '#shared/geometry/build-footprint';
 import type { PlumeResult } from '#shared/physics/compute-plume';
-import { type ExposureParameters, fieldAt } from '#shared/physics/exposure-field';
+import { type ExposureParameters, type fieldAt, worstField } from '#shared/physics/exposure-field';
+import { type CoastFrame, coastPosition, outlinePoints } from '#shared/geometry/coast-position';
 import { MODEL_VERSION } from '#shared/physics/model-version';
 import { riverPlume } from '#shared/physics/river-plume';
 import type { RiverSettings } from '#shared/schemas/river';
@@ -19,6 +20,7 @@ import { salinityBandId, screeningBandSpecs, strictestSpecies } from '#shared/sc
 import { daysBelowTolerance, scoreLease } from '#shared/scoring/score-lease';
 import type { Database } from '../db/client';
 import { NotFoundError, UnprocessableError } from '../lib/errors';
+import { footprintCoastFrame } from './coast-positions';
 
 const RATING_ORDER = ['low', 'moderate', 'high', 'severe'] as const;
 const INDICATOR_STANDARD = 14;
@@ -44,6 +46,47 @@ export interface FlowSpec {
 /** The water and plume inputs of the engine for a river at one flow (shared with the browser's previews). */
 export function plumeFor(settings: RiverSettings, flow: { discharge: number; durationHours: number }): { plume: PlumeResult; params: ExposureParameters } {
   return riverPlume(settings, flow);
+}
+
+/** Outer and inner rings of a Polygon or MultiPolygon. */
+export function polygonRings(geometry: { type: string; coordinates: unknown }): Position[][] {
+  if (geometry.type === 'Polygon') return geometry.coordinates as Position[][];
+  if (geometry.type === 'MultiPolygon') return (geometry.coordinates as Position[][][]).flat();
+  return [];
+}
+
+/** Spacing of the points a lease outline is judged at [m], (c): a tenth of a 300 m lease. */
+const OUTLINE_SPACING = 30;
+
+/**
+ * A lease's worst point in a plume: the field over its outline (every 30 m) and centroid, in the
+ * plume's signed coordinates. `hint` is the arc of the lease's nearest point to the walked coast.
+ */
+export function leaseWorstPoint(
+  frame: CoastFrame,
+  rings: Position[][],
+  plume: PlumeResult,
+  params: ExposureParameters,
+  hint: number | null,
+): { field: ReturnType<typeof fieldAt>; at: { s: number; x: number } } | null {
+  const pts = outlinePoints(rings, frame, OUTLINE_SPACING);
+  if (!pts.length) return null;
+  // The lease's own size (bounding-box diagonal) bounds how far along the coast its points lie from its nearest one.
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (const p of pts) {
+    const q = frame.projection.forward(p);
+    minX = Math.min(minX, q[0]);
+    minY = Math.min(minY, q[1]);
+    maxX = Math.max(maxX, q[0]);
+    maxY = Math.max(maxY, q[1]);
+  }
+  const span = Math.hypot(maxX - minX, maxY - minY);
+  const window = hint === null ? undefined : { s: Math.max(0, hint), window: 2 * span + 2000 };
+  const positions = pts.map((p) => coastPosition(frame, p, window));
+  return worstField(plume, params, positions);
 }
 
 function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
@@ -220,13 +263,29 @@ export function createScreeningService(deps: { db: Database }) {
        WHERE f.id = ${footprint.id}::uuid AND ${scopedLeases(river)} ${leaseFilter}`);
     const { params } = plumeFor(river.settings, scenario);
     const days = scenario.durationHours / 24;
+    // Each lease in the plume is judged at its own worst point: its outline and centroid placed in
+    // the plume's signed coordinates (up-coast of the mouth in the bulge's own frame).
+    const inPlumeIds = leases.rows.filter((l) => (byLease.get(l.id)?.['plume-edge'] ?? 0) > 0).map((l) => l.id);
+    const outlines = new Map<string, Position[][]>();
+    let frame: CoastFrame | null = null;
+    if (inPlumeIds.length) {
+      const geo = await db.execute<{ id: string; geometry: string }>(sql`
+        SELECT l.id, ST_AsGeoJSON(l.geom, 7) AS geometry FROM leases l
+         WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(inPlumeIds)}::jsonb)::uuid)`);
+      for (const g of geo.rows) outlines.set(g.id, polygonRings(JSON.parse(g.geometry)));
+      frame = await footprintCoastFrame(db, footprint.id, river.settings);
+    }
     const rows = leases.rows.map((l) => {
       const fractionsOfLease = byLease.get(l.id) ?? {};
       const { tolerance, known } = speciesOf(l.species);
       const inPlume = (fractionsOfLease['plume-edge'] ?? 0) > 0;
-      const field = inPlume && l.s !== null && l.x !== null ? fieldAt(footprint.plume, params, Math.max(0, l.s), Math.max(0, l.x)) : null;
-      // The field at the lease's nearest point to the coast walked, made consistent with the
-      // band polygons it touches (the bands also hold the bulge, which the path distance misses).
+      const worst = inPlume && frame && outlines.has(l.id) ? leaseWorstPoint(frame, outlines.get(l.id) as Position[][], footprint.plume, params, l.s) : null;
+      const field = worst ? worst.field : null;
+      if (worst) {
+        l.s = worst.at.s;
+        l.x = worst.at.x;
+      }
+      // The field at the lease's worst point, made consistent with the band polygons it touches.
       const inSpeciesBand = (fractionsOfLease[salinityBandId(tolerance.chronicLowerSalinity)] ?? 0) > 0;
       const inIndicatorBand = (fractionsOfLease['indicator-over-standard'] ?? 0) > 0;
       let lowestSalinity = field ? field.salinity : river.settings.seaSalinity;
