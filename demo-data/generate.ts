@@ -84,7 +84,7 @@ const riversJson = RIVER_TABLE.map((r) => {
     t90NightHours: r.t90NightHours,
     daylightFraction: r.daylightFraction,
     alongshoreShare: r.alongshoreShare,
-    mixingLengthM: r.mixingLengthM,
+    entrainmentCoefficient: r.entrainmentCoefficient,
     nearFieldFreshwaterFraction: r.nearFieldFreshwaterFraction,
     gauge: r.gauge,
     flowRecordFile: r.flowRecordFile,

@@ -175,7 +175,7 @@ export function knownSettings(river: RiverSpec, mouthLatitude: number): Calibrat
     mouthDepth: river.mouthDepthM,
     shelfSlope: river.shelfSlope,
     alongshoreShare: river.alongshoreShare,
-    mixingLength: river.mixingLengthM,
+    entrainmentCoefficient: river.entrainmentCoefficient,
     t90DayHours: river.t90DayHours,
     t90NightHours: river.t90NightHours,
     daylightFraction: river.daylightFraction,

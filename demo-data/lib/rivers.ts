@@ -32,7 +32,8 @@ export interface RiverSpec {
   t90NightHours: number;
   daylightFraction: number;
   alongshoreShare: number;
-  mixingLengthM: number;
+  /** E, the entrainment coefficient of the coastal current (sets the dilution length L_e = (2/3)·H0/(φ0·E), science.md §1.11). */
+  entrainmentCoefficient: number;
   /** φ0, the share of river water in the water leaving the near field (the samples are made with it). */
   nearFieldFreshwaterFraction: number;
   gauge: { name: string; code: string };
@@ -60,13 +61,14 @@ export const RIVER_TABLE: readonly RiverSpec[] = [
     seaSalinity: 33.5,
     seaTemperature: 12,
     shelfSlope: 0.004,
-    // 6 × Q^1.2: ~330 per 100 mL at a 30 m³/s base flow, ~9 500 at 480 m³/s, ~26 000 at 1 100 m³/s.
+    // 6 × Q^1.2: ~350 per 100 mL at a 30 m³/s base flow, ~9 000 at 480 m³/s, ~26 000 at 1 100 m³/s.
     indicator: { kind: 'power-law', coefficient: 6, exponent: 1.2 },
-    t90DayHours: 8,
-    t90NightHours: 40,
+    // A turbid flood plume in daylight loses its E. coli in a few hours, in the dark in a day or so (science.md §5.2).
+    t90DayHours: 2,
+    t90NightHours: 24,
     daylightFraction: 0.5,
     alongshoreShare: 0.6,
-    mixingLengthM: 25_000,
+    entrainmentCoefficient: 2.5e-5,
     nearFieldFreshwaterFraction: 0.5,
     gauge: { name: 'Amberlin River at Hollin Ford', code: 'FCSA-G01' },
     flowRecordFile: 'flows/amberlin-river-daily.csv',
@@ -109,13 +111,13 @@ export const RIVER_TABLE: readonly RiverSpec[] = [
     seaSalinity: 33.5,
     seaTemperature: 12,
     shelfSlope: 0.006,
-    // 70 × Q^1.2: ~280 per 100 mL at a 3 m³/s base flow, ~9 500 at 60 m³/s, ~28 000 at 150 m³/s.
-    indicator: { kind: 'power-law', coefficient: 70, exponent: 1.2 },
-    t90DayHours: 8,
-    t90NightHours: 40,
+    // 50 × Q^1.2: ~190 per 100 mL at a 3 m³/s base flow, ~6 400 at 57 m³/s, ~20 000 at 150 m³/s.
+    indicator: { kind: 'power-law', coefficient: 50, exponent: 1.2 },
+    t90DayHours: 2,
+    t90NightHours: 24,
     daylightFraction: 0.5,
     alongshoreShare: 0.6,
-    mixingLengthM: 12_000,
+    entrainmentCoefficient: 4e-5,
     nearFieldFreshwaterFraction: 0.5,
     gauge: { name: 'Tolley Brook at Wenlow Weir', code: 'FCSA-G02' },
     flowRecordFile: 'flows/tolley-brook-daily.csv',

@@ -154,8 +154,8 @@ describe('calibration of the demo rivers', () => {
       const truth = known.find((k) => k.name === r.name)!;
       const fit = await regulator.post(`/api/v1/rivers/${r.id}/calibrations`).send({}).expect(201);
       const t90 = effectiveT90Hours({ t90DayHours: truth.t90DayHours, t90NightHours: truth.t90NightHours, daylightFraction: truth.daylightFraction });
-      console.log(`${r.name}: fitted ${JSON.stringify(fit.body.fitted)} from ${fit.body.samples} samples; known L ${truth.mixingLengthM}, T90 ${t90}`);
-      expect(Math.abs(fit.body.fitted.mixingLength / truth.mixingLengthM - 1), `${r.name} mixing length`).toBeLessThan(0.1);
+      console.log(`${r.name}: fitted ${JSON.stringify(fit.body.fitted)} from ${fit.body.samples} samples; known E ${truth.entrainmentCoefficient}, T90 ${t90}`);
+      expect(Math.abs(fit.body.fitted.entrainmentCoefficient / truth.entrainmentCoefficient - 1), `${r.name} entrainment coefficient`).toBeLessThan(0.1);
       expect(Math.abs(fit.body.fitted.t90Hours / t90 - 1), `${r.name} T90`).toBeLessThan(0.1);
     }
   }, 300_000);
