@@ -177,8 +177,9 @@ describe('offshoreDistanceWhere', () => {
   it('indicator and presence thresholds are met at the returned distance', () => {
     // (c) derived: analytic inversion
     const s = 30000;
-    const xi = offshoreDistanceWhere(PLUME, PARAMS, s, { indicatorAbove: 100 });
-    expectRelative(fieldAt(PLUME, PARAMS, s, xi).indicator, 100, 1e-9);
+    const xi = offshoreDistanceWhere(PLUME, PARAMS, s, { indicatorAbove: 10 });
+    expect(xi).toBeGreaterThan(0);
+    expectRelative(fieldAt(PLUME, PARAMS, s, xi).indicator, 10, 1e-9);
     const xp = offshoreDistanceWhere(PLUME, PARAMS, s, { presenceAbove: 0.2 });
     expectWithin(fieldAt(PLUME, PARAMS, s, xp).freshwaterFraction, 0.2, 1e-12);
     // bulge lobe: on each ray from the mouth the field equals the threshold at D(θ)
