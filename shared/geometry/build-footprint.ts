@@ -118,7 +118,7 @@ export interface BandProperties {
   readonly threshold: FieldThreshold;
   /** Widest offshore distance of the band from the coast [m] (the field's value, before clipping). */
   readonly maxOffshoreM: number;
-  /** Arc length along the coast from the mouth to where the band ends [m] (radius at the equator). */
+  /** Arc length along the coast from the mouth to where the coastal-current part of the band ends [m] (the bulge part's down-coast extent when only the bulge meets the threshold; radius at the equator). */
   readonly alongReachM: number;
 }
 
@@ -253,7 +253,7 @@ export function buildFootprint(input: FootprintInput): Footprint {
     const allRings = lobe ? [...rings, lobe.ring] : rings;
     const faces = clipToSea(context, allRings, options.maxVertices, sampled.tolerance, warnings, spec.id, lobe?.seed);
     const currentAlong = widths.max > 0 ? bandEnd(plume, params, spec.threshold, down.length) : 0;
-    const along = Math.max(currentAlong, lobe ? lobe.maxAlong : 0);
+    const along = currentAlong > 0 ? currentAlong : lobe ? lobe.maxAlong : 0;
     const maxOffshore = Math.max(widths.max, lobe ? lobe.maxOffshore : 0);
     if (maxOffshore === 0) warnings.push(`${spec.name}: the threshold is not met anywhere in the plume.`);
     return bandFeature(spec, faces, projection, maxOffshore, along);
