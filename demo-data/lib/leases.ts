@@ -88,7 +88,7 @@ const ROWS: readonly Row[] = [
   ['FB-013', C, 'blue-mussel', 'held', 'Three longlines parallel to the shore', A(25.5, 1500), 110, 900, 'rect'],
   ['FB-014', K, 'manila-clam', 'held', 'Small sand pocket south of the head', A(27.5, 300), 200, 220, 'rect'],
   ['FB-015', G, 'great-scallop', 'held', 'Seabed ranching off the south side of the head', A(29.5, 1800), 340, 400, 'rect'],
-  ['FB-016', S, 'pacific-oyster', 'candidate', 'Candidate: close inshore behind Gullstone Head', A(45.0, 350), 240, 400, 'rect'],
+  ['FB-016', S, 'flat-oyster', 'candidate', 'Candidate: flat oysters 6.5 km north of the Amberlin', A(6.5, 800), 240, 400, 'rect'],
   ['FB-017', C, 'blue-mussel', 'held', 'Longlines behind the head, inner row', A(47.0, 900), 110, 900, 'rect'],
   ['FB-018', C, 'blue-mussel', 'held', 'Longlines behind the head, outer row', A(47.0, 2200), 110, 900, 'rect'],
   ['FB-019', C, 'mediterranean-mussel', 'held', 'Longlines, trial of warm-water stock', A(58.0, 1200), 120, 800, 'rect'],

@@ -22,7 +22,9 @@
  *     T_river = 11 + 7 cos(2π(doy − 200)/365.25).
  *
  * Each station is sampled every 20–34 days (seeded) from a seeded first day in October 2020
- * until 30 September 2025, between 10:00 and 15:45 UTC.
+ * until 30 September 2025, and also on the day after its river's flow rises through EVENT_FLOW
+ * (about half the 2-year flood: 250 m³/s for the Amberlin, 30 m³/s for Tolley Brook), between
+ * 10:00 and 15:45 UTC.
  */
 import normalQuantile from '@stdlib/stats-base-dists-normal-quantile';
 import { dateOfDayNumber, dayNumber } from '../../shared/hydrology/calendar-days';
@@ -99,6 +101,9 @@ export function placeStations(coast: Coast): PlacedStation[] {
   });
 }
 
+/** Flow [m³/s] whose rising crossing is followed by an event sample at each of the river's stations (about half the 2-year flood). */
+export const EVENT_FLOW: Record<RiverSpec['name'], number> = { 'Amberlin River': 250, 'Tolley Brook': 30 };
+
 /** One sample row, as written to samples.csv. */
 export interface SampleRow {
   station_id: string;
@@ -134,7 +139,18 @@ export function buildSamples(
     const q = flowByDate.get(station.river);
     if (!river || !q) throw new Error(`no river or flow for ${station.STATION_ID}`);
     const settings = knownSettings(river, latitude[river.name]);
-    for (let day = first + Math.floor(next() * 21); day <= last; day += 20 + Math.floor(next() * 15)) {
+    const routine: number[] = [];
+    for (let day = first + Math.floor(next() * 21); day <= last; day += 20 + Math.floor(next() * 15)) routine.push(day);
+    // Event samples: the day after the river's flow rises through EVENT_FLOW, as a conditionally
+    // approved area is sampled after a closure.
+    const events: number[] = [];
+    for (let day = first + 1; day < last; day++) {
+      const before = q.get(dateOfDayNumber(day - 1)) ?? 0;
+      const now = q.get(dateOfDayNumber(day)) ?? 0;
+      if (before < EVENT_FLOW[station.river] && now >= EVENT_FLOW[station.river]) events.push(day + 1);
+    }
+    const days = [...new Set([...routine, ...events])].sort((a, b) => a - b);
+    for (const day of days) {
       const date = dateOfDayNumber(day);
       const qa = Math.max(...[0, 1].map((k) => q.get(dateOfDayNumber(day - k)) ?? 0));
       const model = predictSample(settings, { flow: qa, along: station.s, offshore: station.x });
