@@ -76,14 +76,15 @@ export const RIVER_TABLE: readonly RiverSpec[] = [
       seed: 19901,
       startDate: FLOW_START,
       years: FLOW_YEARS,
-      meanBaseFlow: 28,
+      meanBaseFlow: 20,
       seasonalAmplitude: 0.5,
       peakMonth: 1,
       floodsPerYear: 4,
       floodSeasonality: 0.8,
-      medianFloodPeak: 230,
+      medianFloodPeak: 220,
       peakShapeK: -0.12,
-      recessionDays: 5,
+      // A large lowland catchment: floods take a week or more to pass (8 days above half the peak).
+      recessionDays: 8,
       riseDays: 2,
     },
     inland: [
