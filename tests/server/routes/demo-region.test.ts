@@ -117,8 +117,11 @@ describe('the demo grower’s yearly ratings', () => {
     const worst = new Map<string, Rating>();
     const report: string[] = [];
     for (const item of res.body.items) {
-      const rating: Rating = item.annualRating ?? rateYear(item.indicatorDaysPerYear ?? 0, item.probabilityAnyExposure ?? 0);
-      report.push(`${item.leaseCode} ${item.riverName}: ${Number(item.indicatorDaysPerYear).toFixed(2)} d/yr, ${Number(item.probabilityAnyExposure).toFixed(2)}/yr → ${rating}`);
+      // The API's own figures and rating when it gives them (issue #14 item 4), else the same rule on the yearly figures it has.
+      const closureDays = Number(item.closureDaysPerYear ?? item.indicatorDaysPerYear ?? 0);
+      const salinityChance = Number(item.harmfulSalinityChancePerYear ?? item.probabilityAnyExposure ?? 0);
+      const rating: Rating = item.annualRating ?? rateYear(closureDays, salinityChance);
+      report.push(`${item.leaseCode} ${item.riverName}: ${closureDays.toFixed(2)} closure days/yr, ${salinityChance.toFixed(2)}/yr harmful salinity → ${rating}`);
       const before = worst.get(item.leaseCode) ?? 'low';
       worst.set(item.leaseCode, ORDER.indexOf(rating) > ORDER.indexOf(before) ? rating : before);
     }
