@@ -444,7 +444,7 @@ export function createMonitoringService(deps: { db: Database; onRiverChanged?: (
                ST_Distance(st.geom::geography, r.mouth::geography) AS d, ST_X(st.geom) AS lon, ST_Y(st.geom) AS lat
           FROM stations st, footprints f, rivers r
          WHERE f.id = ${fp.rows[0].id}::uuid AND r.id = ${riverId}::uuid AND ${visibleStations(user)} AND ${scope})
-      SELECT sm.id AS sample_id, p.code, p.name, sm.sampled_at, sm.salinity, sm.indicator, sm.indicator_censored, p.s, p.x, p.d,
+      SELECT sm.id AS sample_id, p.code, p.name, sm.sampled_at, sm.salinity, sm.indicator, sm.indicator_censored, p.s, p.x, p.d, p.lon, p.lat,
              (SELECT max(fr.discharge) FROM flow_readings fr JOIN flow_records rec ON rec.id = fr.record_id AND rec.active AND rec.river_id = ${riverId}::uuid
                WHERE fr.t >= (date_trunc('day', sm.sampled_at AT TIME ZONE 'UTC') AT TIME ZONE 'UTC') - make_interval(days => ${lagDays}::int)
                  AND fr.t <= sm.sampled_at) AS flow
