@@ -3,8 +3,9 @@
  * - river settings saved with the old fixed alongshore "mixingLength" get the entrainment
  *   coefficient that gives the same dilution length at the river's median annual peak flow
  *   (science.md §1.11; without a flow record, the documented default);
- * - every river with a footprint or screening of an older model version is queued for
- *   re-screening, so no stored result from the old model is shown as current.
+ * - every river with a screening of an older model version is queued for re-screening, so no
+ *   stored result from the old model is shown as current; footprints of an older model that no
+ *   screening uses are deleted.
  */
 import { sql } from 'drizzle-orm';
 import { DEFAULT_ENTRAINMENT_COEFFICIENT } from '#shared/physics/constants';
@@ -56,7 +57,7 @@ export async function carryMixingLength(db: Database, riverId: string, mixingLen
 
 /**
  * Start-up step: carries legacy river settings over (see the module comment) and queues every
- * river whose stored footprints or screenings come from another model version.
+ * river whose stored screenings come from another model version.
  *
  * @returns the ids of the rivers carried over and of those queued
  */
@@ -73,9 +74,12 @@ export async function upgradeStoredModel(db: Database, jobs: Pick<ScreeningJobs,
     }
   }
   const stale = await db.execute<{ river_id: string }>(sql`
-    SELECT DISTINCT river_id FROM screenings WHERE model_version <> ${MODEL_VERSION}
-    UNION
-    SELECT DISTINCT river_id FROM footprints WHERE model_version <> ${MODEL_VERSION}`);
+    SELECT DISTINCT river_id FROM screenings WHERE model_version <> ${MODEL_VERSION}`);
+  // Footprints of an older model that no screening uses any more are only clutter: drop them
+  // (the ones still in use go once their river is re-screened, at a later start-up).
+  await db.execute(sql`
+    DELETE FROM footprints f WHERE f.model_version <> ${MODEL_VERSION}
+       AND NOT EXISTS (SELECT 1 FROM screenings s WHERE s.footprint_id = f.id)`);
   const queued = [...new Set([...carried, ...stale.rows.map((r) => r.river_id)])];
   for (const id of queued) await jobs.enqueueRiver(id);
   return { carried, queued };
