@@ -21,7 +21,7 @@
  *     freshwater fraction and seasonal cycles T_sea = 14 + 4 cos(2π(doy − 228)/365.25) and
  *     T_river = 11 + 7 cos(2π(doy − 200)/365.25).
  *
- * Each station is sampled every 20–34 days (seeded) from a seeded first day in October 2020
+ * Each station is sampled every 35–49 days (seeded) from a seeded first day in October 2020
  * until 30 September 2025, and also on the day after its river's flow rises through EVENT_FLOW
  * (about half the 2-year flood: 250 m³/s for the Amberlin, 30 m³/s for Tolley Brook), between
  * 10:00 and 15:45 UTC.
@@ -140,7 +140,7 @@ export function buildSamples(
     if (!river || !q) throw new Error(`no river or flow for ${station.STATION_ID}`);
     const settings = knownSettings(river, latitude[river.name]);
     const routine: number[] = [];
-    for (let day = first + Math.floor(next() * 21); day <= last; day += 20 + Math.floor(next() * 15)) routine.push(day);
+    for (let day = first + Math.floor(next() * 21); day <= last; day += 35 + Math.floor(next() * 15)) routine.push(day);
     // Event samples: the day after the river's flow rises through EVENT_FLOW, as a conditionally
     // approved area is sampled after a closure.
     const events: number[] = [];
