@@ -94,7 +94,7 @@ describe('river calibration (shared/calibration/river-calibration)', () => {
     expect(fit.fittedNames).toEqual(['entrainmentCoefficient', 't90Hours', 'alongshoreShare']);
     expect(Math.abs(fit.fitted.entrainmentCoefficient / 3e-5 - 1)).toBeLessThan(0.05);
     expect(Math.abs(fit.fitted.alongshoreShare / 0.8 - 1)).toBeLessThan(0.05);
-  });
+  }, 120_000); // a three-parameter fit over 250 samples: about 30 s on a busy two-core machine
 
   it('cautions: what the fit rests on, too few samples or years, a narrow flow range, extrapolation', () => {
     const lines = calibrationCautions({
