@@ -11,7 +11,7 @@ import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared
 import { buildFootprint } from '#shared/geometry/build-footprint';
 import type { PlumeResult } from '#shared/physics/compute-plume';
 import { type ExposureParameters, type fieldAt, worstField } from '#shared/physics/exposure-field';
-import { type CoastFrame, coastPosition, outlinePoints } from '#shared/geometry/coast-position';
+import { type CoastFrame, outlinePositions } from '#shared/geometry/coast-position';
 import { MODEL_VERSION } from '#shared/physics/model-version';
 import { riverPlume } from '#shared/physics/river-plume';
 import type { RiverSettings } from '#shared/schemas/river';
@@ -69,24 +69,8 @@ export function leaseWorstPoint(
   params: ExposureParameters,
   hint: number | null,
 ): { field: ReturnType<typeof fieldAt>; at: { s: number; x: number } } | null {
-  const pts = outlinePoints(rings, frame, OUTLINE_SPACING);
-  if (!pts.length) return null;
-  // The lease's own size (bounding-box diagonal) bounds how far along the coast its points lie from its nearest one.
-  let minX = Infinity;
-  let minY = Infinity;
-  let maxX = -Infinity;
-  let maxY = -Infinity;
-  for (const p of pts) {
-    const q = frame.projection.forward(p);
-    minX = Math.min(minX, q[0]);
-    minY = Math.min(minY, q[1]);
-    maxX = Math.max(maxX, q[0]);
-    maxY = Math.max(maxY, q[1]);
-  }
-  const span = Math.hypot(maxX - minX, maxY - minY);
-  const window = hint === null ? undefined : { s: Math.max(0, hint), window: 2 * span + 2000 };
-  const positions = pts.map((p) => coastPosition(frame, p, window));
-  return worstField(plume, params, positions);
+  const positions = outlinePositions(frame, rings, OUTLINE_SPACING, hint ?? undefined);
+  return positions.length ? worstField(plume, params, positions) : null;
 }
 
 function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {

@@ -10,7 +10,7 @@ import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import type { Feature, MultiPolygon, Polygon, Position } from 'geojson';
 import { describe, expect, it } from 'vitest';
 import { buildFootprint, type Footprint } from '../../../shared/geometry/build-footprint';
-import { coastFrame, coastPosition, outlinePoints } from '../../../shared/geometry/coast-position';
+import { coastFrame, outlinePositions } from '../../../shared/geometry/coast-position';
 import { localProjection } from '../../../shared/geometry/local-projection';
 import { annualMaxima } from '../../../shared/hydrology/annual-maxima';
 import { durationsForFlows, typicalDurationForPeak } from '../../../shared/hydrology/flood-duration';
@@ -105,7 +105,7 @@ function screen(
       settings.mouthLongitude,
       settings.mouthLatitude,
     ]);
-    const points = outlinePoints(lease.geometry.coordinates, frame, 30).map((p) => coastPosition(frame, p));
+    const points = outlinePositions(frame, lease.geometry.coordinates, 30);
     const worst = worstField(plume, params, points).field;
     lowestSalinity = fractions[speciesBand] > 0 ? Math.min(worst.salinity, SPECIES.chronicLowerSalinity - 0.1) : Math.max(worst.salinity, SPECIES.chronicLowerSalinity);
     highestIndicator = fractions['indicator-over-standard'] > 0 ? Math.max(worst.indicator, INDICATOR_STANDARD * 1.01) : Math.min(worst.indicator, INDICATOR_STANDARD);
