@@ -5,7 +5,7 @@
  */
 import { sql } from 'drizzle-orm';
 import type { Position } from 'geojson';
-import { type CoastFrame, coastFrame, coastPosition, outlinePoints } from '#shared/geometry/coast-position';
+import { type CoastFrame, coastFrame, coastPosition, outlinePositions } from '#shared/geometry/coast-position';
 import type { TurningSide } from '#shared/physics/coriolis';
 import type { PlumeRegime } from '#shared/physics/plume-regime';
 import type { Database } from '../db/client';
@@ -40,5 +40,5 @@ export function placePoints(frame: CoastFrame, points: { lon: number; lat: numbe
 
 /** Signed positions of a polygon's outline (every `spacing` m) and centroid. */
 export function placeOutline(frame: CoastFrame, rings: Position[][], spacing = 30): { s: number; x: number }[] {
-  return outlinePoints(rings, frame, spacing).map((p) => coastPosition(frame, p));
+  return outlinePositions(frame, rings, spacing);
 }

@@ -11,7 +11,7 @@ import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared
 import { buildFootprint } from '#shared/geometry/build-footprint';
 import type { PlumeResult } from '#shared/physics/compute-plume';
 import { type ExposureParameters, type fieldAt, worstField } from '#shared/physics/exposure-field';
-import { type CoastFrame, coastPosition, outlinePoints } from '#shared/geometry/coast-position';
+import { type CoastFrame, coastPosition, outlinePositions } from '#shared/geometry/coast-position';
 import { MODEL_VERSION } from '#shared/physics/model-version';
 import { riverPlume } from '#shared/physics/river-plume';
 import type { RiverSettings } from '#shared/schemas/river';
@@ -69,24 +69,8 @@ export function leaseWorstPoint(
   params: ExposureParameters,
   hint: number | null,
 ): { field: ReturnType<typeof fieldAt>; at: { s: number; x: number } } | null {
-  const pts = outlinePoints(rings, frame, OUTLINE_SPACING);
-  if (!pts.length) return null;
-  // The lease's own size (bounding-box diagonal) bounds how far along the coast its points lie from its nearest one.
-  let minX = Infinity;
-  let minY = Infinity;
-  let maxX = -Infinity;
-  let maxY = -Infinity;
-  for (const p of pts) {
-    const q = frame.projection.forward(p);
-    minX = Math.min(minX, q[0]);
-    minY = Math.min(minY, q[1]);
-    maxX = Math.max(maxX, q[0]);
-    maxY = Math.max(maxY, q[1]);
-  }
-  const span = Math.hypot(maxX - minX, maxY - minY);
-  const window = hint === null ? undefined : { s: Math.max(0, hint), window: 2 * span + 2000 };
-  const positions = pts.map((p) => coastPosition(frame, p, window));
-  return worstField(plume, params, positions);
+  const positions = outlinePositions(frame, rings, OUTLINE_SPACING, hint ?? undefined);
+  return positions.length ? worstField(plume, params, positions) : null;
 }
 
 function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
@@ -255,10 +239,11 @@ export function createScreeningService(deps: { db: Database }) {
   ) {
     const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
     const byLease = await leaseBandFractions(db, footprint.id, sql`${scopedLeases(river)} ${leaseFilter}`);
-    const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null }>(sql`
+    const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null; lon: number; lat: number }>(sql`
       SELECT l.id, l.species,
              ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * ST_Length(f.path::geography) AS s,
-             ST_Distance(l.geom::geography, f.path::geography) AS x
+             ST_Distance(l.geom::geography, f.path::geography) AS x,
+             ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat
         FROM leases l, footprints f
        WHERE f.id = ${footprint.id}::uuid AND ${scopedLeases(river)} ${leaseFilter}`);
     const { params } = plumeFor(river.settings, scenario);
@@ -267,13 +252,13 @@ export function createScreeningService(deps: { db: Database }) {
     // the plume's signed coordinates (up-coast of the mouth in the bulge's own frame).
     const inPlumeIds = leases.rows.filter((l) => (byLease.get(l.id)?.['plume-edge'] ?? 0) > 0).map((l) => l.id);
     const outlines = new Map<string, Position[][]>();
-    let frame: CoastFrame | null = null;
+    // The frame is needed for every lease: those outside the plume still report their own signed place.
+    const frame: CoastFrame | null = leases.rows.length ? await footprintCoastFrame(db, footprint.id, river.settings) : null;
     if (inPlumeIds.length) {
       const geo = await db.execute<{ id: string; geometry: string }>(sql`
         SELECT l.id, ST_AsGeoJSON(l.geom, 7) AS geometry FROM leases l
          WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(inPlumeIds)}::jsonb)::uuid)`);
       for (const g of geo.rows) outlines.set(g.id, polygonRings(JSON.parse(g.geometry)));
-      frame = await footprintCoastFrame(db, footprint.id, river.settings);
     }
     const rows = leases.rows.map((l) => {
       const fractionsOfLease = byLease.get(l.id) ?? {};
@@ -284,6 +269,11 @@ export function createScreeningService(deps: { db: Database }) {
       if (worst) {
         l.s = worst.at.s;
         l.x = worst.at.x;
+      } else if (frame && l.s !== null) {
+        // Outside the plume: the lease's own place (a point on it), never "at the mouth".
+        const at = coastPosition(frame, [l.lon, l.lat], { s: Math.max(0, l.s), window: 2 * (l.x ?? 0) + 2000 });
+        l.s = at.s;
+        l.x = at.x;
       }
       // The field at the lease's worst point, made consistent with the band polygons it touches.
       const inSpeciesBand = (fractionsOfLease[salinityBandId(tolerance.chronicLowerSalinity)] ?? 0) > 0;

@@ -89,8 +89,9 @@ export function createSweepService(deps: { db: Database; screening: ScreeningSer
       riverId,
       riverName: river.name,
       species: species.id,
-      alongCoastM: s,
-      offshoreM: x,
+      // the lease's centre in the plume's signed coordinates (negative up-coast of the mouth)
+      alongCoastM: positions[positions.length - 1].s,
+      offshoreM: positions[positions.length - 1].x,
       durationHours,
       bands,
       curve,

@@ -12,20 +12,21 @@
  *    hemisphere (the coast on the right of the flow, science.md §1.1) and left in the
  *    southern, so the walk goes the way that keeps the sea on the left (north) or right
  *    (south). It goes for the reach (or the field's default extent when there is no reach),
- *    or until the coast line ends. Nothing is drawn upcoast except the bulge's own half: the
- *    bulge is a disc centred on the outflow axis, so its field is taken as symmetric about
- *    the mouth, and the walk also goes upcoast for one bulge radius y_s/2 where the band
- *    width is that of the bulge alone (c).
- * 4. At arc length s along the real coast each band reaches offshore to
- *    offshoreDistanceWhere(plume, params, s, threshold), measured along the coast normal as
- *    the field defines it. The walked coast is simplified (Douglas–Peucker, tolerance τ, by
+ *    or until the coast line ends. Up-coast the coastal current draws nothing (science.md
+ *    §1.11); the walk goes up-coast for one bulge radius only so the coast there is known.
+ * 4. Each band is the union of two parts (the field is the larger of the two, exposure-field):
+ *    the coastal current's strip and the bulge's lobe. Strip: at arc length s ≥ 0 along the
+ *    real coast the band reaches offshore to offshoreDistanceWhere(plume, params, s, threshold),
+ *    measured along the coast normal as the field defines it. Lobe: the region seen from the
+ *    mouth out to bulgeEdgeDistance(…, θ, …) along rays θ from the outflow axis towards
+ *    down-coast (96 rays), in the frame of the bulge disc. The walked coast is simplified (Douglas–Peucker, tolerance τ, by
  *    default 1 % of the narrowest band's widest point, 0.5…20 m) and sampled (every kept
  *    vertex, `alongSteps` even steps, the bulge circle, and the field's jumps: mouth, bulge
  *    edge, reach, each band's end); each segment gives a quad from τ + 1 m inside the land out
  *    to the band width (see offset-strip: fans at convex bends, mitres at concave ones). The
- *    band is the union of these pieces (cascaded, see union-rings) minus the land: land
+ *    band is the union of these pieces and the lobe (cascaded, see union-rings) minus the land: land
  *    polygons are subtracted; shoreline lines (and island rings) cut the union into faces,
- *    and only the faces that touch the walked coast from the sea side are kept — so pieces
+ *    and only the faces that touch the walked coast from the sea side (or hold a point of the lobe's axis) are kept — so pieces
  *    that crossed a shoreline onto land, island interiors, and water reached only across land
  *    are dropped. Slivers under 2 m² go. With the same path and samples for every band, a
  *    band with a stricter threshold is never wider, so salinity bands nest exactly.

@@ -87,7 +87,25 @@ export function coastPosition(
   lonLat: readonly number[],
   hint?: { readonly s: number; readonly window: number },
 ): { s: number; x: number } {
-  const p = frame.projection.forward(lonLat);
+  return coastPositionOf(frame, frame.projection.forward(lonLat), hint);
+}
+
+/**
+ * {@link coastPosition} of a point already in the frame's metres (the projection centred on the mouth).
+ *
+ * @param frame - from {@link coastFrame}
+ * @param p - [x east, y north] in metres from the frame's origin
+ * @param hint - optional { s, window } as for {@link coastPosition}
+ * @returns { s [m], signed; x [m], ≥ 0 }
+ * @example
+ * coastPositionOf(frame, [-500, -6000]); // => { s: 6000, x: 500 } on a north–south coast turning south
+ * Source: (c) derived.
+ */
+export function coastPositionOf(
+  frame: CoastFrame,
+  p: PlanarPoint,
+  hint?: { readonly s: number; readonly window: number },
+): { s: number; x: number } {
   const along = p[0] * frame.downCoast[0] + p[1] * frame.downCoast[1];
   const out = p[0] * frame.seaward[0] + p[1] * frame.seaward[1];
   if (frame.radial) return { s: along, x: Math.max(0, out) };
@@ -173,4 +191,59 @@ export function outlinePoints(rings: readonly (readonly Position[])[], frame: Co
   }
   if (n > 0) out.push(frame.projection.inverse([cx / n, cy / n]));
   return out;
+}
+
+/**
+ * Signed positions of a polygon's outline (vertices and points no more than `spacing` apart) and
+ * of its vertex centroid, projected once; the outline's own size bounds the path search around
+ * `hint` (the arc of the polygon's nearest point to the walked coast), when given.
+ *
+ * @param frame - from {@link coastFrame}
+ * @param rings - polygon rings [lon, lat]
+ * @param spacing - largest gap between points [m], > 0
+ * @param hint - arc [m] of the polygon's nearest point on the path, or undefined to search the whole path
+ * @returns [{ s, x }] in metres
+ * @example
+ * outlinePositions(frame, lease.coordinates, 30, 5800).length; // => about 41 for a 300 m square
+ * Source: (c) common practice: a site is judged at its most exposed point.
+ */
+export function outlinePositions(
+  frame: CoastFrame,
+  rings: readonly (readonly Position[])[],
+  spacing: number,
+  hint?: number,
+): { s: number; x: number }[] {
+  const pts: PlanarPoint[] = [];
+  let cx = 0;
+  let cy = 0;
+  let n = 0;
+  let minX = Number.POSITIVE_INFINITY;
+  let minY = Number.POSITIVE_INFINITY;
+  let maxX = Number.NEGATIVE_INFINITY;
+  let maxY = Number.NEGATIVE_INFINITY;
+  for (const ring of rings) {
+    const local = ring.map((q) => frame.projection.forward(q));
+    for (let i = 0; i + 1 < local.length; i += 1) {
+      const a = local[i];
+      const b = local[i + 1];
+      // (a millimetre's slack, so a side of exactly n·spacing gives n pieces after a lon/lat round trip)
+      const pieces = Math.max(1, Math.ceil((Math.hypot(b[0] - a[0], b[1] - a[1]) - 1e-3) / spacing));
+      for (let k = 0; k < pieces; k += 1) {
+        const f = k / pieces;
+        pts.push([a[0] + f * (b[0] - a[0]), a[1] + f * (b[1] - a[1])]);
+      }
+      cx += a[0];
+      cy += a[1];
+      n += 1;
+      minX = Math.min(minX, a[0]);
+      minY = Math.min(minY, a[1]);
+      maxX = Math.max(maxX, a[0]);
+      maxY = Math.max(maxY, a[1]);
+    }
+  }
+  if (n === 0) return [];
+  pts.push([cx / n, cy / n]);
+  const span = Math.hypot(maxX - minX, maxY - minY);
+  const window = hint === undefined || !Number.isFinite(hint) ? undefined : { s: Math.max(0, hint), window: 2 * span + 2000 };
+  return pts.map((p) => coastPositionOf(frame, p, window));
 }

@@ -5,17 +5,15 @@
 // plume's signed coordinates → scoreLease.
 import { area as turfArea, featureCollection, intersect as turfIntersect } from '@turf/turf';
 import fc from 'fast-check';
-import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
-import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import type { Feature, MultiPolygon, Polygon, Position } from 'geojson';
 import { describe, expect, it } from 'vitest';
 import { buildFootprint, type Footprint } from '../../../shared/geometry/build-footprint';
-import { coastFrame, coastPosition, outlinePoints } from '../../../shared/geometry/coast-position';
+import { coastFrame, outlinePositions } from '../../../shared/geometry/coast-position';
 import { localProjection } from '../../../shared/geometry/local-projection';
 import { annualMaxima } from '../../../shared/hydrology/annual-maxima';
 import { durationsForFlows, typicalDurationForPeak } from '../../../shared/hydrology/flood-duration';
 import { fitFloodFrequency } from '../../../shared/hydrology/flood-frequency';
-import type { FlowReading } from '../../../shared/hydrology/parse-flow-record';
+import { syntheticRecord } from '../../helpers/flood-record';
 import type { PlumeResult } from '../../../shared/physics/compute-plume';
 import { bulgeFraction, currentFraction, type ExposureParameters, fieldAt, worstField } from '../../../shared/physics/exposure-field';
 import { type RiverPlumeSettings, riverPlume } from '../../../shared/physics/river-plume';
@@ -105,7 +103,7 @@ function screen(
       settings.mouthLongitude,
       settings.mouthLatitude,
     ]);
-    const points = outlinePoints(lease.geometry.coordinates, frame, 30).map((p) => coastPosition(frame, p));
+    const points = outlinePositions(frame, lease.geometry.coordinates, 30);
     const worst = worstField(plume, params, points).field;
     lowestSalinity = fractions[speciesBand] > 0 ? Math.min(worst.salinity, SPECIES.chronicLowerSalinity - 0.1) : Math.max(worst.salinity, SPECIES.chronicLowerSalinity);
     highestIndicator = fractions['indicator-over-standard'] > 0 ? Math.max(worst.indicator, INDICATOR_STANDARD * 1.01) : Math.min(worst.indicator, INDICATOR_STANDARD);
@@ -134,34 +132,6 @@ function buildFor(settings: ReturnType<typeof southRiver>, flow: { discharge: nu
     options: { alongSteps: 200 },
   });
   return { plume, params, footprint };
-}
-
-/**
- * A 30-year synthetic daily record (invented): base flow 30 m³/s with one flood a year whose peak
- * above base is Gumbel-distributed (location 300, scale 120 m³/s, seeded) and whose hydrograph
- * rises over a day and recedes with an e-folding time of 2 days × (peak/300)^0.5, so larger floods
- * last longer, (c) a common observation for a catchment (larger storms are longer), chosen here.
- */
-function syntheticRecord(): FlowReading[] {
-  const rng = xoroshiro128plus(4141);
-  const out: FlowReading[] = [];
-  const start = Date.UTC(1990, 3, 1);
-  const years = 30;
-  const days = Math.round(years * 365.25);
-  const q = new Array<number>(days).fill(30);
-  for (let y = 0; y < years; y += 1) {
-    const u = Math.min(1 - 1e-9, Math.max(1e-9, uniformFloat64(rng)));
-    const peak = 300 - 120 * Math.log(-Math.log(u));
-    const recession = 2 * Math.sqrt(Math.max(peak, 30) / 300);
-    const day = Math.round(y * 365.25) + 90 + Math.floor(120 * uniformFloat64(rng));
-    q[day] += peak / 2;
-    for (let j = 1; j < 60 && day + j < days; j += 1) q[day + j] += peak * Math.exp(-(j - 1) / recession);
-  }
-  for (let i = 0; i < days; i += 1) {
-    const t = new Date(start + i * 86_400_000).toISOString();
-    out.push({ time: t, date: t.slice(0, 10), discharge: q[i] });
-  }
-  return out;
 }
 
 /** The design floods of the 30-year record (GEV by L-moments) with their own durations. */
