@@ -180,7 +180,8 @@ function predictWith(
   const x = Math.max(0, offshore);
   const f = fieldAt(plume, params, s, x);
   return {
-    inside: x < plumeOffshoreExtent(plume, s),
+    // Up-coast only the bulge disc holds river water (science.md §1.11): s² + x² < 2 x R_b.
+    inside: s < 0 && plume.regime !== 'equatorial-jet' ? s * s + x * x < x * plume.bulgeOffshoreExtent : x < plumeOffshoreExtent(plume, s),
     freshwaterFraction: f.freshwaterFraction,
     salinity: f.salinity,
     indicator: f.indicator,
