@@ -11,6 +11,8 @@ import { distance, length, lineString, nearestPointOnLine, point, pointOnFeature
 import type { Feature, LineString, MultiLineString, MultiPolygon, Polygon, Position } from 'geojson';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoRegion } from '../../../server/db/seed-demo-region';
+import { createInlineScreeningJobs } from '../../../server/jobs/screening-jobs';
+import { createScreeningService } from '../../../server/services/screening.service';
 import type { RiverJson } from '../../../demo-data/lib/rivers';
 import { effectiveT90Hours } from '../../../shared/calibration/river-calibration';
 import { createTestApp, signIn, type TestApp } from '../../helpers/test-app';
@@ -58,7 +60,17 @@ function alongShore(mouth: Position, p: Position): number {
 beforeAll(async () => {
   t = await createTestApp();
   await seedDemoRegion(t.db.db);
-  // The test database is shared with other files that change plan values: start from the demo's own.
+  // The test database is shared with other files, which may re-screen or change the demo rivers: screen them again
+  // when their screenings are missing (as the demo loader does), and start from the demo zones' own plan values.
+  const screening = createScreeningService({ db: t.db.db });
+  const jobs = createInlineScreeningJobs(t.db.db, screening);
+  const stale = await t.db.pool.query(
+    `select r.id from rivers r join jurisdictions j on j.id = r.jurisdiction_id
+      where j.slug = 'fennick-coast' and r.name = any($1)
+        and (select count(*) from lease_annual_exposure a where a.river_id = r.id) < 40`,
+    [known.map((k) => k.name)],
+  );
+  for (const row of stale.rows) await jobs.enqueueRiver(row.id);
   await t.db.pool.query(
     `update closure_zones set trigger_flow = (source_properties->>'TRIGGER_M3S')::float8,
             min_closure_days = (source_properties->>'CLOSURE_DAYS')::float8 where source_properties ? 'TRIGGER_M3S'`,
@@ -149,8 +161,10 @@ describe('the demo grower’s yearly ratings', () => {
 describe('the demo closure zones', () => {
   it('each zone’s suggested trigger is within a factor of two of its plan trigger', async () => {
     const zones = await regulator.get('/api/v1/zones').expect(200);
-    expect(zones.body.items.length).toBe(2);
-    for (const z of zones.body.items) {
+    // The demo's two zones (other test files add zones of their own to the same database).
+    const demo = zones.body.items.filter((z: { name: string }) => ['Fennick Bay inner zone', 'Tolley shore zone'].includes(z.name));
+    expect(demo).toHaveLength(2);
+    for (const z of demo) {
       const sweep = await regulator.get(`/api/v1/zones/${z.id}/trigger-sweep`).expect(200);
       console.log(`${z.name}: suggested ${sweep.body.suggestedTrigger}, plan ${sweep.body.planTrigger}`);
       expect(sweep.body.planTrigger).toBeGreaterThan(0);
