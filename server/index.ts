@@ -13,6 +13,7 @@ import { startJobs } from './jobs/start-jobs';
 import { createScreeningService } from './services/screening.service';
 import { type GaugeFeed, startGaugeFeed } from './fakes/gauge-feed';
 import { type PaymentFake, startPaymentFake } from './fakes/payment-fake';
+import { upgradeStoredModel } from './services/model-upgrade.service';
 
 async function main() {
   let env: ReturnType<typeof loadEnv>;
@@ -67,11 +68,15 @@ async function main() {
       startGaugeFeed({ port: env.GAUGE_FEED_PORT }),
     );
   }
+
   // Screening and alerts run in pg-boss workers on the same PostgreSQL (WORKERS=false leaves them to `npm run worker`).
   // Yearly figures stored before the yearly rating existed are worked out again from the stored screenings.
   const reannualised = await createScreeningService({ db: dbHandle.db }).annualiseMissing();
   if (reannualised) logger.info({ rivers: reannualised }, 'yearly figures re-computed for the yearly rating');
   const { jobs, alertJobs } = await startJobs(env, dbHandle, { work: env.WORKERS });
+  // Stored results of an older model version are re-screened (and legacy river settings carried over) at start-up.
+  const upgraded = await upgradeStoredModel(dbHandle.db, jobs);
+  if (upgraded.queued.length) logger.info({ rivers: upgraded.queued.length, carried: upgraded.carried.length }, 're-screening results of an older model');
   const app = createApp({ env, db: dbHandle, mailer, uploadLimits: uploadLimitsFromEnv(), jobs, alertJobs });
   await app.locals.alertsReady;
   const server: Server = app.listen(env.PORT, env.HOST);

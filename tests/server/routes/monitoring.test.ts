@@ -15,6 +15,9 @@ import { seedDemoRegion } from '../../../server/db/seed-demo-region';
 import { createTestApp, signIn, type TestApp } from '../../helpers/test-app';
 
 const DEMO = path.resolve(import.meta.dirname, '../../../demo-data');
+const DEMO_SAMPLES = readFileSync(path.join(DEMO, 'monitoring/samples.csv'), 'utf8').trim().split('\n').slice(1);
+const DEMO_CENSORED = DEMO_SAMPLES.filter((row) => /,[<>]\d/.test(row)).length;
+const DEMO_STATIONS = JSON.parse(readFileSync(path.join(DEMO, 'monitoring/stations.geojson'), 'utf8')).features.length as number;
 let t: TestApp;
 type Agent = Awaited<ReturnType<typeof signIn>>['agent'];
 let regulator: Agent;
@@ -50,7 +53,7 @@ describe('stations and samples', () => {
       readFileSync(path.join(DEMO, 'monitoring/stations.geojson')),
       'stations.geojson',
     ).expect(201);
-    expect(stations.body).toMatchObject({ created: 0, updated: 8, format: 'geojson' });
+    expect(stations.body).toMatchObject({ created: 0, updated: DEMO_STATIONS, format: 'geojson' });
     expect(stations.body.items.map((s: { code: string }) => s.code)).toContain('FB-S08');
     const samples = await upload(
       regulator,
@@ -58,16 +61,16 @@ describe('stations and samples', () => {
       readFileSync(path.join(DEMO, 'monitoring/samples.csv')),
       'samples.csv',
     ).expect(201);
-    // demo-data/README.md: 309 samples, 22 written as <2 or >1600.
-    expect(samples.body).toMatchObject({ created: 0, updated: 309, censored: 22, stations: 8 });
+    // The rows of demo-data/monitoring/samples.csv, and those written as <2 or >1600 (demo-data/README.md).
+    expect(samples.body).toMatchObject({ created: 0, updated: DEMO_SAMPLES.length, censored: DEMO_CENSORED, stations: DEMO_STATIONS });
     const listed = await regulator.get('/api/v1/samples?limit=5000').expect(200);
-    expect(listed.body.total).toBe(309);
+    expect(listed.body.total).toBe(DEMO_SAMPLES.length);
     const limit = listed.body.items.find((s: { indicatorCensored: string | null }) => s.indicatorCensored === 'above');
     expect(limit).toMatchObject({ indicator: 1600, indicatorCensored: 'above' });
     expect(listed.body.items.find((s: { method: string }) => s.method === 'MF').indicatorUnit).toBe('CFU/100 mL');
     // Everyone in the authority's jurisdiction sees its stations.
     const seen = await grower.get('/api/v1/stations').expect(200);
-    expect(seen.body.items.filter((s: { mine: boolean }) => !s.mine)).toHaveLength(8);
+    expect(seen.body.items.filter((s: { mine: boolean }) => !s.mine)).toHaveLength(DEMO_STATIONS);
   });
 
   it('stations as CSV: lon/lat, or x/y with an EPSG code; each bad row is reported and nothing is saved', async () => {
@@ -197,9 +200,11 @@ describe('comparison with the demo samples', () => {
     const res = await grower.get(`/api/v1/rivers/${amberlinId}/comparison?lagDays=2`).expect(200);
     const c = res.body;
     expect(c.points.length).toBeGreaterThan(100);
-    expect(c.points.length + c.outside.length + c.otherRivers).toBeGreaterThanOrEqual(309);
-    // FB-S08 answers to Tolley Brook (demo-data/README.md).
-    expect(c.points.some((p: { stationCode: string }) => p.stationCode === 'FB-S08')).toBe(false);
+    expect(c.points.length + c.outside.length + c.otherRivers).toBeGreaterThanOrEqual(DEMO_SAMPLES.length);
+    // FB-S07 … FB-S09 lie 18–28 km up-coast of the Amberlin mouth, near Tolley Brook (demo-data/README.md). Placed at
+    // their negative alongshore position, beyond the Amberlin's bulge, they get none of its water (science.md §1.11),
+    // so they answer to Tolley Brook; placed "at the mouth" they would have been claimed by the Amberlin.
+    expect(c.points.some((p: { stationCode: string }) => ['FB-S07', 'FB-S08', 'FB-S09'].includes(p.stationCode))).toBe(false);
     const p = c.points[0];
     expect(p.flow).toBeGreaterThan(0);
     expect(p.predictedSalinity).toBeGreaterThan(0);
@@ -223,12 +228,13 @@ describe('comparison with the demo samples', () => {
 
 describe('calibration of a synthetic river with known parameters', () => {
   // A river owned by a user of no jurisdiction, so no other river competes for its samples. Its settings
-  // are the truth: L = 18 000 m and T90 6 h by day, 30 h by night (effective T90 = 1/(0.5/6 + 0.5/30) = 10 h, c derived).
-  const TRUTH = { mixingLength: 18_000, t90Hours: 10 };
+  // are the truth: E = 4e-5 and T90 6 h by day, 30 h by night (effective T90 = 1/(0.5/6 + 0.5/30) = 10 h, c derived).
+  const TRUTH = { entrainmentCoefficient: 4e-5, t90Hours: 10 };
   const settingsBody = {
     name: 'Synthetic Creek',
-    mouthLongitude: -38.6007654,
-    mouthLatitude: 41.0738907,
+    // On the demo shore 20 km south of Tolley Brook, where the coast runs straight for the whole plume.
+    mouthLongitude: -38.5943324,
+    mouthLatitude: 40.7589134,
     outflowAzimuthDeg: 265,
     mouthWidth: 60,
     mouthDepth: 2,
@@ -237,7 +243,7 @@ describe('calibration of a synthetic river with known parameters', () => {
     riverTemperature: 9,
     seaSalinity: 33.5,
     seaTemperature: 12,
-    mixingLength: TRUTH.mixingLength,
+    entrainmentCoefficient: TRUTH.entrainmentCoefficient,
     t90DayHours: 6,
     t90NightHours: 30,
     daylightFraction: 0.5,
@@ -246,7 +252,7 @@ describe('calibration of a synthetic river with known parameters', () => {
     nearFieldFreshwaterFraction: 0.6,
   };
 
-  it('recovers the mixing length and T90 within 5 % from noisy, partly censored samples, and the skill improves', async () => {
+  it('recovers the entrainment coefficient and T90 within 5 % from noisy, partly censored samples, and the skill improves', async () => {
     await request(t.app)
       .post('/api/v1/account/sign-up')
       .send({ name: 'Lone Grower', email: 'lone@brackline.test', password: 'lone-grower-pw-1' });
@@ -254,15 +260,16 @@ describe('calibration of a synthetic river with known parameters', () => {
     const me = await t.db.pool.query(`SELECT id FROM users WHERE email = 'lone@brackline.test'`);
     // The demo shoreline, as this user's own coast.
     await t.db.pool.query(
-      `INSERT INTO coasts (name, form, owner_id, shared, geom) SELECT 'Lone shoreline', form, $1, false, geom FROM coasts WHERE name = 'Fennick Bay shoreline (demo)'`,
+      `INSERT INTO coasts (name, form, owner_id, shared, geom) SELECT 'Lone shoreline', form, $1, false, geom FROM coasts WHERE name = 'Fennick Coast shoreline (demo)'`,
       [me.rows[0].id],
     );
     const river = await lone.post('/api/v1/rivers').send(settingsBody).expect(201);
     const riverId = river.body.id as string;
+    // The demo Amberlin's record: floods of hundreds of m³/s give a plume wide enough for every station below.
     await lone
       .post(`/api/v1/rivers/${riverId}/flow-records?units=m3s`)
       .set('Content-Type', 'text/csv')
-      .send(readFileSync(path.join(DEMO, 'flows/tolley-brook-daily.csv'), 'utf8'))
+      .send(readFileSync(path.join(DEMO, 'flows/amberlin-river-daily.csv'), 'utf8'))
       .expect(201);
 
     // Stations along the plume's path, 300 m to 2 km seaward (west) of it.
@@ -310,20 +317,20 @@ describe('calibration of a synthetic river with known parameters', () => {
     const real = await upload(lone, '/api/v1/samples', [header, ...lines].join('\n'), 'synthetic.csv').expect(201);
     expect(real.body.updated).toBe(lines.length);
 
-    // Start from poor values: L = 6 km, T90 five times too long.
-    await lone.patch(`/api/v1/rivers/${riverId}`).send({ mixingLength: 6000, t90DayHours: 30, t90NightHours: 150 }).expect(200);
+    // Start from poor values: E four times too large, T90 five times too long.
+    await lone.patch(`/api/v1/rivers/${riverId}`).send({ entrainmentCoefficient: 1.6e-4, t90DayHours: 30, t90NightHours: 150 }).expect(200);
     const fit = await lone.post(`/api/v1/rivers/${riverId}/calibrations`).send({ lagDays: 0 }).expect(201);
     const c = fit.body;
-    expect(c.start.mixingLength).toBe(6000);
-    expect(Math.abs(c.fitted.mixingLength / TRUTH.mixingLength - 1)).toBeLessThan(0.05);
+    expect(c.start.entrainmentCoefficient).toBe(1.6e-4);
+    expect(Math.abs(c.fitted.entrainmentCoefficient / TRUTH.entrainmentCoefficient - 1)).toBeLessThan(0.05);
     expect(Math.abs(c.fitted.t90Hours / TRUTH.t90Hours - 1)).toBeLessThan(0.05);
     // Nash–Sutcliffe skill, (a) Nash & Sutcliffe 1970: better after the fit, for both variables.
     expect(c.after.salinity.skill).toBeGreaterThan(c.before.salinity.skill);
     expect(c.after.indicator.skill).toBeGreaterThan(c.before.indicator.skill);
     expect(c.after.salinity.skill).toBeGreaterThan(0.8);
     expect(c.after.indicator.censored).toBe(censored);
-    // Applying scales both T90s by the same ratio (their ratio stays the user's).
-    expect(c.settingsPatch.t90NightHours / c.settingsPatch.t90DayHours).toBeCloseTo(5, 3);
+    // Applying scales both T90s by the same ratio (their ratio stays the user's, to the patch's four significant figures).
+    expect(c.settingsPatch.t90NightHours / c.settingsPatch.t90DayHours).toBeCloseTo(5, 2);
     expect(c.cautions.join(' ')).toMatch(/lie beyond it: there the fitted values are extrapolated/);
     expect(c.status).toBe('fitted');
     expect(c.canApply).toBe(true);
@@ -349,7 +356,7 @@ describe('apply and roll back on the demo region', () => {
     const fit = await grower.post(`/api/v1/rivers/${amberlinId}/calibrations`).send({ lagDays: 2, fitNearFieldFraction: true }).expect(201);
     const id = fit.body.id as string;
     expect(fit.body.canApply).toBe(false);
-    expect(fit.body.fittedNames).toEqual(['mixingLength', 't90Hours', 'nearFieldFreshwaterFraction']);
+    expect(fit.body.fittedNames).toEqual(['entrainmentCoefficient', 't90Hours', 'nearFieldFreshwaterFraction']);
     expect(fit.body.after.salinity.rmse).toBeLessThan(fit.body.before.salinity.rmse);
 
     // Denials: the grower did not create the river; another grower cannot see this fit; an adviser neither.
@@ -368,9 +375,9 @@ describe('apply and roll back on the demo region', () => {
     const applied = await regulator.post(`/api/v1/calibrations/${id}/apply`).expect(200);
     expect(applied.body.status).toBe('applied');
     const after = await settingsOf();
-    expect(after.mixingLength).toBe(fit.body.settingsPatch.mixingLength);
+    expect(after.entrainmentCoefficient).toBe(fit.body.settingsPatch.entrainmentCoefficient);
     expect(after.nearFieldFreshwaterFraction).toBe(fit.body.settingsPatch.nearFieldFreshwaterFraction);
-    expect(applied.body.previous).toMatchObject({ mixingLength: beforeSettings.mixingLength, nearFieldFreshwaterFraction: 0.5 });
+    expect(applied.body.previous).toMatchObject({ entrainmentCoefficient: beforeSettings.entrainmentCoefficient, nearFieldFreshwaterFraction: 0.5 });
     const afterRatings = await ratingsOf('grower@brackline.test');
     expect(afterRatings).not.toEqual(beforeRatings);
     const audit = await t.db.pool.query(
@@ -378,8 +385,8 @@ describe('apply and roll back on the demo region', () => {
       [amberlinId],
     );
     expect(audit.rows).toHaveLength(1);
-    expect(audit.rows[0].before.mixingLength).toBe(beforeSettings.mixingLength);
-    expect(audit.rows[0].after.mixingLength).toBe(fit.body.settingsPatch.mixingLength);
+    expect(audit.rows[0].before.entrainmentCoefficient).toBe(beforeSettings.entrainmentCoefficient);
+    expect(audit.rows[0].after.entrainmentCoefficient).toBe(fit.body.settingsPatch.entrainmentCoefficient);
     await regulator.post(`/api/v1/calibrations/${id}/apply`).expect(409);
 
     // Rollback: a grower may not; the regulator restores the values and the ratings.
@@ -392,7 +399,7 @@ describe('apply and roll back on the demo region', () => {
       `SELECT action, after FROM audit_entries WHERE action = 'calibration.rollback' AND subject_id = $1`,
       [amberlinId],
     );
-    expect(audit2.rows[0].after.mixingLength).toBe(beforeSettings.mixingLength);
+    expect(audit2.rows[0].after.entrainmentCoefficient).toBe(beforeSettings.entrainmentCoefficient);
     await regulator.post(`/api/v1/calibrations/${id}/rollback`).expect(409);
   }, 300_000);
 });

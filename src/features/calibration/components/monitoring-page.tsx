@@ -111,8 +111,8 @@ function ComparisonView({ riverId, lagDays }: { riverId: string; lagDays: number
         <>
           <p className="text-sm text-shell-700">
             {c.points.length} samples in {c.riverName}’s plume
-            {c.otherRivers ? `; ${c.otherRivers} more belong to another river’s plume` : ''}. Settings now: mixing length{' '}
-            {fmtNumber(v.mixingLength / 1000, 1)} km, T90 {fmtNumber(v.t90Hours, 1)} h, alongshore share {fmtNumber(v.alongshoreShare, 2)},
+            {c.otherRivers ? `; ${c.otherRivers} more belong to another river’s plume` : ''}. Settings now: entrainment coefficient{' '}
+            {v.entrainmentCoefficient === undefined ? '—' : v.entrainmentCoefficient.toExponential(2)}, T90 {fmtNumber(v.t90Hours, 1)} h, alongshore share {fmtNumber(v.alongshoreShare, 2)},
             river water leaving the mouth region {fmtNumber(v.nearFieldFreshwaterFraction * 100, 0)} %.
           </p>
           <SkillTable stats={c.stats} label="Agreement of the plume with the samples" />
@@ -224,7 +224,7 @@ export function MonitoringPage() {
             noValidate
             onSubmit={form.handleSubmit((v) => fit.mutate(v))}
           >
-            <p className="text-sm">Always fitted: mixing length and T90.</p>
+            <p className="text-sm">Always fitted: entrainment coefficient (how fast the coastal current dilutes; its dilution length grows with flow) and T90.</p>
             <label htmlFor={ids.near} className="flex items-center gap-2 text-sm">
               <input id={ids.near} type="checkbox" {...form.register('fitNearFieldFraction')} />
               Also fit the river water leaving the mouth region
