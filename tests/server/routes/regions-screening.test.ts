@@ -17,6 +17,7 @@ let regulator: Agent;
 let admin: Agent;
 let demoJurisdictionId: string;
 let regionRiverIds: string[];
+let reachingRiverIds: string[];
 let inPlumeLease: { type: 'MultiPolygon'; coordinates: number[][][][] };
 const demo = (file: string) => readFileSync(path.resolve(import.meta.dirname, '../../../demo-data', file));
 
@@ -32,8 +33,15 @@ async function newGrower(name: string, regionId?: string | null): Promise<Agent>
 }
 
 async function uploadLeases(agent: Agent, code: string, geometry: unknown, status?: 'held'): Promise<string> {
-  const fc = { type: 'FeatureCollection', features: [{ type: 'Feature', properties: { LEASE_ID: code, ...(status ? { STATUS: status } : {}) }, geometry }] };
-  const res = await agent.post('/api/v1/imports').field('kind', 'lease').attach('file', Buffer.from(JSON.stringify(fc)), `${code}.geojson`).expect(201);
+  const fc = {
+    type: 'FeatureCollection',
+    features: [{ type: 'Feature', properties: { LEASE_ID: code, ...(status ? { STATUS: status } : {}) }, geometry }],
+  };
+  const res = await agent
+    .post('/api/v1/imports')
+    .field('kind', 'lease')
+    .attach('file', Buffer.from(JSON.stringify(fc)), `${code}.geojson`)
+    .expect(201);
   const saved = await agent
     .post(`/api/v1/imports/${res.body.id}/confirm`)
     .send({ mapping: { leaseId: 'LEASE_ID', ...(status ? { status: 'STATUS' } : {}) } })
@@ -53,27 +61,35 @@ beforeAll(async () => {
   admin = (await signIn(t.app, 'admin@brackline.test')).agent;
   const j = await t.db.pool.query("select id from jurisdictions where slug = 'fennick-coast'");
   demoJurisdictionId = j.rows[0].id;
-  const rivers = await t.db.pool.query('select id from rivers where jurisdiction_id = $1 and exists (select 1 from scenarios s where s.river_id = rivers.id)', [
+  // A small square the Amberlin's largest flood reaches (from its stored footprints, which other test files leave
+  // alone even when they empty the leases table), inside the region's area: the new growers' leases sit on it.
+  const amberlin = await t.db.pool.query("select id from rivers where jurisdiction_id = $1 and name = 'Amberlin River'", [
     demoJurisdictionId,
   ]);
-  regionRiverIds = rivers.rows.map((r: { id: string }) => r.id).sort();
-  // A small square every region river's largest flood reaches (from the stored footprints, which other test
-  // files leave alone even when they empty the leases table): the new growers' leases sit on it.
-  let reach: string | null = null;
-  for (const riverId of regionRiverIds) {
-    const band = await t.db.pool.query(
-      `select ST_AsText(ST_Union(b.geom)) as g from footprint_bands b
-        where b.band_id = 'plume-edge' and b.footprint_id = (select f.id from footprints f where f.river_id = $1 and f.scenario_id is not null order by f.discharge desc limit 1)`,
-      [riverId],
-    );
-    reach = reach === null ? band.rows[0].g : (await t.db.pool.query('select ST_AsText(ST_Intersection(ST_GeomFromText($1), ST_GeomFromText($2))) as g', [reach, band.rows[0].g])).rows[0].g;
-  }
-  // …and inside the region's area (the seeded box of the demo leases).
-  reach = (await t.db.pool.query('select ST_AsText(ST_Intersection(ST_GeomFromText($1, 4326), area)) as g from jurisdictions where id = $2', [reach, demoJurisdictionId])).rows[0].g;
+  const largestReach = `select b.geom from footprint_bands b
+     where b.band_id = 'plume-edge' and b.footprint_id = (select f.id from footprints f where f.river_id = r.id and f.scenario_id is not null order by f.discharge desc limit 1)`;
+  const reach = await t.db.pool.query(
+    `select ST_AsText(ST_Intersection(ST_Union(x.geom), (select area from jurisdictions where id = $2))) as g
+       from rivers r, lateral (${largestReach}) x where r.id = $1`,
+    [amberlin.rows[0].id, demoJurisdictionId],
+  );
   const square = await t.db.pool.query(
     `select ST_AsGeoJSON(ST_Multi(ST_Envelope(ST_Buffer(ST_PointOnSurface(ST_GeomFromText($1, 4326))::geography, 60)::geometry)), 7) as g`,
-    [reach],
+    [reach.rows[0].g],
   );
+  // Every river of the region (with scenarios) screens a lease the region holds…
+  const all = await t.db.pool.query(
+    'select id from rivers where jurisdiction_id = $1 and exists (select 1 from scenarios s where s.river_id = rivers.id)',
+    [demoJurisdictionId],
+  );
+  regionRiverIds = all.rows.map((r: { id: string }) => r.id).sort();
+  // …and those whose stored plume reaches that square screen a lease outside every region there.
+  const reaching = await t.db.pool.query(
+    `select distinct f.river_id as id from footprints f join footprint_band_pieces p on p.footprint_id = f.id and p.band_id = 'plume-edge'
+      where f.river_id = any($1::uuid[]) and ST_Intersects(p.geom, ST_SetSRID(ST_GeomFromGeoJSON($2), 4326))`,
+    [regionRiverIds, square.rows[0].g],
+  );
+  reachingRiverIds = reaching.rows.map((r: { id: string }) => r.id).sort();
   inPlumeLease = JSON.parse(square.rows[0].g);
 }, 180_000);
 afterAll(async () => {
@@ -114,30 +130,40 @@ describe('regions', () => {
       const leaseId = await uploadLeases(grower, 'NOAREA-1', inPlumeLease);
       const lease = await t.db.pool.query('select jurisdiction_id from leases where id = $1', [leaseId]);
       expect(lease.rows[0].jurisdiction_id).toBeNull(); // no region claims it…
-      expect(await screenedRivers(leaseId)).toEqual(regionRiverIds); // …yet every river that reaches it screens it
+      expect(await screenedRivers(leaseId)).toEqual(reachingRiverIds); // …yet every river that reaches it screens it
       expect((await grower.get('/api/v1/account/me')).body.jurisdictionId).toBeNull();
       // The first-run path: leases, rivers and records are there, and ratings too.
       const steps = await grower.get('/api/v1/overview/first-run').expect(200);
       expect(steps.body).toMatchObject({ region: null, leases: 1, leasesRated: 1 });
-      expect(steps.body.rivers).toBeGreaterThanOrEqual(regionRiverIds.length);
+      expect(steps.body.rivers).toBeGreaterThanOrEqual(reachingRiverIds.length);
       // Rivers other test files add to the region may have typed scenarios and no record: count those with one.
       const withRecord = await t.db.pool.query(
         'select count(*)::int as n from rivers r where r.id = any($1::uuid[]) and exists (select 1 from flow_records f where f.river_id = r.id and f.active)',
-        [regionRiverIds],
+        [reachingRiverIds],
       );
       expect(withRecord.rows[0].n).toBeGreaterThan(0);
       expect(steps.body.riversWithRecord).toBeGreaterThanOrEqual(withRecord.rows[0].n);
     } finally {
-      await t.db.pool.query('update jurisdictions set area = ST_GeomFromText($2, 4326) where id = $1', [demoJurisdictionId, saved.rows[0].a]);
+      await t.db.pool.query('update jurisdictions set area = ST_GeomFromText($2, 4326) where id = $1', [
+        demoJurisdictionId,
+        saved.rows[0].a,
+      ]);
     }
   });
 
   it("a lease is not screened against another grower's private river", async () => {
     // A grower of no region sets up their own river (with their own copy of the shoreline) at the same place.
     const owner = await newGrower('private-river@brackline.test', null);
-    const coast = await owner.post('/api/v1/imports').field('kind', 'coast').attach('file', demo('coast/fennick-shoreline.geojson'), 'shore.geojson').expect(201);
+    const coast = await owner
+      .post('/api/v1/imports')
+      .field('kind', 'coast')
+      .attach('file', demo('coast/fennick-shoreline.geojson'), 'shore.geojson')
+      .expect(201);
     await owner.post(`/api/v1/imports/${coast.body.id}/confirm`).send({ mapping: {} }).expect(200);
-    const amberlin = await regulator.get(`/api/v1/rivers/${regionRiverIds[0]}`).expect(200);
+    const amberlinId = (
+      await t.db.pool.query("select id from rivers where jurisdiction_id = $1 and name = 'Amberlin River'", [demoJurisdictionId])
+    ).rows[0].id;
+    const amberlin = await regulator.get(`/api/v1/rivers/${amberlinId}`).expect(200);
     const { mouthLongitude, mouthLatitude, outflowAzimuthDeg, mouthWidth, mouthDepth } = amberlin.body.settings;
     const river = await owner
       .post('/api/v1/rivers')
@@ -193,7 +219,12 @@ describe('regions', () => {
     expect((await picked.get('/api/v1/account/me')).body.jurisdictionId).toBe(demoJurisdictionId);
     const bad = await request(t.app)
       .post('/api/v1/account/sign-up')
-      .send({ name: 'x', email: `badregion.${RUN}@brackline.test`, password: 'new-grower-pw-1', regionId: '00000000-0000-4000-8000-000000000000' })
+      .send({
+        name: 'x',
+        email: `badregion.${RUN}@brackline.test`,
+        password: 'new-grower-pw-1',
+        regionId: '00000000-0000-4000-8000-000000000000',
+      })
       .expect(400);
     expect(bad.body.error.message).toMatch(/regionId: no region has this id/);
     await regulator.put('/api/v1/account/region').send({ regionId: null }).expect(403);
@@ -220,17 +251,33 @@ describe('region areas: who sets them and what is refused', () => {
 
   it('the regulator of the jurisdiction sets its area; an admin may too', async () => {
     const before = await demoArea();
-    const res = await regulator.put(`/api/v1/regions/${demoJurisdictionId}/area`).send({ area: square(-38.9, 40.9, -38.3, 41.5) }).expect(200);
+    const res = await regulator
+      .put(`/api/v1/regions/${demoJurisdictionId}/area`)
+      .send({ area: square(-38.9, 40.9, -38.3, 41.5) })
+      .expect(200);
     expect(res.body.area.type).toBe('MultiPolygon');
     // Put the seeded area back through the admin.
     const wkb = await t.db.pool.query('select ST_AsGeoJSON(ST_GeomFromText($1, 4326)) as g', [before]);
-    await admin.put(`/api/v1/regions/${demoJurisdictionId}/area`).send({ area: { type: 'Feature', properties: {}, geometry: JSON.parse(wkb.rows[0].g) } }).expect(200);
+    await admin
+      .put(`/api/v1/regions/${demoJurisdictionId}/area`)
+      .send({ area: { type: 'Feature', properties: {}, geometry: JSON.parse(wkb.rows[0].g) } })
+      .expect(200);
     expect(await demoArea()).toBe(before);
   });
 
   it('refuses a polygon that does not close, and changes nothing', async () => {
     const before = await demoArea();
-    const open = { type: 'Polygon', coordinates: [[[-38.9, 40.9], [-38.3, 40.9], [-38.3, 41.5], [-38.9, 41.5]]] };
+    const open = {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [-38.9, 40.9],
+          [-38.3, 40.9],
+          [-38.3, 41.5],
+          [-38.9, 41.5],
+        ],
+      ],
+    };
     const res = await regulator.put(`/api/v1/regions/${demoJurisdictionId}/area`).send({ area: open }).expect(400);
     expect(res.body.error.message).toMatch(/does not close.*Repeat the first position at the end/);
     expect(await demoArea()).toBe(before);
@@ -241,16 +288,25 @@ describe('region areas: who sets them and what is refused', () => {
     await t.db.pool.query(
       "insert into jurisdictions (slug, name, area) values ('test-neighbour', 'Test Neighbour Authority', ST_Multi(ST_MakeEnvelope(-38.5, 41.0, -38.0, 41.5, 4326)))",
     );
-    const res = await regulator.put(`/api/v1/regions/${demoJurisdictionId}/area`).send({ area: square(-38.9, 40.9, -38.3, 41.5) }).expect(409);
+    const res = await regulator
+      .put(`/api/v1/regions/${demoJurisdictionId}/area`)
+      .send({ area: square(-38.9, 40.9, -38.3, 41.5) })
+      .expect(409);
     expect(res.body.error.message).toMatch(/overlaps the region Test Neighbour Authority/);
     expect(await demoArea()).toBe(before);
   });
 
   it("a regulator of another jurisdiction may not set this one's area; a grower may not either", async () => {
     const other = await t.db.pool.query("select id from jurisdictions where slug = 'test-neighbour'");
-    const res = await regulator.put(`/api/v1/regions/${other.rows[0].id}/area`).send({ area: square(10, 10, 11, 11) }).expect(403);
+    const res = await regulator
+      .put(`/api/v1/regions/${other.rows[0].id}/area`)
+      .send({ area: square(10, 10, 11, 11) })
+      .expect(403);
     expect(res.body.error.message).toMatch(/administrator or a regulator of this jurisdiction/);
     const grower = (await signIn(t.app, 'grower@brackline.test')).agent;
-    await grower.put(`/api/v1/regions/${demoJurisdictionId}/area`).send({ area: square(10, 10, 11, 11) }).expect(403);
+    await grower
+      .put(`/api/v1/regions/${demoJurisdictionId}/area`)
+      .send({ area: square(10, 10, 11, 11) })
+      .expect(403);
   });
 });
