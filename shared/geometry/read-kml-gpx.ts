@@ -283,7 +283,7 @@ function cleanProperties(props: Record<string, unknown> | null | undefined): Rec
 
 /** A GeometryCollection of one kind → its Multi* form (KML MultiGeometry); mixed kinds are kept for the checks to refuse. */
 function flattenCollection(g: Geometry | null): Geometry | null {
-  if (!g || g.type !== 'GeometryCollection') return g;
+  if (g?.type !== 'GeometryCollection') return g;
   const parts = g.geometries.map(flattenCollection).filter((p): p is Geometry => p !== null);
   const types = new Set(parts.map((p) => p.type.replace(/^Multi/, '')));
   if (parts.length === 0) return null;
