@@ -44,6 +44,8 @@ export interface RouteSpec<B extends z.ZodType, Q extends z.ZodType, P extends z
   query?: Q;
   params?: P;
   response?: z.ZodType;
+  /** Media type(s) of a response that is a file rather than JSON (documented with `response` as its schema). */
+  responseContentType?: string | readonly string[];
   successStatus?: number;
   /** Extra error statuses the route can return, for the document. */
   errors?: number[];
@@ -94,7 +96,13 @@ export function defineRoute<
   const responses: Record<string, { description: string; content?: Record<string, { schema: z.ZodType }> }> = {
     [String(spec.successStatus ?? 200)]: {
       description: 'Success',
-      ...(spec.response ? { content: { 'application/json': { schema: spec.response } } } : {}),
+      ...(spec.response
+        ? {
+            content: Object.fromEntries(
+              [spec.responseContentType ?? 'application/json'].flat().map((type) => [type, { schema: spec.response as z.ZodType }]),
+            ),
+          }
+        : {}),
     },
   };
   const errorStatuses = new Set([400, ...(spec.errors ?? [])]);

@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { leaseExportQuerySchema, leaseListQuerySchema, leaseListSchema, leaseSchema, leaseUpdateSchema } from '#shared/schemas/lease';
+import { EXPORT_CONTENT_TYPES, exportFileSchema } from '#shared/schemas/exports';
 import { defineRoute, type RouteContext } from '../http/route';
+import { leasesLayer, sendExport } from '../services/exports.service';
 import { type LeasesService, toCsv } from '../services/leases.service';
 
 const LEASE_READERS = ['grower', 'adviser', 'regulator'] as const;
@@ -22,13 +24,20 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
   defineRoute(ctx, {
     method: 'get',
     path: '/leases/export',
-    summary: 'Export the leases you may see as CSV (attributes and areas) or GeoJSON',
+    summary:
+      'Export the leases you may see as CSV (attributes and areas), GeoJSON, GeoPackage (with a readme table) or KML (with the latest yearly screening, the model version and the cautions)',
     tags: ['leases'],
     access: { roles: LEASE_READERS },
     query: leaseExportQuerySchema,
+    response: exportFileSchema,
+    responseContentType: Object.values(EXPORT_CONTENT_TYPES),
     handler: async ({ user, query, res }) => {
       const rows = await leases.exportRows(user!, query.status);
       const stamp = new Date().toISOString().slice(0, 10);
+      if (query.format === 'gpkg' || query.format === 'kml') {
+        await sendExport(res, leasesLayer(rows), query.format, `brackline-leases-${stamp}`, 'Lease id');
+        return undefined;
+      }
       if (query.format === 'geojson') {
         res.setHeader('Content-Type', 'application/geo+json');
         res.setHeader('Content-Disposition', `attachment; filename="brackline-leases-${stamp}.geojson"`);

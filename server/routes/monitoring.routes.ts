@@ -14,8 +14,10 @@ import {
   stationUploadResultSchema,
 } from '#shared/schemas/monitoring';
 import { formatBytes } from '#shared/geometry/upload-limits';
+import { EXPORT_CONTENT_TYPES, exportFileSchema, exportFormatSchema } from '#shared/schemas/exports';
 import { defineRoute, type RouteContext } from '../http/route';
 import { AppError, ValidationError } from '../lib/errors';
+import { sendExport, stationsLayer } from '../services/exports.service';
 import type { MonitoringService } from '../services/monitoring.service';
 
 /** Who uploads monitoring data: growers, advisers and regulators (admins manage accounts, not data). */
@@ -73,10 +75,26 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   });
 
   defineRoute(ctx, {
+    method: 'get',
+    path: '/stations/export',
+    summary: 'Download the monitoring stations you can see as CSV, GeoJSON, GeoPackage (readme table) or KML (document description)',
+    tags: ['monitoring'],
+    access: { roles: CALIBRATORS },
+    query: z.strictObject({ format: exportFormatSchema }),
+    response: exportFileSchema,
+    responseContentType: Object.values(EXPORT_CONTENT_TYPES),
+    handler: async ({ user, query, res }) => {
+      const items = await monitoring.listStations(user!);
+      await sendExport(res, stationsLayer(items), query.format, `brackline-stations-${new Date().toISOString().slice(0, 10)}`, 'Station');
+      return undefined;
+    },
+  });
+
+  defineRoute(ctx, {
     method: 'post',
     path: '/stations',
     summary:
-      'Upload monitoring stations (points): a zipped shapefile, GeoJSON, or CSV with a code and lon/lat (or x/y with epsg). Same codes are updated.',
+      'Upload monitoring stations (points): a zipped shapefile, GeoJSON, KML/KMZ (pins), GPX (waypoints), GeoPackage, or CSV with a code and lon/lat (or x/y with epsg). Same codes are updated.',
     tags: ['monitoring'],
     access: { roles: UPLOADERS },
     middleware: [oneFile('stations')],

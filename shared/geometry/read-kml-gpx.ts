@@ -132,6 +132,7 @@ export function readKmlOrGpx(
   let text: string;
   let format: XmlReading['format'];
   let label = fileName;
+  let linked: ((href: string) => { text: string; label: string } | undefined) | undefined;
   if (isZip) {
     format = 'kmz';
     const entries = listZipEntries(bytes).filter((e) => !e.isDirectory && !isIgnorableEntry(e.path));
@@ -147,7 +148,12 @@ export function readKmlOrGpx(
       );
     }
     label = `${fileName} (${chosen.path})`;
-    text = decodeUtf8(inflateEntries(bytes, [chosen], limits).get(chosen.path)!, label);
+    const inflated = inflateEntries(bytes, kmls, limits);
+    text = decodeUtf8(inflated.get(chosen.path)!, label);
+    linked = (href) => {
+      const target = kmls.find((e) => e.path === href.replace(/^\.\//, ''));
+      return target && target !== chosen ? { text: decodeUtf8(inflated.get(target.path)!, `${fileName} (${target.path})`), label: `${fileName} (${target.path})` } : undefined;
+    };
   } else {
     text = decodeUtf8(bytes, fileName);
     format = 'kml';
@@ -164,7 +170,7 @@ export function readKmlOrGpx(
       { fileName, detected: root.nodeName },
     );
   }
-  return { format, ...readKml(doc, fileName) };
+  return { format, ...readKml(doc, fileName, linked) };
 }
 
 function decodeUtf8(bytes: Uint8Array, label: string): string {
@@ -191,10 +197,30 @@ function decodeUtf8(bytes: Uint8Array, label: string): string {
 type Tree = ReturnType<typeof kmlWithFolders>;
 type Node = Tree['children'][number];
 
-function readKml(doc: ReturnType<typeof parseXml>, fileName: string): Omit<XmlReading, 'format'> {
+function readKml(
+  doc: ReturnType<typeof parseXml>,
+  fileName: string,
+  linked?: (href: string) => { text: string; label: string } | undefined,
+): Omit<XmlReading, 'format'> {
+  const warnings: string[] = [];
+  const groups = new Map<string, Feature<Geometry | null>[]>();
+  // NetworkLinks are not placemarks: a KMZ may link the KML files it holds (GDAL writes one per layer); links to
+  // the web are not followed (the server fetches nothing).
+  const links = Array.from(doc.getElementsByTagName('NetworkLink'));
+  for (const link of links) {
+    const href = link.getElementsByTagName('href')[0]?.textContent?.trim() ?? '';
+    const inside = href && linked ? linked(href) : undefined;
+    if (inside) {
+      const sub = readKml(parseXml(inside.text, inside.label), fileName);
+      for (const l of sub.layers) groups.set(groups.has(l.name) ? `${l.name} (${href})` : l.name, l.features);
+      warnings.push(...sub.warnings);
+    } else if (href) {
+      warnings.push(`The network link to ${href} was not followed: save the linked places into the file itself if you need them.`);
+    }
+    link.parentNode?.removeChild(link);
+  }
   const tree = kmlWithFolders(doc as unknown as Parameters<typeof kmlWithFolders>[0]);
   const docName = textOf(doc.getElementsByTagName('Document')[0], 'name') ?? fileName.replace(/\.(kml|kmz)$/i, '');
-  const groups = new Map<string, Feature<Geometry | null>[]>();
   const walk = (nodes: Node[], path: string) => {
     for (const node of nodes) {
       if (node.type === 'folder') {
@@ -208,7 +234,6 @@ function readKml(doc: ReturnType<typeof parseXml>, fileName: string): Omit<XmlRe
     }
   };
   walk(tree.children, '');
-  const warnings: string[] = [];
   const layers: XmlLayer[] = [];
   for (const [name, raw] of groups) {
     const features = raw.map((f) => ({ type: 'Feature' as const, properties: cleanProperties(f.properties), geometry: flattenCollection(f.geometry) }));

@@ -85,6 +85,6 @@ export const leaseUpdateSchema = z.strictObject({
 export type LeaseUpdate = z.infer<typeof leaseUpdateSchema>;
 
 export const leaseExportQuerySchema = z.strictObject({
-  format: z.enum(['csv', 'geojson'], { error: 'format must be csv or geojson' }),
+  format: z.enum(['csv', 'geojson', 'gpkg', 'kml'], { error: 'format must be csv, geojson, gpkg (GeoPackage) or kml' }),
   status: leaseStatusSchema.optional(),
 });
