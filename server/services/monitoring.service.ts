@@ -189,7 +189,8 @@ export function createMonitoringService(deps: { db: Database; onRiverChanged?: (
         ['station_id', 'station', 'station_code', 'code', 'site', 'site_id', 'id'].includes(k.toLowerCase()),
       );
       const nameKey = Object.keys(props).find((k) => ['name', 'station_name', 'site_name'].includes(k.toLowerCase()));
-      const code = key ? String(props[key] ?? '').trim() : '';
+      // A KML placemark or GPX waypoint carries its code as its name when it has no code attribute.
+      const code = key ? String(props[key] ?? '').trim() : nameKey ? String(props[nameKey] ?? '').trim() : '';
       const g = f.geometry;
       const point =
         g?.type === 'Point'
