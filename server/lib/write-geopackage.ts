@@ -32,11 +32,13 @@ function geometryTypeName(layer: ExportLayer): string {
  * Writes the GeoPackage.
  *
  * @param layer - features in EPSG:4326 with readable field names.
+ * @param options - lastChange: the gpkg_contents time stamp (default now; fixed for reproducible test files).
  * @returns the .gpkg bytes.
  * @example
  * const bytes = await writeGeoPackage({ name: 'leases', title: 'Leases', fields: ['Lease id'], features, readme: [['Model version', 'brackline-model-1.0.0']] });
  */
-export async function writeGeoPackage(layer: ExportLayer): Promise<Uint8Array> {
+export async function writeGeoPackage(layer: ExportLayer, options: { lastChange?: Date } = {}): Promise<Uint8Array> {
+  const lastChange = (options.lastChange ?? new Date()).toISOString();
   const db = await newSqliteDatabase();
   try {
     db.run('PRAGMA application_id = 1196444487'); // 'GPKG' (GeoPackage 1.3 §1.1.1.1.1)
@@ -77,13 +79,14 @@ export async function writeGeoPackage(layer: ExportLayer): Promise<Uint8Array> {
     }
     insert.free();
     const bounds = layer.features.length ? [minX, minY, maxX, maxY] : [null, null, null, null];
-    db.run('INSERT INTO gpkg_contents (table_name, data_type, identifier, description, min_x, min_y, max_x, max_y, srs_id) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)', [
+    db.run('INSERT INTO gpkg_contents (table_name, data_type, identifier, description, min_x, min_y, max_x, max_y, srs_id, last_change) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)', [
       layer.name,
       'features',
       layer.title,
       layer.readme.map(([k, v]) => `${k}: ${v}`).join(' '),
       ...bounds,
       4326,
+      lastChange,
     ]);
     db.run('INSERT INTO gpkg_geometry_columns VALUES (?, ?, ?, ?, 0, 0)', [layer.name, 'geom', geometryTypeName(layer), 4326]);
 
@@ -91,8 +94,9 @@ export async function writeGeoPackage(layer: ExportLayer): Promise<Uint8Array> {
     const note = db.prepare('INSERT INTO readme ("key", "value") VALUES (?, ?)');
     for (const [k, v] of layer.readme) note.run([k, v]);
     note.free();
-    db.run("INSERT INTO gpkg_contents (table_name, data_type, identifier, description) VALUES ('readme', 'attributes', 'readme', ?)", [
+    db.run("INSERT INTO gpkg_contents (table_name, data_type, identifier, description, last_change) VALUES ('readme', 'attributes', 'readme', ?, ?)", [
       `About the layer ${layer.name}: model version, cautions and what each field means.`,
+      lastChange,
     ]);
     return db.export();
   } finally {

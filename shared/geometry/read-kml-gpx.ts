@@ -236,7 +236,7 @@ function readKml(
   walk(tree.children, '');
   const layers: XmlLayer[] = [];
   for (const [name, raw] of groups) {
-    const features = raw.map((f) => ({ type: 'Feature' as const, properties: cleanProperties(f.properties), geometry: flattenCollection(f.geometry) }));
+    const features = raw.map((f) => ({ type: 'Feature' as const, properties: cleanProperties(f.properties), geometry: dropZeroAltitude(flattenCollection(f.geometry)) }));
     layers.push({ name, crs: WGS84_CRS, fields: fieldsOf(features), features });
   }
   if (layers.length === 0 || layers.every((l) => l.features.length === 0)) {
@@ -362,4 +362,16 @@ function toPolygon(g: Geometry | null): Geometry | null {
     return polys.length === 1 ? { type: 'Polygon', coordinates: polys[0] } : { type: 'MultiPolygon', coordinates: polys };
   }
   return g;
+}
+
+/**
+ * Globe viewers write every KML position as lon,lat,0 (altitude clamped to the ground, KML 2.2 §16.9.1): a zero
+ * third value carries nothing, so it is removed here rather than warned about. Real heights stay for the checks.
+ */
+function dropZeroAltitude(g: Geometry | null): Geometry | null {
+  if (!g) return g;
+  if (g.type === 'GeometryCollection') return { ...g, geometries: g.geometries.map((p) => dropZeroAltitude(p) as Geometry) };
+  const strip = (c: unknown): unknown =>
+    Array.isArray(c) && typeof c[0] === 'number' ? (c.length === 3 && c[2] === 0 ? c.slice(0, 2) : c) : Array.isArray(c) ? c.map(strip) : c;
+  return { ...g, coordinates: strip(g.coordinates) } as Geometry;
 }
