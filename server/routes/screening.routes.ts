@@ -22,6 +22,33 @@ const footprintFields = {
 };
 const needsFlow = (q: { scenarioId?: string; discharge?: number }) => Boolean(q.scenarioId || q.discharge);
 const needsFlowError = { message: 'give scenarioId, or discharge (and optionally durationHours) for a flow of your own', path: ['scenarioId'] };
+/** The footprint as GeoJSON: bands (and the coast path) with the flood and model described in `properties`. */
+const footprintCollectionSchema = z.object({
+  type: z.literal('FeatureCollection'),
+  properties: z
+    .object({
+      footprintId: z.string(),
+      riverId: z.string(),
+      riverName: z.string(),
+      scenarioId: z.string().nullable(),
+      scenarioName: z.string().nullable(),
+      discharge: z.number().describe('m³/s'),
+      durationHours: z.number(),
+      modelVersion: z.string(),
+      plume: z.unknown(),
+      warnings: z.array(z.string()),
+      computedAt: z.string(),
+    })
+    .describe('The flood, the model version and its warnings'),
+  features: z.array(
+    z.object({
+      type: z.literal('Feature'),
+      id: z.string(),
+      properties: z.record(z.string(), z.unknown()).describe('bandId, name, kind, threshold, order'),
+      geometry: z.unknown().describe('GeoJSON geometry in EPSG:4326'),
+    }),
+  ),
+});
 const footprintQuery = z.strictObject(footprintFields).refine(needsFlow, needsFlowError);
 const footprintExportQuery = z.strictObject({ ...footprintFields, format: exportFormatSchema }).refine(needsFlow, needsFlowError);
 
@@ -99,6 +126,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     tags: ['footprints'],
     access: { roles: READERS },
     query: footprintQuery,
+    response: footprintCollectionSchema,
     errors: [404, 422],
     handler: ({ user, query }) => footprintCollection(user!, query),
   });
