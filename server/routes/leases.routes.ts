@@ -53,8 +53,23 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
       res.setHeader('Content-Disposition', `attachment; filename="brackline-leases-${stamp}.csv"`);
       res.send(
         toCsv(
-          ['id', 'lease_id', 'holder', 'species', 'status', 'area_m2', 'area_ha', 'on_land', 'owner', 'created_at'],
-          rows.map((l) => [l.id, l.leaseId, l.holder, l.species, l.status, Math.round(l.areaM2 * 100) / 100, Math.round(l.areaM2 / 100) / 100, l.onLand, l.ownerName, l.createdAt]),
+          // The yearly screening columns come last, so readers of the earlier columns are unaffected.
+          ['id', 'lease_id', 'holder', 'species', 'status', 'area_m2', 'area_ha', 'on_land', 'owner', 'created_at', 'yearly_rating', 'days_below_tolerance_per_year', 'chance_of_exposure_per_year'],
+          rows.map((l) => [
+            l.id,
+            l.leaseId,
+            l.holder,
+            l.species,
+            l.status,
+            Math.round(l.areaM2 * 100) / 100,
+            Math.round(l.areaM2 / 100) / 100,
+            l.onLand,
+            l.ownerName,
+            l.createdAt,
+            l.worstRating ?? null,
+            l.expectedDaysPerYear === null || l.expectedDaysPerYear === undefined ? null : Math.round(l.expectedDaysPerYear * 100) / 100,
+            l.probabilityAnyExposure === null || l.probabilityAnyExposure === undefined ? null : Math.round(l.probabilityAnyExposure * 10_000) / 10_000,
+          ]),
         ),
       );
       return undefined;
