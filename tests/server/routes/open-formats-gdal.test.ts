@@ -101,6 +101,23 @@ describe('uploads of GDAL-written GeoPackage, KML and KMZ give the same leases a
     for (const [id, area] of Object.entries(reference)) expect(Math.abs(got[id] / area - 1), id).toBeLessThan(0.001);
   });
 
+  it('a GeoPackage of two tables (written by ogr2ogr): the preview lists both with their counts and one is picked', async () => {
+    const out = path.join(work, 'two-tables.gpkg');
+    ogr2ogr('-f', 'GPKG', out, path.join(REF, 'source.geojson'), '-nln', 'held', '-where', "LEASE_ID IN ('FB-014', 'FB-015')", '-t_srs', 'EPSG:32630');
+    ogr2ogr('-f', 'GPKG', '-update', out, path.join(REF, 'source.geojson'), '-nln', 'candidates', '-where', "LEASE_ID NOT IN ('FB-014', 'FB-015')", '-t_srs', 'EPSG:2154');
+    const body = (await upload(grower, out)) as Awaited<ReturnType<typeof upload>> & { layers: { name: string; featureCount: number }[] };
+    expect(body.layers.map((l) => [l.name, l.featureCount])).toEqual([
+      ['held', 2],
+      ['candidates', 2],
+    ]);
+    expect(Object.keys(areasById(body)).sort()).toEqual(Object.keys(reference).sort());
+    const picked = await grower.post(`/api/v1/imports/${body.id}/layer`).send({ layer: 'candidates' }).expect(200);
+    expect(picked.body.crs).toMatchObject({ found: true, epsg: 2154 });
+    const got = areasById(picked.body);
+    expect(Object.keys(got).sort()).toEqual(Object.keys(reference).filter((id) => id !== 'FB-014' && id !== 'FB-015').sort());
+    for (const id of Object.keys(got)) expect(Math.abs(got[id] / reference[id] - 1), id).toBeLessThan(0.001);
+  });
+
   it('a KMZ upload confirms into the same leases as the shapefile', async () => {
     const out = path.join(work, 'confirm.kmz');
     ogr2ogr('-f', 'LIBKML', out, path.join(REF, 'source.geojson'));
@@ -110,7 +127,7 @@ describe('uploads of GDAL-written GeoPackage, KML and KMZ give the same leases a
       .send({ mapping: { leaseId: 'LEASE_ID', holder: 'HOLDER', species: 'SPECIES', status: 'STATUS' }, onDuplicate: 'keep' });
     expect(confirm.status, confirm.body?.error?.message).toBe(200);
     expect(confirm.body.created).toBe(4);
-  });
+  }, 180_000);
 });
 
 describe('exports open in GDAL with the right CRS, features and attributes', () => {
