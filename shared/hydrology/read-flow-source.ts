@@ -32,7 +32,7 @@ export class FlowSourceError extends Error {
 
 /** Options of {@link readFlowSource}. */
 export interface FlowSourceOptions {
-  /** The discharge units: 'auto' reads them from the file (WaterML unit of measure, or the CSV header). */
+  /** The discharge units: 'auto' reads them from the file (WaterML unit of measure, or the CSV header), else takes m³/s with a warning. */
   units: FlowUnits | 'auto';
   /** CSV: the date (or date-time) column, by its header name; guessed when absent. */
   dateColumn?: string;
@@ -113,7 +113,7 @@ interface Table {
  * @param options - units, columns, provisional values, daily aggregation.
  * @returns the readings in m³/s (with quality codes), row problems (file line numbers), gaps, the columns and codes.
  * @throws FlowSourceError when the text is not a record (broken XML, no time series, no date or numeric column,
- *   units neither m³/s nor ft³/s, or unknown with units 'auto').
+ *   a unit of measure neither m³/s nor ft³/s). With units 'auto' and no unit in the file, m³/s is assumed and said.
  * @example
  * const r = readFlowSource('# site 0042\ndate,flow (ft3/s),qual\n2021-01-01,100,A\n', { units: 'auto' });
  * r.readings[0].discharge // 2.8316846592 (100 ft³/s × 0.028316846592)
@@ -157,13 +157,17 @@ export function readFlowSource(text: string, options: FlowSourceOptions): FlowSo
   let units: FlowUnits;
   let unitsNote: string;
   if (options.units === 'auto') {
-    if (!fileUnits) {
-      throw new FlowSourceError(
-        `The file does not say whether the flows are in m³/s or ft³/s${columns ? ` (the column “${columns.discharge}” names no unit)` : ''}. Choose the units and upload again.`,
+    if (fileUnits) {
+      units = fileUnits.units;
+      unitsNote = `Flows read in ${UNIT_LABEL[units]} (from ${fileUnits.from})`;
+    } else {
+      // Common practice: a record that names no unit is in SI units; said plainly so a ft³/s file is caught.
+      units = 'm3s';
+      unitsNote = 'Flows taken as m³/s: the file does not name its units (choose ft³/s if they are cubic feet per second)';
+      warnings.push(
+        `The file does not say whether the flows are in m³/s or ft³/s${columns ? ` (the column “${columns.discharge}” names no unit)` : ''}; they were taken as m³/s. If they are ft³/s, choose that unit and upload again.`,
       );
     }
-    units = fileUnits.units;
-    unitsNote = `Flows read in ${UNIT_LABEL[units]} (from ${fileUnits.from})`;
   } else {
     units = options.units;
     unitsNote = `Flows read in ${UNIT_LABEL[units]} (as chosen)`;

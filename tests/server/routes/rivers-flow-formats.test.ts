@@ -75,8 +75,12 @@ ${points}
 
   it('says what is wrong with a record it cannot read', async () => {
     const id = await newRiver('Broken Creek');
-    const noUnits = await adviser.post(`/api/v1/rivers/${id}/flow-records`).set('Content-Type', 'text/csv').send('date,flow\n2021-01-01,3\n').expect(422);
-    expect(noUnits.body.error.message).toMatch(/Choose the units/);
+    const litres = await adviser
+      .post(`/api/v1/rivers/${id}/flow-records`)
+      .set('Content-Type', 'application/xml')
+      .send('<wml2:MeasurementTimeseries xmlns:wml2="http://www.opengis.net/waterml/2.0"><wml2:defaultPointMetadata><wml2:DefaultTVPMeasurementMetadata><wml2:uom code="L/s"/></wml2:DefaultTVPMeasurementMetadata></wml2:defaultPointMetadata></wml2:MeasurementTimeseries>')
+      .expect(422);
+    expect(litres.body.error.message).toMatch(/unit of measure is “L\/s”; Brackline reads flows in m³\/s or ft³\/s/);
     const noSeries = await adviser.post(`/api/v1/rivers/${id}/flow-records?units=m3s`).set('Content-Type', 'application/xml').send('<kml/>').expect(422);
     expect(noSeries.body.error.message).toMatch(/no WaterML 2.0 time series/);
     const badColumn = await adviser

@@ -104,9 +104,13 @@ describe('agency CSV and tab-separated exports', () => {
     expect(() => readFlowSource(text, { units: 'm3s', dischargeColumn: 'Q' })).toThrow(/no column “Q” for the flow\. Its columns are: “Station”, “Date”/);
   });
 
-  it('asks for the units when neither the header nor a comment names them', () => {
-    expect(() => readFlowSource('date,flow\n2021-01-01,3\n', { units: 'auto' })).toThrow(/Choose the units/);
-    expect(readFlowSource('date,flow\n2021-01-01,3\n', { units: 'm3s' }).readings).toHaveLength(1);
+  it('takes m³/s, and says so, when neither the header nor a comment names the units', () => {
+    const r = readFlowSource('date,flow\n2021-01-01,3\n', { units: 'auto' });
+    expect(r.units).toBe('m3s');
+    expect(r.readings[0].discharge).toBe(3);
+    expect(r.unitsNote).toMatch(/taken as m³\/s: the file does not name its units/);
+    expect(r.warnings.join(' ')).toMatch(/column “flow” names no unit.*If they are ft³\/s, choose that unit/);
+    expect(readFlowSource('date,flow\n2021-01-01,3\n', { units: 'm3s' }).warnings).toEqual([]);
   });
 
   it('reads the old two-column record exactly as before', () => {
