@@ -489,7 +489,7 @@ export const screenings = pgTable(
   (t) => [primaryKey({ columns: [t.leaseId, t.scenarioId] }), index('screenings_river_idx').on(t.riverId), index('screenings_rating_idx').on(t.rating)],
 );
 
-/** Across a river's flood-frequency scenarios: expected exposure days per year for a lease. */
+/** Across a river's flood-frequency scenarios: a lease's yearly figures (shared/scoring/annualise.ts, annual-rating.ts). */
 export const leaseAnnualExposure = pgTable(
   'lease_annual_exposure',
   {
@@ -502,6 +502,10 @@ export const leaseAnnualExposure = pgTable(
     expectedDaysPerYear: doublePrecision('expected_days_per_year').notNull(),
     probabilityAnyExposure: doublePrecision('probability_any_exposure').notNull(),
     worstRating: text('worst_rating').notNull(),
+    /** Expected days a year the indicator on the lease is above the standard (the yearly rating's first figure). */
+    closureDaysPerYear: doublePrecision('closure_days_per_year'),
+    /** Chance a year of a salinity event harmful to the lease's species (the second figure); null until re-annualised. */
+    harmfulSalinityChance: doublePrecision('harmful_salinity_chance'),
     details: jsonb('details'),
     computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
   },
@@ -526,6 +530,27 @@ export const screeningRuns = pgTable(
     finishedAt: timestamp('finished_at', { withTimezone: true }),
   },
   (t) => [index('screening_runs_river_idx').on(t.riverId, t.queuedAt)],
+);
+
+/**
+ * One chunk of a screening run's leases, screened by one pg-boss job on any worker process.
+ * The run is done when every chunk is; `worker` records the process that finished (or last took) it.
+ */
+export const screeningRunChunks = pgTable(
+  'screening_run_chunks',
+  {
+    runId: uuid('run_id')
+      .notNull()
+      .references(() => screeningRuns.id, { onDelete: 'cascade' }),
+    chunkNo: integer('chunk_no').notNull(),
+    leaseIds: uuid('lease_ids').array().notNull(),
+    status: text('status', { enum: ['queued', 'running', 'done', 'failed'] }).notNull().default('queued'),
+    worker: text('worker'),
+    attempts: integer('attempts').notNull().default(0),
+    startedAt: timestamp('started_at', { withTimezone: true }),
+    finishedAt: timestamp('finished_at', { withTimezone: true }),
+  },
+  (t) => [primaryKey({ columns: [t.runId, t.chunkNo] })],
 );
 
 // ---------------------------------------------------------------------------------------------

@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Database } from '../db/client';
+import { coastCollectionSchema } from '#shared/schemas/upload';
 import { defineRoute, type RouteContext } from '../http/route';
 
 /** Coastlines a user may use: their own and those shared in their jurisdiction. */
@@ -12,6 +13,7 @@ export function registerCoastRoutes(ctx: RouteContext, db: Database): void {
     tags: ['coasts'],
     access: { roles: ['grower', 'adviser', 'regulator'] },
     query: z.strictObject({ form: z.enum(['line', 'land'], { error: 'form must be line or land' }).optional() }),
+    response: coastCollectionSchema,
     handler: async ({ user, query }) => {
       const rows = await db.execute<{ id: string; name: string; form: string; shared: boolean; geometry: string }>(sql`
         SELECT id, name, form, shared, ST_AsGeoJSON(ST_SimplifyPreserveTopology(geom, 0.0001), 6) AS geometry FROM coasts

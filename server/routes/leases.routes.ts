@@ -1,8 +1,16 @@
 import { z } from 'zod';
-import { leaseExportQuerySchema, leaseListQuerySchema, leaseListSchema, leaseSchema, leaseUpdateSchema } from '#shared/schemas/lease';
-import { EXPORT_CONTENT_TYPES, exportFileSchema } from '#shared/schemas/exports';
+import {
+  LEASE_EXPORT_CSV_COLUMNS,
+  leaseExportCsvSchema,
+  leaseExportGeoJsonSchema,
+  leaseExportQuerySchema,
+  leaseListQuerySchema,
+  leaseListSchema,
+  leaseSchema,
+  leaseUpdateSchema,
+} from '#shared/schemas/lease';
 import { defineRoute, type RouteContext } from '../http/route';
-import { leasesLayer, sendExport } from '../services/exports.service';
+import { exportResponse, leasesLayer, sendExport } from '../services/exports.service';
 import { type LeasesService, toCsv } from '../services/leases.service';
 
 const LEASE_READERS = ['grower', 'adviser', 'regulator'] as const;
@@ -24,13 +32,13 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
   defineRoute(ctx, {
     method: 'get',
     path: '/leases/export',
+    operationId: 'exportLeases',
     summary:
-      'Export the leases you may see as CSV (attributes and areas), GeoJSON, GeoPackage (with a readme table) or KML (with the latest yearly screening, the model version and the cautions)',
+      'Export the leases you may see as CSV (attributes, areas and the yearly rating with its two figures), GeoJSON, GeoPackage (with a readme table) or KML (with the model version and the cautions)',
     tags: ['leases'],
     access: { roles: LEASE_READERS },
     query: leaseExportQuerySchema,
-    response: exportFileSchema,
-    responseContentType: Object.values(EXPORT_CONTENT_TYPES),
+    response: exportResponse('The leases', leaseExportCsvSchema, leaseExportGeoJsonSchema),
     handler: async ({ user, query, res }) => {
       const rows = await leases.exportRows(user!, query.status);
       const stamp = new Date().toISOString().slice(0, 10);
@@ -53,8 +61,7 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
       res.setHeader('Content-Disposition', `attachment; filename="brackline-leases-${stamp}.csv"`);
       res.send(
         toCsv(
-          // The yearly screening columns come last, so readers of the earlier columns are unaffected.
-          ['id', 'lease_id', 'holder', 'species', 'status', 'area_m2', 'area_ha', 'on_land', 'owner', 'created_at', 'yearly_rating', 'days_below_tolerance_per_year', 'chance_of_exposure_per_year'],
+          [...LEASE_EXPORT_CSV_COLUMNS],
           rows.map((l) => [
             l.id,
             l.leaseId,
@@ -66,9 +73,9 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
             l.onLand,
             l.ownerName,
             l.createdAt,
-            l.worstRating ?? null,
-            l.expectedDaysPerYear === null || l.expectedDaysPerYear === undefined ? null : Math.round(l.expectedDaysPerYear * 100) / 100,
-            l.probabilityAnyExposure === null || l.probabilityAnyExposure === undefined ? null : Math.round(l.probabilityAnyExposure * 10_000) / 10_000,
+            l.annualRating ?? null,
+            l.closureDaysPerYear === null ? null : Math.round(l.closureDaysPerYear * 100) / 100,
+            l.harmfulSalinityChancePerYear === null ? null : Math.round(l.harmfulSalinityChancePerYear * 10_000) / 10_000,
           ]),
         ),
       );
@@ -108,6 +115,7 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
     tags: ['leases'],
     access: { roles: ['grower', 'adviser', 'regulator'] },
     params: idParams,
+    response: null,
     errors: [404],
     handler: async ({ user, params }) => {
       await leases.remove(user!, params.id);

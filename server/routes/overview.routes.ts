@@ -11,6 +11,7 @@ export function registerOverviewRoutes(
   defineRoute(ctx, {
     method: 'get',
     path: '/map-settings',
+    operationId: 'getMapSettings',
     summary: 'Whether an optional raster basemap is configured (BASEMAP_URL); null means vector layers only',
     tags: ['overview'],
     access: { roles: 'any' },
@@ -21,6 +22,7 @@ export function registerOverviewRoutes(
   defineRoute(ctx, {
     method: 'get',
     path: '/overview/closures',
+    operationId: 'listNearbyClosures',
     summary: 'Zones closed or waiting to reopen that hold or lie near leases you can see',
     tags: ['overview', 'zones'],
     access: { roles: ['grower', 'adviser', 'regulator'] },
@@ -31,6 +33,7 @@ export function registerOverviewRoutes(
   defineRoute(ctx, {
     method: 'get',
     path: '/overview/zones',
+    operationId: 'listMapZones',
     summary: 'Closure zones (outline, status, trigger flow) of the jurisdictions you work in, for the map',
     tags: ['overview', 'zones'],
     access: { roles: ['grower', 'adviser', 'regulator'] },

@@ -1,13 +1,17 @@
 import express from 'express';
 import { z } from 'zod';
 import {
+  flowRecordSchema,
   flowRecordUploadQuerySchema,
   flowRecordUploadResultSchema,
+  hydrographSchema,
   riverCreateSchema,
   riverSchema,
   riverUpdateSchema,
   scenarioCreateSchema,
+  scenarioPlumeSchema,
   scenarioSchema,
+  screeningRunStartedSchema,
   scenarioUpdateSchema,
 } from '#shared/schemas/river';
 import { defineRoute, type RouteContext } from '../http/route';
@@ -73,6 +77,7 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
   defineRoute(ctx, {
     method: 'post',
     path: '/rivers/:id/flow-records',
+    operationId: 'uploadFlowRecord',
     summary:
       'Upload the gauge record (CSV or tab-separated with # comments and several columns, or WaterML 2.0): fits flood frequency and makes the scenarios',
     tags: ['rivers'],
@@ -97,10 +102,12 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
   defineRoute(ctx, {
     method: 'get',
     path: '/rivers/:id/flow-records',
+    operationId: 'getFlowRecord',
     summary: "The river's active flow record: row problems, gaps, annual peaks, flood-frequency fit, durations and percentiles",
     tags: ['rivers'],
     access: { roles: READERS },
     params: idParams,
+    response: flowRecordSchema,
     errors: [404],
     handler: ({ user, params }) => rivers.flowRecord(user!, params.id),
   });
@@ -108,10 +115,12 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
   defineRoute(ctx, {
     method: 'get',
     path: '/rivers/:id/flow-records/readings',
+    operationId: 'getHydrograph',
     summary: 'The hydrograph, thinned to at most 5 000 points (each keeps its bucket’s highest flow)',
     tags: ['rivers'],
     access: { roles: READERS },
     params: idParams,
+    response: hydrographSchema,
     errors: [404],
     handler: async ({ user, params }) => ({ points: await rivers.readings(user!, params.id) }),
   });
@@ -162,6 +171,7 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
     tags: ['scenarios'],
     access: { roles: READERS },
     params: scenarioParams,
+    response: null,
     errors: [404],
     handler: async ({ user, params }) => {
       await rivers.deleteScenario(user!, params.id);
@@ -176,6 +186,7 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
     tags: ['scenarios'],
     access: { roles: READERS },
     params: scenarioParams,
+    response: scenarioPlumeSchema,
     errors: [404, 422],
     handler: ({ user, params }) => rivers.scenarioPlume(user!, params.id),
   });
@@ -183,10 +194,12 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
   defineRoute(ctx, {
     method: 'post',
     path: '/rivers/:id/screening-runs',
+    operationId: 'startScreeningRun',
     summary: "Re-screen every lease of the river now (normally automatic after a change)",
     tags: ['screenings'],
     access: { roles: ['adviser', 'regulator', 'grower'] },
     params: idParams,
+    response: screeningRunStartedSchema,
     successStatus: 202,
     errors: [404],
     handler: async ({ user, params }) => {

@@ -1,10 +1,19 @@
 import { sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { EXPORT_CONTENT_TYPES, exportFileSchema, exportFormatSchema } from '#shared/schemas/exports';
+import { exportFormatSchema, layerExportCsvSchema, layerExportGeoJsonSchema } from '#shared/schemas/exports';
+import { type AnnualItem, annualListSchema, annualQuerySchema } from '#shared/schemas/annual';
+import { annualRating, compareAnnualWorstFirst } from '#shared/scoring/annual-rating';
 import type { Database } from '../db/client';
-import { type CurrentUser, defineRoute, type RouteContext } from '../http/route';
+import {
+  footprintSchema,
+  leaseSweepSchema,
+  RATINGS,
+  screeningListSchema,
+  screeningRunListSchema,
+} from '#shared/schemas/screening';
+import { BINARY_BODY, type CurrentUser, defineRoute, type RouteContext } from '../http/route';
 import { NotFoundError, ValidationError } from '../lib/errors';
-import { bandsLayer, sendExport } from '../services/exports.service';
+import { bandsLayer, exportResponse, sendExport } from '../services/exports.service';
 import { visibleLeases } from '../services/leases.service';
 import type { RiversService } from '../services/rivers.service';
 import type { ScreeningService } from '../services/screening.service';
@@ -12,7 +21,6 @@ import type { SweepService } from '../services/sweep.service';
 import { leaseTile } from '../db/repositories/tiles.repo';
 
 const READERS = ['grower', 'adviser', 'regulator'] as const;
-const RATINGS = ['low', 'moderate', 'high', 'severe'] as const;
 
 const footprintFields = {
   riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }),
@@ -22,33 +30,6 @@ const footprintFields = {
 };
 const needsFlow = (q: { scenarioId?: string; discharge?: number }) => Boolean(q.scenarioId || q.discharge);
 const needsFlowError = { message: 'give scenarioId, or discharge (and optionally durationHours) for a flow of your own', path: ['scenarioId'] };
-/** The footprint as GeoJSON: bands (and the coast path) with the flood and model described in `properties`. */
-const footprintCollectionSchema = z.object({
-  type: z.literal('FeatureCollection'),
-  properties: z
-    .object({
-      footprintId: z.string(),
-      riverId: z.string(),
-      riverName: z.string(),
-      scenarioId: z.string().nullable(),
-      scenarioName: z.string().nullable(),
-      discharge: z.number().describe('m³/s'),
-      durationHours: z.number(),
-      modelVersion: z.string(),
-      plume: z.unknown(),
-      warnings: z.array(z.string()),
-      computedAt: z.string(),
-    })
-    .describe('The flood, the model version and its warnings'),
-  features: z.array(
-    z.object({
-      type: z.literal('Feature'),
-      id: z.string(),
-      properties: z.record(z.string(), z.unknown()).describe('bandId, name, kind, threshold, order'),
-      geometry: z.unknown().describe('GeoJSON geometry in EPSG:4326'),
-    }),
-  ),
-});
 const footprintQuery = z.strictObject(footprintFields).refine(needsFlow, needsFlowError);
 const footprintExportQuery = z.strictObject({ ...footprintFields, format: exportFormatSchema }).refine(needsFlow, needsFlowError);
 
@@ -122,11 +103,12 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/footprints',
+    operationId: 'getFootprint',
     summary: "A river's plume footprint as GeoJSON (bulge and bands), for a scenario or any flow (built once, then cached)",
     tags: ['footprints'],
     access: { roles: READERS },
     query: footprintQuery,
-    response: footprintCollectionSchema,
+    response: footprintSchema,
     errors: [404, 422],
     handler: ({ user, query }) => footprintCollection(user!, query),
   });
@@ -134,13 +116,13 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/footprints/export',
+    operationId: 'exportFootprintBands',
     summary:
       "Download a river's exposure bands for a scenario or any flow as CSV, GeoJSON, GeoPackage (readme table) or KML (document description), with the model version and the cautions",
     tags: ['footprints'],
     access: { roles: READERS },
     query: footprintExportQuery,
-    response: exportFileSchema,
-    responseContentType: Object.values(EXPORT_CONTENT_TYPES),
+    response: exportResponse("The footprint's bands (and the coast the plume follows)", layerExportCsvSchema, layerExportGeoJsonSchema),
     errors: [404, 422],
     handler: async ({ user, query, res }) => {
       const { format, ...flow } = query;
@@ -159,6 +141,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     tags: ['screenings'],
     access: { roles: READERS },
     query: screeningQuery,
+    response: screeningListSchema,
     handler: async ({ user, query }) => {
       const where = [visibleLeases(user!)];
       if (query.leaseId) where.push(sql`s.lease_id = ${query.leaseId}::uuid`);
@@ -182,20 +165,31 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/screenings/annual',
-    summary: 'Annualised exposure per lease and river: expected days a year below the salinity tolerance and above the indicator standard, and the chance a year of each',
+    operationId: 'listAnnualExposures',
+    summary:
+      'Yearly figures per lease and river (expected closure days a year, chance a year of a harmful salinity event, days below the salinity tolerance) and the yearly rating set from them, worst first',
     tags: ['screenings'],
     access: { roles: READERS },
-    query: z.strictObject({ leaseId: z.uuid().optional(), riverId: z.uuid().optional() }),
+    query: annualQuerySchema,
+    response: annualListSchema,
     handler: async ({ user, query }) => {
-      const rows = await db.execute(sql`
+      const rows = await db.execute<Omit<AnnualItem, 'annualRating'>>(sql`
         SELECT a.lease_id AS "leaseId", l.lease_code AS "leaseCode", a.river_id AS "riverId", r.name AS "riverName",
                a.expected_days_per_year AS "expectedDaysPerYear", a.probability_any_exposure AS "probabilityAnyExposure", a.worst_rating AS "worstRating",
                (a.details->'indicator'->>'expectedDaysPerYear')::float8 AS "indicatorDaysPerYear",
-               (a.details->'indicator'->>'probabilityOfAnyExposure')::float8 AS "probabilityIndicatorAboveStandard", a.details
+               (a.details->'indicator'->>'probabilityOfAnyExposure')::float8 AS "probabilityIndicatorAboveStandard",
+               a.closure_days_per_year AS "closureDaysPerYear", a.harmful_salinity_chance AS "harmfulSalinityChancePerYear", a.details
           FROM lease_annual_exposure a JOIN leases l ON l.id = a.lease_id JOIN rivers r ON r.id = a.river_id
-         WHERE ${visibleLeases(user!)} ${query.leaseId ? sql`AND a.lease_id = ${query.leaseId}::uuid` : sql``} ${query.riverId ? sql`AND a.river_id = ${query.riverId}::uuid` : sql``}
-         ORDER BY l.lease_code`);
-      return { items: rows.rows };
+         WHERE ${visibleLeases(user!)} ${query.leaseId ? sql`AND a.lease_id = ${query.leaseId}::uuid` : sql``} ${query.riverId ? sql`AND a.river_id = ${query.riverId}::uuid` : sql``}`);
+      const items: AnnualItem[] = rows.rows.map((row) => ({
+        ...row,
+        annualRating:
+          row.closureDaysPerYear === null || row.harmfulSalinityChancePerYear === null
+            ? null
+            : annualRating({ closureDaysPerYear: row.closureDaysPerYear, harmfulSalinityChancePerYear: row.harmfulSalinityChancePerYear }),
+      }));
+      items.sort((a, b) => compareAnnualWorstFirst(a, b) || a.leaseCode.localeCompare(b.leaseCode) || a.riverName.localeCompare(b.riverName));
+      return { items };
     },
   });
 
@@ -206,6 +200,8 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     tags: ['screenings'],
     access: { roles: READERS },
     query: z.strictObject({ riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }) }),
+    response: screeningRunListSchema,
+    errors: [404],
     handler: async ({ user, query }) => {
       await rivers.get(user!, query.riverId);
       const rows = await db.execute(sql`
@@ -218,11 +214,13 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/leases/:id/sweep',
+    operationId: 'getLeaseSweep',
     summary: 'Flow sweep for one lease: the river flow at which it enters each band, and the field over it against flow',
     tags: ['screenings'],
     access: { roles: READERS },
     params: z.object({ id: z.uuid({ error: 'id must be a lease id (UUID)' }) }),
     query: z.strictObject({ riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }), steps: z.coerce.number().int().min(10).max(400).default(60) }),
+    response: leaseSweepSchema,
     errors: [404, 422],
     handler: async ({ user, params, query }) => {
       await rivers.get(user!, query.riverId);
@@ -245,6 +243,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/tiles/leases/:z/:x/:y',
+    operationId: 'getLeaseTile',
     summary: 'Leases you may see as Mapbox Vector Tiles (layer "leases": id, lease, status, species, rating at a scenario or worst)',
     tags: ['tiles'],
     access: { roles: READERS },
@@ -253,6 +252,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
       riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }).optional(),
       scenarioId: z.uuid({ error: 'scenarioId must be a scenario id (UUID)' }).optional().describe('Rate each lease at this flood scenario'),
     }),
+    response: { description: 'A Mapbox Vector Tile (empty when nothing is in the tile)', content: { 'application/vnd.mapbox-vector-tile': BINARY_BODY } },
     handler: async ({ user, params, query, res }) => {
       const { z: tz, x, y } = tileXY(params);
       const mvt = await leaseTile(db, user!, tz, x, y, query.riverId, query.scenarioId);
@@ -266,11 +266,14 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/tiles/bands/:z/:x/:y',
+    operationId: 'getBandTile',
     summary: 'The bands of one footprint as Mapbox Vector Tiles (layer "bands")',
     tags: ['tiles'],
     access: { roles: READERS },
     params: tileParams,
     query: z.strictObject({ footprintId: z.uuid({ error: 'footprintId must be a footprint id (UUID)' }) }),
+    response: { description: 'A Mapbox Vector Tile (empty when nothing is in the tile)', content: { 'application/vnd.mapbox-vector-tile': BINARY_BODY } },
+    errors: [404],
     handler: async ({ user, params, query, res }) => {
       const { z: tz, x, y } = tileXY(params);
       const fp = await db.execute<{ river_id: string }>(sql`SELECT river_id FROM footprints WHERE id = ${query.footprintId}::uuid`);

@@ -6,6 +6,7 @@
  * `metadata` member in GeoJSON. CSV stays a plain table (its point columns name the CRS).
  */
 import type { Response } from 'express';
+import { z } from 'zod';
 import { CAUTION_TEXT } from '#shared/cautions';
 import type { ExportLayer, ExportValue } from '#shared/geometry/export-layer';
 import { writeKml } from '#shared/geometry/write-kml';
@@ -14,8 +15,25 @@ import type { Lease } from '#shared/schemas/lease';
 import type { Station } from '#shared/schemas/monitoring';
 import type { Zone } from '#shared/schemas/zones';
 import { EXPORT_CONTENT_TYPES, type ExportFormat } from '#shared/schemas/exports';
+import { BINARY_BODY, type ResponseSpec } from '../http/route';
 import { writeGeoPackage } from '../lib/write-geopackage';
 import { toCsv } from './leases.service';
+
+/**
+ * What an export route answers, for the OpenAPI document: one schema per format's media type (format=csv → text/csv,
+ * geojson → application/geo+json, gpkg → a binary GeoPackage, kml → KML text).
+ */
+export function exportResponse(what: string, csv: z.ZodType, geojson: z.ZodType): Exclude<ResponseSpec, z.ZodType | null> {
+  return {
+    description: `${what} as a file download (Content-Disposition: attachment) in the asked format: CSV, GeoJSON, GeoPackage or KML`,
+    content: {
+      'text/csv': csv,
+      'application/geo+json': geojson,
+      'application/geopackage+sqlite3': { ...BINARY_BODY, description: 'A GeoPackage (SQLite) in EPSG:4326 with a readme table (model version, cautions, what each field means)' },
+      'application/vnd.google-earth.kml+xml': z.string().describe('A KML 2.2 document in WGS 84 whose description carries the readme (model version, cautions, fields)'),
+    },
+  };
+}
 
 const CRS_NOTE = 'EPSG:4326 — WGS 84 longitude and latitude in decimal degrees';
 
@@ -36,7 +54,7 @@ export function readmeOf(title: string, fields: [string, string][], extra: [stri
 
 const round = (v: number | null | undefined, digits: number) => (v === null || v === undefined ? null : Math.round(v * 10 ** digits) / 10 ** digits);
 
-/** Leases with their latest yearly screening (worst rating across rivers, annualised days and chance). */
+/** Leases with their latest yearly screening: the yearly rating and the two figures it is set from (see Lease). */
 export function leasesLayer(rows: Lease[]): ExportLayer {
   const fields: [string, string][] = [
     ['Lease id', 'The lease’s id as uploaded'],
@@ -45,9 +63,12 @@ export function leasesLayer(rows: Lease[]): ExportLayer {
     ['Status', 'held or candidate'],
     ['Area (ha)', 'Area on the WGS 84 ellipsoid, hectares'],
     ['On land', '1 when the outline lies wholly on land according to the coastline (check the file or its CRS)'],
-    ['Yearly rating', 'Worst rating over the flood scenarios of every river that screens the lease (latest screening)'],
-    ['Days a year below tolerance', 'Expected days a year the water over the lease is below the species’ salinity tolerance (latest screening)'],
-    ['Chance of exposure in a year', 'Chance, 0 to 1, that a year brings any such day (a lower bound)'],
+    [
+      'Yearly rating',
+      'low, moderate, high or severe, set from the two figures after it: severe from 30 closure days a year or a 1-in-2 chance, high from 10 days or 1 in 5, moderate from 2 days or 1 in 20, else low (latest screening; empty before screening)',
+    ],
+    ['Closure days a year', 'Expected days a year the faecal indicator on the lease is above the approved-area standard, each flood weighted by how often it happens, added over rivers (at most 365)'],
+    ['Chance of harmful salinity in a year', 'Chance, 0 to 1, that a year brings a salinity event harmful to the lease’s species (rivers taken as independent)'],
     ['Owner', 'The account that holds the lease in Brackline'],
     ['Added', 'When the lease was added (UTC)'],
   ];
@@ -68,9 +89,9 @@ export function leasesLayer(rows: Lease[]): ExportLayer {
           Status: l.status,
           'Area (ha)': round(l.areaM2 / 10_000, 4),
           'On land': l.onLand,
-          'Yearly rating': l.worstRating ?? null,
-          'Days a year below tolerance': round(l.expectedDaysPerYear, 2),
-          'Chance of exposure in a year': round(l.probabilityAnyExposure, 4),
+          'Yearly rating': l.annualRating ?? null,
+          'Closure days a year': round(l.closureDaysPerYear, 2),
+          'Chance of harmful salinity in a year': round(l.harmfulSalinityChancePerYear, 4),
           Owner: l.ownerName,
           Added: l.createdAt,
         } satisfies Record<string, ExportValue>,

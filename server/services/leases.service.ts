@@ -4,6 +4,7 @@
  */
 import { type SQL, sql } from 'drizzle-orm';
 import type { Lease, LeaseListQuery, LeaseUpdate } from '#shared/schemas/lease';
+import { ANNUAL_RATING_CUTS } from '#shared/scoring/annual-rating';
 import type { Database } from '../db/client';
 import type { CurrentUser } from '../http/route';
 import { ForbiddenError, NotFoundError } from '../lib/errors';
@@ -20,14 +21,27 @@ export function visibleLeases(user: CurrentUser, alias = 'l'): SQL {
   return sql`false`;
 }
 
-const SORT_COLUMNS: Record<LeaseListQuery['sort'], string> = {
+/**
+ * shared/scoring/annual-rating.ts's `annualRating` as a SQL expression over two columns, built from the same cut points
+ * (inclusive), so the leases table can sort on the server; NULL when a figure is missing.
+ */
+export function annualRatingSql(days: string, chance: string): string {
+  const steps = ANNUAL_RATING_CUTS.map(
+    (c) => `WHEN ${days} >= ${c.closureDaysPerYear} OR ${chance} >= ${c.harmfulSalinityChancePerYear} THEN '${c.rating}'`,
+  );
+  return `(CASE WHEN ${days} IS NULL OR ${chance} IS NULL THEN NULL ${steps.join(' ')} ELSE 'low' END)`;
+}
+
+const RATING_RANK = (expr: string) => `array_position(ARRAY['low','moderate','high','severe'], ${expr})`;
+
+const SORT_COLUMNS: Record<Exclude<LeaseListQuery['sort'], 'annualRating'>, string> = {
   leaseId: 'l.lease_code',
   holder: 'l.holder',
   species: 'l.species',
   status: 'l.status',
   areaM2: 'l.area_m2',
   createdAt: 'l.created_at',
-  worstRating: "array_position(ARRAY['low','moderate','high','severe'], x.worst_rating)",
+  worstRating: RATING_RANK('x.worst_rating'),
   expectedDaysPerYear: 'x.expected_days',
 };
 
@@ -45,6 +59,9 @@ type LeaseRow = {
   import_id: string | null;
   worst_rating: string | null;
   expected_days: number | null;
+  closure_days: number | null;
+  harmful_chance: number | null;
+  annual_rating: string | null;
   scenario_ratings?: Record<string, Lease['worstRating'] & string> | null;
   probability_any: number | null;
   created_at: Date;
@@ -68,6 +85,9 @@ function toLease(r: LeaseRow): Lease {
     worstRating: (r.worst_rating as Lease['worstRating']) ?? null,
     expectedDaysPerYear: r.expected_days,
     probabilityAnyExposure: r.probability_any,
+    annualRating: (r.annual_rating as Lease['annualRating']) ?? null,
+    closureDaysPerYear: r.closure_days,
+    harmfulSalinityChancePerYear: r.harmful_chance,
     createdAt: new Date(r.created_at).toISOString(),
     updatedAt: new Date(r.updated_at).toISOString(),
     ...(r.geometry ? { geometry: JSON.parse(r.geometry) } : {}),
@@ -75,11 +95,16 @@ function toLease(r: LeaseRow): Lease {
   };
 }
 
-/** Across every river that screens a lease: its worst rating and the largest annualised figures. */
+/**
+ * Across every river that screens a lease: its worst per-flood rating, the largest days below tolerance, and the
+ * yearly figures combined as shared/scoring/annual-rating.ts's `combineAnnualFigures` does (closure days added,
+ * capped at 365; chances as independent rivers, rounded to 12 decimals like it) with the yearly rating set from them.
+ */
 const SELECT_LEASE = (withGeometry: boolean, ratingsRiverId?: string) => sql`
   SELECT l.id, l.lease_code, l.holder, l.species, l.status, l.notes, l.owner_id, u.name AS owner_name,
          l.area_m2, l.on_land, l.import_id, l.created_at, l.updated_at,
-         x.worst_rating, x.expected_days, x.probability_any
+         x.worst_rating, x.expected_days, x.probability_any, x.closure_days, x.harmful_chance,
+         ${sql.raw(annualRatingSql('x.closure_days', 'x.harmful_chance'))} AS annual_rating
          ${withGeometry ? sql`, ST_AsGeoJSON(l.geom, 7) AS geometry` : sql``}
          ${
            ratingsRiverId
@@ -90,7 +115,12 @@ const SELECT_LEASE = (withGeometry: boolean, ratingsRiverId?: string) => sql`
     FROM leases l JOIN users u ON u.id = l.owner_id
     LEFT JOIN LATERAL (
       SELECT (ARRAY['low','moderate','high','severe'])[max(array_position(ARRAY['low','moderate','high','severe'], a.worst_rating))] AS worst_rating,
-             max(a.expected_days_per_year) AS expected_days, max(a.probability_any_exposure) AS probability_any
+             max(a.expected_days_per_year) AS expected_days, max(a.probability_any_exposure) AS probability_any,
+             CASE WHEN count(*) = 0 OR count(*) > count(a.closure_days_per_year) THEN NULL
+                  ELSE least(365, sum(a.closure_days_per_year)) END AS closure_days,
+             CASE WHEN count(*) = 0 OR count(*) > count(a.harmful_salinity_chance) THEN NULL
+                  WHEN count(*) = 1 THEN max(a.harmful_salinity_chance)
+                  ELSE round((1 - exp(sum(ln(greatest(1 - a.harmful_salinity_chance, 1e-300)))))::numeric, 12)::float8 END AS harmful_chance
         FROM lease_annual_exposure a WHERE a.lease_id = l.id) x ON true`;
 
 export function createLeasesService(db: Database, hooks: { onLeasesChanged?: (ids: string[]) => Promise<void> } = {}) {
@@ -105,7 +135,13 @@ export function createLeasesService(db: Database, hooks: { onLeasesChanged?: (id
 
   async function list(user: CurrentUser, q: LeaseListQuery) {
     const where = filters(user, q);
-    const order = sql.raw(`${SORT_COLUMNS[q.sort]} ${q.order === 'desc' ? 'DESC' : 'ASC'} NULLS LAST, l.id`);
+    const dir = q.order === 'desc' ? 'DESC' : 'ASC';
+    // The yearly rating, then closure days, then the chance (the Overview's order when descending).
+    const keys =
+      q.sort === 'annualRating'
+        ? [RATING_RANK(annualRatingSql('x.closure_days', 'x.harmful_chance')), 'x.closure_days', 'x.harmful_chance']
+        : [SORT_COLUMNS[q.sort]];
+    const order = sql.raw(`${keys.map((k) => `${k} ${dir} NULLS LAST`).join(', ')}, l.lease_code, l.id`);
     const rows = await db.execute<LeaseRow>(
       sql`${SELECT_LEASE(q.withGeometry, q.ratingsRiverId)} WHERE ${where} ORDER BY ${order} LIMIT ${q.limit} OFFSET ${q.offset}`,
     );

@@ -8,7 +8,7 @@ import { sql } from 'drizzle-orm';
 import { annualMaxima } from '#shared/hydrology/annual-maxima';
 import { fitFloodFrequency, type FloodFrequencyResult } from '#shared/hydrology/flood-frequency';
 import { floodEvents, typicalDurationForPeak } from '#shared/hydrology/flood-duration';
-import { flowPercentiles } from '#shared/hydrology/flow-percentiles';
+import { flowPercentiles, seasonalScenarioName } from '#shared/hydrology/flow-percentiles';
 import { FlowSourceError, type FlowSourceResult, readFlowSource } from '#shared/hydrology/read-flow-source';
 import { plumeProfiles, riverPlume } from '#shared/physics/river-plume';
 import {
@@ -50,7 +50,7 @@ function toRiver(r: RiverRow): River {
     name: r.name,
     jurisdictionId: r.jurisdiction_id,
     ownerId: r.owner_id,
-    settings: r.settings as unknown as Record<string, unknown>,
+    settings: r.settings,
     defaultsUsed: r.defaults_used,
     version: r.version,
     hasFlowRecord: r.has_record,
@@ -230,7 +230,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
         const events = floodEvents(parsed.readings, p99);
         await t.execute(sql`
           INSERT INTO scenarios (river_id, name, kind, aep, discharge, duration_hours, source)
-          VALUES (${id}::uuid, ${`${season.label} high flow (99th percentile of daily flow)`}, 'seasonal', NULL, ${p99},
+          VALUES (${id}::uuid, ${seasonalScenarioName(season, 99)}, 'seasonal', NULL, ${p99},
                   ${Math.max(24, Math.round(events.medianHours ?? 24))}, ${JSON.stringify({ season: season.label, percentile: 99, recordId })}::jsonb)`);
       }
       await t.execute(sql`UPDATE rivers SET version = version + 1, updated_at = now() WHERE id = ${id}::uuid`);
@@ -287,7 +287,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
 
   async function scenarios(user: CurrentUser, riverId: string): Promise<Scenario[]> {
     await load(user, riverId);
-    const res = await db.execute<{ id: string; river_id: string; name: string; kind: Scenario['kind']; aep: number | null; discharge: number; duration_hours: number; source: unknown }>(sql`
+    const res = await db.execute<{ id: string; river_id: string; name: string; kind: Scenario['kind']; aep: number | null; discharge: number; duration_hours: number; source: Scenario['source'] }>(sql`
       SELECT * FROM scenarios WHERE river_id = ${riverId}::uuid ORDER BY kind, aep DESC NULLS LAST, discharge`);
     return res.rows.map((s) => ({ id: s.id, riverId: s.river_id, name: s.name, kind: s.kind, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, source: s.source }));
   }

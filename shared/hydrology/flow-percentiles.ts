@@ -16,7 +16,7 @@ export interface PercentileValue {
 
 /** Percentiles of the days that fall in some months. */
 export interface FlowPercentileGroup {
-  /** 'Jan' … 'Dec', 'DJF', 'MAM', 'JJA', 'SON' or 'all'. */
+  /** 'Jan' … 'Dec', 'Dec–Feb', 'Mar–May', 'Jun–Aug', 'Sep–Nov' or 'all'. */
   label: string;
   /** The months (1…12) in the group. */
   months: number[];
@@ -31,7 +31,7 @@ export interface FlowPercentiles {
   method: QuantileMethod;
   /** Twelve groups, January first. */
   monthly: FlowPercentileGroup[];
-  /** DJF, MAM, JJA, SON (named by months, so the same in either hemisphere). */
+  /** Dec–Feb, Mar–May, Jun–Aug, Sep–Nov: named by their months, never by a season, so they read right in either hemisphere. */
   seasonal: FlowPercentileGroup[];
   /** The whole record. */
   all: FlowPercentileGroup;
@@ -49,15 +49,44 @@ export interface FlowPercentilesOptions {
 export const DEFAULT_FLOW_PERCENTILES: readonly number[] = [50, 90, 95, 99];
 
 const MONTH_LABELS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+/**
+ * Three-month groups, labelled by their first and last months ("Dec–Feb", with an en dash). A season's name
+ * ("summer") or code ("DJF") would mean opposite months in the two hemispheres; month names do not.
+ */
 const SEASONS: readonly { label: string; months: number[] }[] = [
-  { label: 'DJF', months: [12, 1, 2] },
-  { label: 'MAM', months: [3, 4, 5] },
-  { label: 'JJA', months: [6, 7, 8] },
-  { label: 'SON', months: [9, 10, 11] },
+  { label: 'Dec–Feb', months: [12, 1, 2] },
+  { label: 'Mar–May', months: [3, 4, 5] },
+  { label: 'Jun–Aug', months: [6, 7, 8] },
+  { label: 'Sep–Nov', months: [9, 10, 11] },
 ];
 
 /**
- * Percentiles of daily flow by calendar month, by three-month season (DJF, MAM, JJA, SON) and
+ * The name of a seasonal high-flow scenario, by its months (never a season's name or code).
+ * Source: (c) common practice (names that read the same in both hemispheres).
+ *
+ * @param group - a seasonal group of {@link flowPercentiles} (its label, e.g. 'Dec–Feb')
+ * @param percentile - the percentile of daily flow the scenario takes, 0…100
+ * @returns e.g. 'Dec–Feb high flow (99th percentile of daily flow)'
+ * @example
+ * seasonalScenarioName({ label: 'Dec–Feb' }, 99); // => 'Dec–Feb high flow (99th percentile of daily flow)'
+ */
+export function seasonalScenarioName(group: Pick<FlowPercentileGroup, 'label'>, percentile: number): string {
+  if (!(Number.isFinite(percentile) && percentile >= 0 && percentile <= 100)) {
+    throw new RangeError(`percentile must be between 0 and 100 (got ${String(percentile)})`);
+  }
+  return `${group.label} high flow (${ordinal(percentile)} percentile of daily flow)`;
+}
+
+/** "99th", "1st", "2nd", "3rd", "11th", "92.5th". */
+function ordinal(n: number): string {
+  if (!Number.isInteger(n)) return `${n}th`;
+  const teen = n % 100 >= 11 && n % 100 <= 13;
+  const suffix = teen ? 'th' : (({ 1: 'st', 2: 'nd', 3: 'rd' } as Record<number, string>)[n % 10] ?? 'th');
+  return `${n}${suffix}`;
+}
+
+/**
+ * Percentiles of daily flow by calendar month, by three-month group (Dec–Feb, Mar–May, Jun–Aug, Sep–Nov) and
  * over the whole record. Percentile p is the flow that p % of days are at or below
  * (non-exceedance): p = 99 is a high flow, reached on 1 % of days. The flow-duration "Q95"
  * of low-flow practice (exceeded 95 % of the time) is percentile 5 here. A sub-daily record is
@@ -69,7 +98,7 @@ const SEASONS: readonly { label: string; months: number[] }[] = [
  * @throws RangeError if a percentile is outside 0…100 or the method is unknown
  * @example
  * const r = flowPercentiles(readings, { percentiles: [50, 99] });
- * // r.seasonal[0] => { label: 'DJF', months: [12, 1, 2], days: 2707, percentiles: [{ p: 50, discharge: 41.2 }, ...] }
+ * // r.seasonal[0] => { label: 'Dec–Feb', months: [12, 1, 2], days: 2707, percentiles: [{ p: 50, discharge: 41.2 }, ...] }
  * Source: (c) common practice (percentiles of daily flow; Hazen or Hyndman & Fan type 7
  * quantiles, see empirical-quantile.ts; daily means of sub-daily readings).
  */

@@ -4,6 +4,7 @@
  * schema that documents a file response in the API description.
  */
 import { z } from 'zod';
+import { featureCollectionSchema, featureSchema } from './geojson';
 
 /** Every layer can be downloaded in these formats. */
 export const EXPORT_FORMATS = ['csv', 'geojson', 'gpkg', 'kml'] as const;
@@ -22,7 +23,18 @@ export const EXPORT_CONTENT_TYPES: Record<ExportFormat, string> = {
   kml: 'application/vnd.google-earth.kml+xml',
 };
 
-/** The body of an export response: the file itself (documented, not validated). */
-export const exportFileSchema = z
+/** A value of an exported field (text, number, yes/no, or empty). */
+const exportValueSchema = z.union([z.string(), z.number(), z.boolean(), z.null()]);
+
+/**
+ * format=geojson of a layer export (bands, zones, stations): the features with their readable field names as
+ * properties, and the readme (model version, cautions, CRS, what each field means) as the `metadata` member.
+ */
+export const layerExportGeoJsonSchema = featureCollectionSchema(featureSchema(z.record(z.string(), exportValueSchema))).extend({
+  metadata: z.record(z.string(), z.string()).describe('The readme: title, model version, CRS, export time, cautions and what each field means'),
+});
+
+/** format=csv of a layer export: a header row of the field names, then one row per feature. */
+export const layerExportCsvSchema = z
   .string()
-  .describe('The file: CSV or GeoJSON text, a GeoPackage (EPSG:4326, with a readme table) or KML (WGS 84, with a document description)');
+  .describe('CSV (RFC 4180) with a header row of the readable field names; point layers end with Longitude (WGS 84) and Latitude (WGS 84)');

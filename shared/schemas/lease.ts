@@ -1,5 +1,6 @@
 /** Lease contracts shared by the leases table, the lease page and the API. */
 import { z } from 'zod';
+import { areaGeometrySchema, featureCollectionSchema, featureSchema } from './geojson';
 
 export const leaseStatusSchema = z.enum(['held', 'candidate'], { error: 'status must be "held" or "candidate"' });
 export type LeaseStatus = z.infer<typeof leaseStatusSchema>;
@@ -13,6 +14,7 @@ export const LEASE_SORT_FIELDS = [
   'createdAt',
   'worstRating',
   'expectedDaysPerYear',
+  'annualRating',
 ] as const;
 
 export const leaseListQuerySchema = z.strictObject({
@@ -58,9 +60,23 @@ export const leaseSchema = z.object({
     .describe('Worst rating over every scenario of every river that screens the lease; null before screening'),
   expectedDaysPerYear: z.number().nullable().describe('Expected days a year below the species salinity tolerance (largest over rivers)'),
   probabilityAnyExposure: z.number().nullable().describe('Annual chance of any days below tolerance (largest over rivers)'),
+  annualRating: z
+    .enum(['low', 'moderate', 'high', 'severe'])
+    .nullable()
+    .describe(
+      'Yearly rating from closureDaysPerYear and harmfulSalinityChancePerYear (shared/scoring/annual-rating.ts); null before screening. sort=annualRating orders by it, then closure days, then chance',
+    ),
+  closureDaysPerYear: z
+    .number()
+    .nullable()
+    .describe('Expected days a year the faecal indicator on the lease is above the standard, added over rivers (at most 365)'),
+  harmfulSalinityChancePerYear: z
+    .number()
+    .nullable()
+    .describe("Chance a year of a salinity event harmful to the lease's species, over every river (rivers taken as independent)"),
   createdAt: z.string(),
   updatedAt: z.string(),
-  geometry: z.unknown().optional().describe('GeoJSON MultiPolygon in EPSG:4326'),
+  geometry: areaGeometrySchema.optional().describe('GeoJSON MultiPolygon in EPSG:4326'),
   scenarioRatings: z
     .record(z.string(), z.enum(['low', 'moderate', 'high', 'severe']))
     .optional()
@@ -88,3 +104,27 @@ export const leaseExportQuerySchema = z.strictObject({
   format: z.enum(['csv', 'geojson', 'gpkg', 'kml'], { error: 'format must be csv, geojson, gpkg (GeoPackage) or kml' }),
   status: leaseStatusSchema.optional(),
 });
+
+/** GET /leases/export?format=geojson: the leases as a GeoJSON download (properties as in leaseSchema). */
+export const leaseExportGeoJsonSchema = featureCollectionSchema(featureSchema(leaseSchema.omit({ geometry: true }), areaGeometrySchema));
+
+/**
+ * GET /leases/export?format=csv: RFC 4180 text with these columns. The yearly rating and its two figures come last
+ * (empty before screening), so readers of the earlier columns are unaffected.
+ */
+export const LEASE_EXPORT_CSV_COLUMNS = [
+  'id',
+  'lease_id',
+  'holder',
+  'species',
+  'status',
+  'area_m2',
+  'area_ha',
+  'on_land',
+  'owner',
+  'created_at',
+  'annual_rating',
+  'closure_days_per_year',
+  'harmful_salinity_chance_per_year',
+] as const;
+export const leaseExportCsvSchema = z.string().describe(`CSV (RFC 4180) with a header row: ${LEASE_EXPORT_CSV_COLUMNS.join(', ')}`);

@@ -5,6 +5,7 @@
  * none, and the confirmation that maps attributes to lease fields.
  */
 import { z } from 'zod';
+import { featureCollectionSchema, featureSchema, geometrySchema } from './geojson';
 
 /** What an upload is for. */
 export const uploadKindSchema = z
@@ -139,3 +140,22 @@ export const importConfirmBodySchema = z.strictObject({
 
 /** `{ mapping, onDuplicate? }` confirming an import. */
 export type ImportConfirmBody = z.infer<typeof importConfirmBodySchema>;
+
+/** GET /imports/:id/preview: the staged features (simplified), with their index and what PostGIS found. */
+export const importPreviewSchema = featureCollectionSchema(
+  featureSchema(
+    z
+      .looseObject({
+        _index: z.number().int().describe('Position of the feature in the upload'),
+        _repaired: z.boolean().describe('PostGIS repaired its geometry (ST_MakeValid)'),
+        _onLand: z.boolean().describe('It lies on land polygons'),
+      })
+      .describe("The feature's own attributes as uploaded, plus _index, _repaired and _onLand"),
+    geometrySchema,
+  ),
+);
+
+/** GET /coasts: coastlines (lines or land polygons) as GeoJSON, simplified to about 10 m. */
+export const coastCollectionSchema = featureCollectionSchema(
+  featureSchema(z.object({ id: z.string(), name: z.string(), form: z.enum(['line', 'land']), shared: z.boolean() }), geometrySchema),
+);

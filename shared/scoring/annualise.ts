@@ -6,8 +6,10 @@
  * Expected exposure days per year, (c) derived: if D(p) is the number of exposure days
  * caused by the flood whose annual exceedance probability is p, the expected days in a year
  * are E[D] = ∫₀¹ D(p) dp (the annual maximum flood's exceedance probability is uniform on
- * 0..1). The integral is taken by the trapezoid rule over the scenario points sorted by p,
- * with these end treatments, (c) chosen here:
+ * 0..1). The integral is taken by the trapezoid rule over the scenario points sorted by p, that
+ * is the sum over the AEP bands between neighbouring scenarios of the band's probability mass
+ * (p₂ − p₁) × its days ((D₁ + D₂)/2), as expected annual damage is summed in flood-risk practice
+ * ((c) common practice); each band is one of `segments`. End treatments, (c) chosen here:
  * - rare end, p from 0 to the rarest scenario: D held at the rarest scenario's value
  *   (floods rarer than any scenario are counted as that scenario; a lower bound, since
  *   rarer floods expose at least as much);

@@ -97,7 +97,7 @@ export interface LeaseScenario {
   readonly discharge: number;
   /** Flood duration, days, in (0, 365]. */
   readonly floodDurationDays: number;
-  /** Optional name for typed or seasonal flows ("the spring median flow"). */
+  /** Optional name for typed or seasonal flows ("the Dec–Feb high flow"). */
   readonly name?: string;
 }
 

@@ -5,6 +5,7 @@
  */
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { FeatureCollection } from 'geojson';
+import type { AnnualItem } from '#shared/schemas/annual';
 import type { MapSettings, ZoneMap } from '#shared/schemas/closures';
 import type { Lease } from '#shared/schemas/lease';
 import type { River, Scenario } from '#shared/schemas/river';
@@ -44,18 +45,8 @@ export interface ScreeningRow {
   computedAt: string;
 }
 
-export interface AnnualRow {
-  leaseId: string;
-  leaseCode: string;
-  riverId: string;
-  riverName: string;
-  expectedDaysPerYear: number;
-  probabilityAnyExposure: number;
-  /** Expected days a year the faecal indicator on the lease is above the standard (null before re-screening). */
-  indicatorDaysPerYear: number | null;
-  probabilityIndicatorAboveStandard: number | null;
-  worstRating: ScreeningRow['rating'] | null;
-}
+/** One lease × river of GET /screenings/annual (shared/schemas/annual.ts), worst yearly rating first. */
+export type AnnualRow = AnnualItem;
 
 export interface FootprintProperties {
   footprintId: string;

@@ -13,8 +13,18 @@ describe('a grower reads a lease report and the exposure map', () => {
     const errors = watchErrors(page);
     await signInThroughForm(page, baseUrl, 'grower@brackline.test', DEMO_PASSWORD);
     await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
-    // The overview lists the grower's leases by worst rating.
-    await page.getByRole('table', { name: 'Leases by worst rating' }).waitFor();
+    // The overview lists the grower's leases by their yearly rating, worst first, and says how it is set.
+    const overview = page.getByRole('table', { name: 'Leases by yearly rating' });
+    await overview.waitFor();
+    const yearly = await overview.locator('tbody [data-rating]').evaluateAll((els) => els.map((e) => e.getAttribute('data-rating')));
+    const rank = ['low', 'moderate', 'high', 'severe'];
+    expect(yearly.length).toBeGreaterThan(0);
+    expect([...yearly].sort((a, b) => rank.indexOf(b ?? '') - rank.indexOf(a ?? ''))).toEqual(yearly);
+    await page.getByText('How the yearly rating is set').click();
+    await page
+      .getByRole('list', { name: 'Yearly rating cut points' })
+      .getByText(/^Severe: 30 or more closure days a year/)
+      .waitFor();
     await screenshot(page, 'overview-grower-ratings');
 
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Leases' }).click();

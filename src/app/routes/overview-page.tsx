@@ -1,8 +1,11 @@
 import { useQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
+import { annualRating, combineAnnualFigures, compareAnnualWorstFirst } from '#shared/scoring/annual-rating';
+import type { Rating } from '#shared/scoring/score-lease';
 import { Cautions } from '../../components/ui/cautions';
 import { PageHeader } from '../../components/ui/page-header';
-import { RatingBadge, RatingLegend, ratingRank } from '../../components/ui/rating-badge';
+import { AnnualRatingExplainer, chanceWords, closureDaysWords } from '../../components/ui/annual-rating';
+import { RatingBadge, RatingLegend } from '../../components/ui/rating-badge';
 import { Empty, LoadError, Loading } from '../../components/ui/states';
 import { useMe } from '../../features/account/api/get-me';
 import { type AnnualRow, exposureKeys } from '../../lib/exposure-api';
@@ -19,59 +22,47 @@ const QUESTION = {
 interface LeaseSummary {
   leaseId: string;
   leaseCode: string;
-  worst: AnnualRow['worstRating'];
-  worstRiver: string;
-  expectedDays: number;
-  chance: number;
-  indicatorDays: number | null;
-  indicatorChance: number | null;
+  annualRating: Rating | null;
+  closureDaysPerYear: number | null;
+  harmfulSalinityChancePerYear: number | null;
+  daysBelowTolerance: number;
 }
 
-/** One row per lease: its worst rating over every river, and the yearly figures summed over rivers. */
-function summarise(rows: AnnualRow[]): LeaseSummary[] {
-  const m = new Map<string, LeaseSummary>();
-  for (const r of rows) {
-    const s = m.get(r.leaseId) ?? {
-      leaseId: r.leaseId,
-      leaseCode: r.leaseCode,
-      worst: null,
-      worstRiver: '',
-      expectedDays: 0,
-      chance: 0,
-      indicatorDays: null,
-      indicatorChance: null,
-    };
-    if (ratingRank(r.worstRating) > ratingRank(s.worst)) {
-      s.worst = r.worstRating;
-      s.worstRiver = r.riverName;
-    }
-    s.expectedDays += r.expectedDaysPerYear ?? 0;
-    // Rivers flood independently here: the chance of no exposure is the product over rivers.
-    s.chance = 1 - (1 - s.chance) * (1 - (r.probabilityAnyExposure ?? 0));
-    if (r.indicatorDaysPerYear !== null && r.probabilityIndicatorAboveStandard !== null) {
-      s.indicatorDays = (s.indicatorDays ?? 0) + r.indicatorDaysPerYear;
-      s.indicatorChance = 1 - (1 - (s.indicatorChance ?? 0)) * (1 - r.probabilityIndicatorAboveStandard);
-    }
-    m.set(r.leaseId, s);
+/**
+ * One row per lease: its yearly figures over every river (closure days added, chances combined as independent
+ * rivers, as the server's leases list does) and the yearly rating set from them; worst first.
+ */
+function summariseAnnual(rows: AnnualRow[]): LeaseSummary[] {
+  const byLease = new Map<string, AnnualRow[]>();
+  for (const r of rows) byLease.set(r.leaseId, [...(byLease.get(r.leaseId) ?? []), r]);
+  const out: LeaseSummary[] = [];
+  for (const [leaseId, list] of byLease) {
+    const rated = list.every((r) => r.closureDaysPerYear !== null && r.harmfulSalinityChancePerYear !== null);
+    const figures = rated
+      ? combineAnnualFigures(
+          list.map((r) => ({
+            closureDaysPerYear: r.closureDaysPerYear ?? 0,
+            harmfulSalinityChancePerYear: r.harmfulSalinityChancePerYear ?? 0,
+          })),
+        )
+      : null;
+    out.push({
+      leaseId,
+      leaseCode: list[0].leaseCode,
+      annualRating: figures ? annualRating(figures) : null,
+      closureDaysPerYear: figures?.closureDaysPerYear ?? null,
+      harmfulSalinityChancePerYear: figures?.harmfulSalinityChancePerYear ?? null,
+      daysBelowTolerance: list.reduce((sum, r) => sum + (r.expectedDaysPerYear ?? 0), 0),
+    });
   }
-  return [...m.values()].sort(
-    (a, b) => ratingRank(b.worst) - ratingRank(a.worst) || b.expectedDays - a.expectedDays || a.leaseCode.localeCompare(b.leaseCode),
-  );
-}
-
-function chanceWords(p: number): string {
-  if (p <= 0) return 'Not at any screened flood';
-  if (p >= 0.99) return 'Most years';
-  // 1/p rounds to "1 year in 1" above one half: say it in words instead.
-  if (p > 0.5) return `${fmtNumber(p * 100, 0)}% a year (more years than not)`;
-  return `${fmtNumber(p * 100, p < 0.1 ? 1 : 0)}% a year (about 1 year in ${fmtNumber(1 / p, 0)})`;
+  return out.sort((a, b) => compareAnnualWorstFirst(a, b) || a.leaseCode.localeCompare(b.leaseCode));
 }
 
 function LeasesByRating() {
   const annual = useQuery(exposureKeys.annual());
   if (annual.isPending) return <Loading what="Loading your leases’ ratings…" />;
   if (annual.isError) return <LoadError error={annual.error} retry={() => annual.refetch()} />;
-  const rows = summarise(annual.data.items);
+  const rows = summariseAnnual(annual.data.items);
   if (!rows.length) {
     return (
       <Empty title="No screened leases yet">
@@ -85,16 +76,14 @@ function LeasesByRating() {
   }
   return (
     <div className="overflow-x-auto rounded-lg border border-sand-200 bg-white">
-      <table className="w-full border-collapse text-sm" aria-label="Leases by worst rating">
+      <table className="w-full border-collapse text-sm" aria-label="Leases by yearly rating">
         <thead>
           <tr className="border-b border-sand-200 text-left">
             <th className="p-2">Lease</th>
-            <th className="p-2">Worst rating, any flood</th>
-            <th className="p-2">From</th>
-            <th className="p-2">Expected days a year below tolerance</th>
-            <th className="p-2">Chance a year of salinity below tolerance</th>
-            <th className="p-2">Expected days a year indicator above standard</th>
-            <th className="p-2">Chance a year of indicator above standard</th>
+            <th className="p-2">Yearly rating</th>
+            <th className="p-2">Expected closure days a year</th>
+            <th className="p-2">Chance a year of a harmful salinity event</th>
+            <th className="p-2">Expected days a year below salinity tolerance</th>
           </tr>
         </thead>
         <tbody>
@@ -106,13 +95,11 @@ function LeasesByRating() {
                 </Link>
               </td>
               <td className="p-2">
-                <RatingBadge rating={r.worst} />
+                {r.annualRating ? <RatingBadge rating={r.annualRating} /> : <span className="text-shell-700">Being re-screened</span>}
               </td>
-              <td className="p-2">{r.worstRiver || '—'}</td>
-              <td className="p-2">{fmtNumber(r.expectedDays, r.expectedDays < 10 ? 1 : 0)}</td>
-              <td className="p-2">{chanceWords(r.chance)}</td>
-              <td className="p-2">{r.indicatorDays === null ? '—' : fmtNumber(r.indicatorDays, r.indicatorDays < 10 ? 1 : 0)}</td>
-              <td className="p-2">{r.indicatorChance === null ? '—' : chanceWords(r.indicatorChance)}</td>
+              <td className="p-2">{closureDaysWords(r.closureDaysPerYear)}</td>
+              <td className="p-2">{chanceWords(r.harmfulSalinityChancePerYear)}</td>
+              <td className="p-2">{fmtNumber(r.daysBelowTolerance, r.daysBelowTolerance < 10 ? 1 : 0)}</td>
             </tr>
           ))}
         </tbody>
@@ -218,10 +205,10 @@ export function OverviewPage() {
               <RatingLegend />
             </div>
             <p className="text-xs text-shell-700">
-              The worst rating over every flood scenario of every river, whether from low salinity or from the faecal indicator. The yearly
-              figures weigh each flood by how often it happens: days of salinity below the species’ tolerance, and days the faecal indicator
-              on the lease is above the approved-area standard (14 per 100 mL), counting a flood’s whole duration.
+              Ranked by the yearly rating, set from two figures that weigh each flood by how often it happens: the expected closure days a
+              year and the chance a year of a salinity event harmful to the lease’s species; then by closure days, then by that chance.
             </p>
+            <AnnualRatingExplainer />
             <LeasesByRating />
           </section>
           <section aria-labelledby="closures" className="space-y-2">

@@ -189,11 +189,17 @@ describe('exports open in GDAL with the right CRS, features and attributes', () 
     const list = await grower.get('/api/v1/leases').expect(200);
     const ids = (list.body.items as { leaseId: string }[]).map((l) => l.leaseId);
     const { gpkg, kml } = await checkLayer(grower, '/api/v1/leases/export?', 'leases', 'leases', { count: ids.length, field: 'Lease id', values: ids });
-    const rated = (list.body.items as { leaseId: string; worstRating: string | null }[]).find((l) => l.worstRating);
+    type Rated = { leaseId: string; annualRating: string | null; closureDaysPerYear: number | null; harmfulSalinityChancePerYear: number | null };
+    const rated = (list.body.items as Rated[]).find((l) => l.annualRating);
     expect(rated, 'the demo region screens its leases').toBeDefined();
-    expect(gpkg.find((f) => f['Lease id'] === rated!.leaseId)?.['Yearly rating']).toBe(rated!.worstRating);
-    expect(kml.find((f) => f['Lease id'] === rated!.leaseId)?.['Yearly rating']).toBe(rated!.worstRating);
-    expect(Object.keys(gpkg[0])).toEqual(expect.arrayContaining(['Holder', 'Species', 'Area (ha)', 'Days a year below tolerance']));
+    // The file carries the API's yearly rating and its two figures (GET /leases), rounded to 2 and 4 decimals; read back by GDAL.
+    for (const file of [gpkg, kml]) {
+      const f = file.find((x) => x['Lease id'] === rated!.leaseId)!;
+      expect(f['Yearly rating']).toBe(rated!.annualRating);
+      expect(Number(f['Closure days a year'])).toBeCloseTo(rated!.closureDaysPerYear!, 2);
+      expect(Number(f['Chance of harmful salinity in a year'])).toBeCloseTo(rated!.harmfulSalinityChancePerYear!, 4);
+    }
+    expect(Object.keys(gpkg[0])).toEqual(expect.arrayContaining(['Holder', 'Species', 'Area (ha)', 'Closure days a year', 'Chance of harmful salinity in a year']));
   });
 
   it("a footprint's bands", async () => {

@@ -7,6 +7,7 @@ import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoRegion } from '../../../server/db/seed-demo-region';
+import { createScreeningService } from '../../../server/services/screening.service';
 import { createTestApp, signIn, type TestApp } from '../../helpers/test-app';
 
 let t: TestApp;
@@ -104,7 +105,15 @@ describe('flow records and scenarios', () => {
       .map((s: { aep: number }) => s.aep)
       .sort();
     expect(aeps).toEqual([0.01, 0.02, 0.04, 0.1, 0.2, 0.5]);
-    expect(scenarios.body.items.filter((s: { kind: string }) => s.kind === 'seasonal')).toHaveLength(4);
+    const seasonal = scenarios.body.items.filter((s: { kind: string }) => s.kind === 'seasonal');
+    expect(seasonal).toHaveLength(4);
+    // Named by their months, never by season codes (issue #14 item 6), so they read right in both hemispheres.
+    expect(seasonal.map((s: { name: string }) => s.name).sort()).toEqual([
+      'Dec–Feb high flow (99th percentile of daily flow)',
+      'Jun–Aug high flow (99th percentile of daily flow)',
+      'Mar–May high flow (99th percentile of daily flow)',
+      'Sep–Nov high flow (99th percentile of daily flow)',
+    ]);
   });
 
   it('adds, edits and deletes a typed scenario; fitted ones cannot be deleted', async () => {
@@ -299,5 +308,234 @@ describe('screening the demo region', () => {
       expect(a.indicatorDaysPerYear).toBeGreaterThanOrEqual(0);
       expect(a.indicatorDaysPerYear).toBeLessThanOrEqual(longest + 1e-9);
     }
+  });
+});
+
+describe('the yearly rating (GET /screenings/annual, issue #14 item 4)', () => {
+  // Species limits as science.md §4.1–4.4 suggest them for screening ((c): acute psu / days, chronic psu / days).
+  const LIMITS: Record<string, { acute: number; acuteDays: number; chronic: number; chronicDays: number }> = {
+    'pacific-oyster': { acute: 10, acuteDays: 2, chronic: 15, chronicDays: 7 },
+    'eastern-oyster': { acute: 3, acuteDays: 7, chronic: 8, chronicDays: 14 },
+    'flat-oyster': { acute: 15, acuteDays: 3, chronic: 20, chronicDays: 7 },
+    'blue-mussel': { acute: 5, acuteDays: 5, chronic: 10, chronicDays: 14 },
+    'mediterranean-mussel': { acute: 10, acuteDays: 5, chronic: 15, chronicDays: 7 },
+    'hard-clam': { acute: 10, acuteDays: 3, chronic: 17, chronicDays: 7 },
+    'manila-clam': { acute: 10, acuteDays: 2, chronic: 18, chronicDays: 7 },
+    'bay-scallop': { acute: 20, acuteDays: 2, chronic: 25, chronicDays: 7 },
+    'sea-scallop': { acute: 20, acuteDays: 2, chronic: 25, chronicDays: 7 },
+    'great-scallop': { acute: 20, acuteDays: 2, chronic: 25, chronicDays: 7 },
+  };
+  // The cut points agreed in issue #14 (inclusive), written out here rather than imported.
+  const rate = (days: number, chance: number) =>
+    days >= 30 || chance >= 0.5 ? 'severe' : days >= 10 || chance >= 0.2 ? 'high' : days >= 2 || chance >= 0.05 ? 'moderate' : 'low';
+  const RANK = ['low', 'moderate', 'high', 'severe'];
+  type Screened = {
+    leaseId: string;
+    species: string;
+    scenarioKind: string;
+    aep: number | null;
+    lowestSalinity: number | null;
+    highestIndicator: number | null;
+    daysBelowTolerance: number;
+    durationHours: number;
+  };
+  type Annual = {
+    leaseId: string;
+    leaseCode: string;
+    riverId: string;
+    closureDaysPerYear: number;
+    harmfulSalinityChancePerYear: number;
+    annualRating: string;
+    indicatorDaysPerYear: number;
+  };
+
+  it('computes both figures from the screenings and rates each lease from them, beside the figures', async () => {
+    const annual = (await grower.get(`/api/v1/screenings/annual?riverId=${amberlinId}`).expect(200)).body.items as Annual[];
+    const screened = (await grower.get(`/api/v1/screenings?riverId=${amberlinId}&limit=5000`).expect(200)).body.items as Screened[];
+    expect(annual.length).toBeGreaterThan(0);
+    for (const a of annual) {
+      const rows = screened
+        .filter((r) => r.leaseId === a.leaseId && r.scenarioKind === 'aep' && r.aep !== null)
+        .sort((x, y) => x.aep! - y.aep!);
+      expect(rows.length).toBeGreaterThan(1);
+      // Expected annual days as flood-risk practice computes expected annual damage ((c) common practice): each AEP band
+      // between two scenarios carries its probability mass × the mean of its end days; floods rarer than the rarest
+      // scenario count as it; from the most frequent scenario to AEP 1 the days fall linearly to 0.
+      const days = rows.map((r) => ((r.highestIndicator ?? 0) > 14 ? r.durationHours / 24 : 0));
+      let expected = rows[0].aep! * days[0];
+      for (let i = 1; i < rows.length; i++) expected += (rows[i].aep! - rows[i - 1].aep!) * ((days[i] + days[i - 1]) / 2);
+      expected += ((1 - rows.at(-1)!.aep!) * days.at(-1)!) / 2;
+      expect(a.closureDaysPerYear).toBeCloseTo(expected, 9);
+      expect(a.indicatorDaysPerYear).toBeCloseTo(expected, 9);
+      // A harmful salinity event: under the acute limit for more than its days, or under the chronic limit for more than its days.
+      const l = LIMITS[rows[0].species];
+      expect(l).toBeDefined();
+      const harmful = rows.filter(
+        (r) =>
+          r.lowestSalinity !== null &&
+          ((r.lowestSalinity < l.acute && r.daysBelowTolerance > l.acuteDays) ||
+            (r.lowestSalinity < l.chronic && r.daysBelowTolerance > l.chronicDays)),
+      );
+      expect(a.harmfulSalinityChancePerYear).toBe(harmful.length ? Math.max(...harmful.map((r) => r.aep!)) : 0);
+      expect(a.annualRating).toBe(rate(a.closureDaysPerYear, a.harmfulSalinityChancePerYear));
+    }
+  });
+
+  it('lists the worst yearly rating first, then more closure days, then the higher chance', async () => {
+    const items = (await grower.get('/api/v1/screenings/annual').expect(200)).body.items as Annual[];
+    for (let i = 1; i < items.length; i++) {
+      const [a, b] = [items[i - 1], items[i]];
+      const key = (x: Annual) => [RANK.indexOf(x.annualRating), x.closureDaysPerYear, x.harmfulSalinityChancePerYear];
+      const [ka, kb] = [key(a), key(b)];
+      const firstDiff = ka.findIndex((v, k) => v !== kb[k]);
+      if (firstDiff >= 0) expect(ka[firstDiff]).toBeGreaterThan(kb[firstDiff]);
+    }
+  });
+
+  it('rates and sorts the leases list by the same rule, on the server, with cut points inclusive', async () => {
+    // Set one river's stored figures of a lease at a cut point (or just under), its other rivers' to none, and read the
+    // lease back through the list (which combines rivers on the server) and the annual endpoint.
+    const mine = (await grower.get('/api/v1/screenings/annual').expect(200)).body.items as Annual[];
+    const byLease = new Map<string, Annual[]>();
+    for (const a of mine) byLease.set(a.leaseId, [...(byLease.get(a.leaseId) ?? []), a]);
+    const leases = [...byLease.values()];
+    expect(leases.length).toBeGreaterThanOrEqual(6);
+    const cases: [number, number, string][] = [
+      [30, 0, 'severe'],
+      [0, 0.5, 'severe'],
+      [10, 0.1, 'high'],
+      [0, 0.2, 'high'],
+      [2, 0, 'moderate'],
+      [1.999, 0.049, 'low'],
+    ];
+    const saved = await t.db.pool.query(
+      'SELECT lease_id, river_id, closure_days_per_year, harmful_salinity_chance FROM lease_annual_exposure',
+    );
+    try {
+      for (const [i, [d, p]] of cases.entries()) {
+        await t.db.pool.query(
+          'UPDATE lease_annual_exposure SET closure_days_per_year = 0, harmful_salinity_chance = 0 WHERE lease_id = $1',
+          [leases[i][0].leaseId],
+        );
+        await t.db.pool.query(
+          'UPDATE lease_annual_exposure SET closure_days_per_year = $3, harmful_salinity_chance = $4 WHERE lease_id = $1 AND river_id = $2',
+          [leases[i][0].leaseId, leases[i][0].riverId, d, p],
+        );
+      }
+      const list = (await grower.get('/api/v1/leases?sort=annualRating&order=desc&withGeometry=false&limit=1000').expect(200)).body
+        .items as {
+        id: string;
+        annualRating: string | null;
+        closureDaysPerYear: number | null;
+        harmfulSalinityChancePerYear: number | null;
+      }[];
+      for (const [i, [, , expected]] of cases.entries()) {
+        expect(list.find((l) => l.id === leases[i][0].leaseId)?.annualRating).toBe(expected);
+      }
+      for (const l of list) {
+        if (l.annualRating === null) continue;
+        expect(l.annualRating).toBe(rate(l.closureDaysPerYear!, l.harmfulSalinityChancePerYear!));
+      }
+      const rated = list.filter((l) => l.annualRating !== null);
+      for (let i = 1; i < rated.length; i++) {
+        const [a, b] = [rated[i - 1], rated[i]];
+        const ka = [RANK.indexOf(a.annualRating!), a.closureDaysPerYear!, a.harmfulSalinityChancePerYear!];
+        const kb = [RANK.indexOf(b.annualRating!), b.closureDaysPerYear!, b.harmfulSalinityChancePerYear!];
+        const k = ka.findIndex((v, j) => v !== kb[j]);
+        if (k >= 0) expect(ka[k]).toBeGreaterThan(kb[k]);
+      }
+      // The overview endpoint agrees with the list for the same figures.
+      const annual = (await grower.get('/api/v1/screenings/annual').expect(200)).body.items as Annual[];
+      for (const [i, [, , expected]] of cases.entries()) {
+        expect(annual.find((a) => a.leaseId === leases[i][0].leaseId && a.riverId === leases[i][0].riverId)?.annualRating).toBe(expected);
+      }
+    } finally {
+      for (const r of saved.rows) {
+        await t.db.pool.query(
+          'UPDATE lease_annual_exposure SET closure_days_per_year = $3, harmful_salinity_chance = $4 WHERE lease_id = $1 AND river_id = $2',
+          [r.lease_id, r.river_id, r.closure_days_per_year, r.harmful_salinity_chance],
+        );
+      }
+    }
+  });
+
+  it('works the figures out again at start-up when they were stored before the yearly rating', async () => {
+    const before = (await grower.get(`/api/v1/screenings/annual?riverId=${amberlinId}`).expect(200)).body.items as Annual[];
+    await t.db.pool.query(
+      'UPDATE lease_annual_exposure SET harmful_salinity_chance = NULL, closure_days_per_year = NULL WHERE river_id = $1',
+      [amberlinId],
+    );
+    const stale = (await grower.get(`/api/v1/screenings/annual?riverId=${amberlinId}`).expect(200)).body.items as Annual[];
+    expect(stale.every((a) => a.annualRating === null)).toBe(true);
+    expect(await createScreeningService({ db: t.db.db }).annualiseMissing()).toBe(1);
+    const after = (await grower.get(`/api/v1/screenings/annual?riverId=${amberlinId}`).expect(200)).body.items as Annual[];
+    expect(after.map((a) => [a.leaseId, a.annualRating, a.closureDaysPerYear, a.harmfulSalinityChancePerYear])).toEqual(
+      before.map((a) => [a.leaseId, a.annualRating, a.closureDaysPerYear, a.harmfulSalinityChancePerYear]),
+    );
+  });
+
+  it('is for growers, advisers and regulators only', async () => {
+    const admin = (await signIn(t.app, 'admin@brackline.test')).agent;
+    await admin.get('/api/v1/screenings/annual').expect(403);
+    await request(t.app).get('/api/v1/screenings/annual').expect(401);
+    const bad = await grower.get('/api/v1/screenings/annual?riverId=amberlin').expect(400);
+    expect(JSON.stringify(bad.body)).toContain('riverId');
+  });
+
+  it('is documented in the OpenAPI document with the new fields beside the figures', async () => {
+    const doc = (await request(t.app).get('/api/v1/openapi.json').expect(200)).body;
+    const item = doc.paths['/api/v1/screenings/annual'].get.responses['200'].content['application/json'].schema.properties.items.items;
+    for (const field of ['closureDaysPerYear', 'harmfulSalinityChancePerYear', 'annualRating', 'expectedDaysPerYear', 'worstRating']) {
+      expect(Object.keys(item.properties)).toContain(field);
+    }
+    // null until a lease stored before the yearly rating is re-annualised.
+    expect(item.properties.annualRating.enum).toEqual(['low', 'moderate', 'high', 'severe', null]);
+    const lease = doc.paths['/api/v1/leases'].get.responses['200'].content['application/json'].schema.properties.items.items;
+    expect(Object.keys(lease.properties)).toEqual(
+      expect.arrayContaining(['annualRating', 'closureDaysPerYear', 'harmfulSalinityChancePerYear']),
+    );
+    const sort = doc.paths['/api/v1/leases'].get.parameters.find((p: { name: string }) => p.name === 'sort');
+    expect(sort.schema.enum).toContain('annualRating');
+  });
+});
+
+describe('seasonal scenarios stored under season codes (migration 0015)', () => {
+  it('are renamed by their months, with their stored season and the reasons that quote them', async () => {
+    const river = await adviser
+      .post('/api/v1/rivers')
+      .send({ ...newRiver, name: 'Old Names Creek' })
+      .expect(201);
+    const id = river.body.id as string;
+    await t.db.pool.query(
+      `INSERT INTO scenarios (river_id, name, kind, aep, discharge, duration_hours, source) VALUES
+         ($1, 'DJF high flow (99th percentile of daily flow)', 'seasonal', NULL, 50, 24, '{"season":"DJF","percentile":99}'),
+         ($1, 'SON high flow (99th percentile of daily flow)', 'seasonal', NULL, 40, 24, '{"season":"SON","percentile":99}'),
+         ($1, 'DJF storm I typed', 'manual', NULL, 30, 24, NULL)`,
+      [id],
+    );
+    // A flow record whose seasonal percentiles were stored under the old codes.
+    await t.db.pool.query(`UPDATE flow_records SET percentiles = jsonb_set(percentiles, '{seasonal,0,label}', '"DJF"')
+                            WHERE id = (SELECT id FROM flow_records WHERE percentiles ? 'seasonal' LIMIT 1)`);
+    const migration = readFileSync(path.resolve(import.meta.dirname, '../../../drizzle/0015_rename_seasonal_scenarios.sql'), 'utf8');
+    const client = await t.db.pool.connect();
+    try {
+      for (const statement of migration.split('--> statement-breakpoint')) await client.query(statement);
+    } finally {
+      client.release();
+    }
+    const rows = await t.db.pool.query('SELECT name, kind, source FROM scenarios WHERE river_id = $1 ORDER BY discharge DESC', [id]);
+    expect(rows.rows.map((r) => [r.name, r.source?.season ?? null])).toEqual([
+      ['Dec–Feb high flow (99th percentile of daily flow)', 'Dec–Feb'],
+      ['Sep–Nov high flow (99th percentile of daily flow)', 'Sep–Nov'],
+      ['DJF storm I typed', null], // a typed scenario keeps the name its author gave it
+    ]);
+    const codes = await t.db.pool.query(
+      "SELECT count(*)::int AS n FROM scenarios WHERE kind = 'seasonal' AND name ~ '^(DJF|MAM|JJA|SON) '",
+    );
+    expect(codes.rows[0].n).toBe(0);
+    const labels = await t.db.pool.query(
+      "SELECT DISTINCT jsonb_array_elements(percentiles->'seasonal')->>'label' AS label FROM flow_records WHERE percentiles ? 'seasonal'",
+    );
+    expect(labels.rows.map((r) => r.label).sort()).toEqual(['Dec–Feb', 'Jun–Aug', 'Mar–May', 'Sep–Nov']);
   });
 });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { dateOfDayNumber, dayNumber } from '../../../shared/hydrology/calendar-days';
 import { empiricalQuantile } from '../../../shared/hydrology/empirical-quantile';
-import { dailyMeanFlows, flowPercentiles } from '../../../shared/hydrology/flow-percentiles';
+import { dailyMeanFlows, flowPercentiles, seasonalScenarioName } from '../../../shared/hydrology/flow-percentiles';
 import type { FlowReading } from '../../../shared/hydrology/parse-flow-record';
 
 describe('empiricalQuantile', () => {
@@ -37,13 +37,22 @@ describe('flowPercentiles', () => {
     expect(r.monthly[1].percentiles[0].discharge).toBe(14.5);
   });
   it('seasons are named by months and pool their days', () => {
+    // Named by their months, never by season codes (issue #14 item 6): the same words in both hemispheres.
     expect(r.seasonal.map((s) => [s.label, s.days])).toEqual([
-      ['DJF', 90],
-      ['MAM', 92],
-      ['JJA', 92],
-      ['SON', 91],
+      ['Dec–Feb', 90],
+      ['Mar–May', 92],
+      ['Jun–Aug', 92],
+      ['Sep–Nov', 91],
     ]);
+    for (const s of r.seasonal) expect(s.label).not.toMatch(/DJF|MAM|JJA|SON|summer|winter|spring|autumn|fall/i);
     expect(r.all.days).toBe(365);
+  });
+  it('names seasonal scenarios by their months', () => {
+    expect(seasonalScenarioName(r.seasonal[0], 99)).toBe('Dec–Feb high flow (99th percentile of daily flow)');
+    expect(seasonalScenarioName(r.seasonal[2], 91)).toBe('Jun–Aug high flow (91st percentile of daily flow)');
+    expect(seasonalScenarioName(r.seasonal[1], 92)).toBe('Mar–May high flow (92nd percentile of daily flow)');
+    expect(seasonalScenarioName(r.seasonal[3], 13)).toBe('Sep–Nov high flow (13th percentile of daily flow)');
+    expect(() => seasonalScenarioName(r.seasonal[0], 101)).toThrow(/percentile must be between 0 and 100/);
   });
   it('averages sub-daily readings to daily means first', () => {
     expect(

@@ -8,7 +8,7 @@ import { Notice } from '../../../components/ui/notice';
 import { TextField } from '../../../components/ui/text-field';
 import { api } from '../../../lib/api-client';
 import { signInWithPassword } from '../../../lib/auth-client';
-import { meQueryOptions } from '../../account/api/get-me';
+import { refreshMe } from '../../account/api/get-me';
 
 export function SignUpPage() {
   const navigate = useNavigate();
@@ -20,7 +20,7 @@ export function SignUpPage() {
       await signInWithPassword(values.email, values.password);
     },
     onSuccess: async () => {
-      await queryClient.invalidateQueries({ queryKey: meQueryOptions().queryKey });
+      await refreshMe(queryClient);
       navigate('/', { replace: true });
     },
   });

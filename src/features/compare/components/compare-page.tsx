@@ -1,5 +1,7 @@
 import { useQueries, useQuery } from '@tanstack/react-query';
 import { Link, useSearchParams } from 'react-router-dom';
+import { compareAnnualWorstFirst } from '#shared/scoring/annual-rating';
+import { AnnualRatingCell, AnnualRatingExplainer } from '../../../components/ui/annual-rating';
 import { Button } from '../../../components/ui/button';
 import { Cautions } from '../../../components/ui/cautions';
 import { PageHeader } from '../../../components/ui/page-header';
@@ -10,7 +12,7 @@ import { fmtArea, fmtDays, fmtFlow, fmtIndicator, speciesName } from '../../../l
 
 const MAX = 6;
 
-/** Two to six leases side by side: rating per flood, days below tolerance, highest indicator, area. */
+/** Two to six leases side by side, worst yearly rating first: yearly rating, rating per flood, days below tolerance, highest indicator, area. */
 export function ComparePage() {
   const [params, setParams] = useSearchParams();
   const ids = (params.get('ids') ?? '').split(',').filter(Boolean).slice(0, MAX);
@@ -22,11 +24,29 @@ export function ComparePage() {
     setParams(next.length ? { ids: next.join(',') } : {}, { replace: true });
   };
 
-  const chosen = ids.map((id, i) => ({
-    lease: leases.data?.items.find((l) => l.id === id),
-    rows: screenings[i]?.data?.items ?? [],
-    q: screenings[i],
-  }));
+  // Ranked as on the Overview: worst yearly rating first, then closure days a year, then the chance a year.
+  const chosen = ids
+    .map((id, i) => ({
+      id,
+      lease: leases.data?.items.find((l) => l.id === id),
+      rows: screenings[i]?.data?.items ?? [],
+      q: screenings[i],
+    }))
+    .sort(
+      (a, b) =>
+        compareAnnualWorstFirst(
+          {
+            annualRating: a.lease?.annualRating ?? null,
+            closureDaysPerYear: a.lease?.closureDaysPerYear ?? null,
+            harmfulSalinityChancePerYear: a.lease?.harmfulSalinityChancePerYear ?? null,
+          },
+          {
+            annualRating: b.lease?.annualRating ?? null,
+            closureDaysPerYear: b.lease?.closureDaysPerYear ?? null,
+            harmfulSalinityChancePerYear: b.lease?.harmfulSalinityChancePerYear ?? null,
+          },
+        ) || (a.lease?.leaseId ?? '').localeCompare(b.lease?.leaseId ?? ''),
+    );
 
   const firstOfEach = new Map<string, ScreeningRow>();
   for (const c of chosen) for (const r of c.rows) if (!firstOfEach.has(r.scenarioId)) firstOfEach.set(r.scenarioId, r);
@@ -101,9 +121,9 @@ export function ComparePage() {
                   <th className="p-2">
                     <span className="sr-only">What</span>
                   </th>
-                  {chosen.map((c, i) => (
-                    <th key={ids[i]} className="p-2">
-                      <Link className="text-deep-700 underline" to={`/leases/${ids[i]}`}>
+                  {chosen.map((c) => (
+                    <th key={c.id} className="p-2">
+                      <Link className="text-deep-700 underline" to={`/leases/${c.id}`}>
                         {c.lease?.leaseId ?? 'Unknown lease'}
                       </Link>
                       <span className="block text-xs font-normal text-shell-700">
@@ -118,9 +138,23 @@ export function ComparePage() {
                   <th scope="row" className="p-2 text-left font-semibold">
                     Area
                   </th>
-                  {chosen.map((c, i) => (
-                    <td key={ids[i]} className="p-2">
+                  {chosen.map((c) => (
+                    <td key={c.id} className="p-2">
                       {c.lease ? fmtArea(c.lease.areaM2) : '—'}
+                    </td>
+                  ))}
+                </tr>
+                <tr className="border-b border-shell-100">
+                  <th scope="row" className="p-2 text-left font-semibold">
+                    Yearly rating
+                  </th>
+                  {chosen.map((c) => (
+                    <td key={c.id} className="p-2">
+                      <AnnualRatingCell
+                        rating={c.lease?.annualRating}
+                        closureDaysPerYear={c.lease?.closureDaysPerYear}
+                        harmfulSalinityChancePerYear={c.lease?.harmfulSalinityChancePerYear}
+                      />
                     </td>
                   ))}
                 </tr>
@@ -128,8 +162,8 @@ export function ComparePage() {
                   <th scope="row" className="p-2 text-left font-semibold">
                     Worst rating, any flood
                   </th>
-                  {chosen.map((c, i) => (
-                    <td key={ids[i]} className="p-2">
+                  {chosen.map((c) => (
+                    <td key={c.id} className="p-2">
                       <RatingBadge rating={worstRating(c.rows.map((r) => r.rating))} />
                     </td>
                   ))}
@@ -138,8 +172,8 @@ export function ComparePage() {
                   <th scope="row" className="p-2 text-left font-semibold">
                     Most days below tolerance
                   </th>
-                  {chosen.map((c, i) => (
-                    <td key={ids[i]} className="p-2">
+                  {chosen.map((c) => (
+                    <td key={c.id} className="p-2">
                       {fmtDays(maxOf(c.rows, (r) => r.daysBelowTolerance))}
                     </td>
                   ))}
@@ -148,8 +182,8 @@ export function ComparePage() {
                   <th scope="row" className="p-2 text-left font-semibold">
                     Highest faecal indicator
                   </th>
-                  {chosen.map((c, i) => (
-                    <td key={ids[i]} className="p-2">
+                  {chosen.map((c) => (
+                    <td key={c.id} className="p-2">
                       {fmtIndicator(maxOf(c.rows, (r) => r.highestIndicator))}
                     </td>
                   ))}
@@ -162,10 +196,10 @@ export function ComparePage() {
                         {s.riverName}, {fmtFlow(s.discharge)}
                       </span>
                     </th>
-                    {chosen.map((c, i) => {
+                    {chosen.map((c) => {
                       const r = cell(c.rows, s.scenarioId);
                       return (
-                        <td key={ids[i]} className="p-2 align-top">
+                        <td key={c.id} className="p-2 align-top">
                           {r ? (
                             <>
                               <RatingBadge rating={r.rating} size="sm" />
@@ -185,6 +219,10 @@ export function ComparePage() {
             </table>
           </div>
           {screenings.some((q) => q.isError) && <LoadError error={screenings.find((q) => q.isError)?.error} />}
+          <p className="text-xs text-shell-700">
+            Sites are ranked by their yearly rating, worst first; then by closure days a year, then by the chance a year.
+          </p>
+          <AnnualRatingExplainer />
         </div>
       )}
       <Cautions />

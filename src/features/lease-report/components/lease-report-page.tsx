@@ -4,6 +4,7 @@ import { useMemo, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { LazyVectorMap, type MapLayerSpec, mapImageOf } from '../../../components/map/lazy-vector-map';
 import { Button } from '../../../components/ui/button';
+import { AnnualRatingExplainer, chanceWords, closureDaysWords } from '../../../components/ui/annual-rating';
 import { Cautions } from '../../../components/ui/cautions';
 import { Notice } from '../../../components/ui/notice';
 import { PageHeader } from '../../../components/ui/page-header';
@@ -192,6 +193,21 @@ export function LeaseReportPage() {
         </Empty>
       ) : (
         <>
+          {l.annualRating && (
+            <section aria-labelledby="yearly" className="space-y-2 rounded-lg border border-sand-200 bg-white p-4">
+              <h2 id="yearly" className="text-sm font-semibold text-shell-700">
+                Yearly rating, every river
+              </h2>
+              <div className="flex flex-wrap items-center gap-3">
+                <RatingBadge rating={l.annualRating} size="lg" />
+                <span>
+                  {closureDaysWords(l.closureDaysPerYear)} a year with the faecal indicator above the standard · chance a year of a harmful
+                  salinity event: {chanceWords(l.harmfulSalinityChancePerYear).toLowerCase()}
+                </span>
+              </div>
+              <AnnualRatingExplainer />
+            </section>
+          )}
           <section aria-labelledby="answer" className="rounded-lg border border-sand-200 bg-white p-4">
             <div className="flex flex-wrap items-end justify-between gap-4">
               <div>

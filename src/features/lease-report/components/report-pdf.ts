@@ -1,9 +1,11 @@
 /**
  * The lease report as a PDF built in the browser with jsPDF (loaded only when asked for):
- * the lease, the rating per flood, the reasons, the inputs and the cautions, plus the map
+ * the lease, its yearly rating, the rating per flood, the reasons, the inputs and the cautions, plus the map
  * image when there is one. Text stays uncompressed so it can be searched and checked.
  */
 import type { Lease } from '#shared/schemas/lease';
+import { annualRatingRuleLines } from '#shared/scoring/annual-rating';
+import { chanceWords, closureDaysWords } from '../../../components/ui/annual-rating';
 import { CAUTION_TEXT } from '../../../components/ui/cautions';
 import { RATING_LABEL } from '../../../components/ui/rating-badge';
 import type { ScreeningRow } from '../../../lib/exposure-api';
@@ -84,6 +86,15 @@ export async function buildLeaseReportPdf(input: ReportInput): Promise<Blob> {
     doc.setFont('helvetica', 'bold').setFontSize(9.5).text(plain(k), left, y);
     doc.setFont('helvetica', 'normal').text(plain(v), left + 28, y);
     y += 4.6;
+  }
+
+  // The yearly headline a grower or a lender decides on, with the rule that sets it.
+  if (lease.annualRating) {
+    heading(`Yearly rating, every river: ${RATING_LABEL[lease.annualRating]}`);
+    para(
+      `${closureDaysWords(lease.closureDaysPerYear)} a year with the faecal indicator above the standard (expected); chance a year of a salinity event harmful to ${speciesName(lease.species).toLowerCase()}: ${chanceWords(lease.harmfulSalinityChancePerYear).toLowerCase()}.`,
+    );
+    para(`How the yearly rating is set: ${annualRatingRuleLines().join(' ')}`, 8.5);
   }
 
   if (input.map) {

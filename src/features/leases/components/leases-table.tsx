@@ -14,6 +14,7 @@ import {
 import { useDeferredValue, useId, useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { Lease } from '#shared/schemas/lease';
+import { AnnualRatingCell, AnnualRatingExplainer } from '../../../components/ui/annual-rating';
 import { Button } from '../../../components/ui/button';
 import { RatingBadge } from '../../../components/ui/rating-badge';
 import { Notice } from '../../../components/ui/notice';
@@ -51,9 +52,20 @@ const baseColumns = helper.columns([
     header: 'Area (ha)',
     cell: (c) => (c.getValue() / 10_000).toLocaleString(undefined, { maximumFractionDigits: 2, minimumFractionDigits: 2 }),
   }),
+  helper.accessor('annualRating', {
+    id: 'annualRating',
+    header: 'Yearly rating',
+    cell: (c) => (
+      <AnnualRatingCell
+        rating={c.getValue()}
+        closureDaysPerYear={c.row.original.closureDaysPerYear}
+        harmfulSalinityChancePerYear={c.row.original.harmfulSalinityChancePerYear}
+      />
+    ),
+  }),
   helper.accessor('worstRating', {
     id: 'worstRating',
-    header: 'Worst rating',
+    header: 'Worst rating, any flood',
     cell: (c) =>
       c.getValue() ? <RatingBadge rating={c.getValue()} size="sm" /> : <span className="text-shell-700">Not screened yet</span>,
   }),
@@ -81,7 +93,8 @@ const COLUMN_LABELS: Record<string, string> = {
   species: 'Species',
   status: 'Status',
   areaM2: 'Area',
-  worstRating: 'Worst rating',
+  annualRating: 'Yearly rating',
+  worstRating: 'Worst rating, any flood',
   expectedDaysPerYear: 'Days a year below tolerance',
   ownerName: 'Account',
 };
@@ -100,10 +113,14 @@ function scenarioColumns(scenarios: Scenario[]) {
   );
 }
 
-/** Leases you may see, sorted, filtered and paged on the server so thousands of rows stay quick. */
+/**
+ * Leases you may see, sorted, filtered and paged on the server so thousands of rows stay quick; worst yearly
+ * rating first until the reader picks another column.
+ */
 export function LeasesTable({ canEdit, showAccount = true }: { canEdit: boolean; showAccount?: boolean }) {
   const queryClient = useQueryClient();
-  const [sorting, setSorting] = useState<SortingState>([{ id: 'leaseId', desc: false }]);
+  // Worst yearly rating first (then closure days, then the chance), as on the Overview and Compare.
+  const [sorting, setSorting] = useState<SortingState>([{ id: 'annualRating', desc: true }]);
   const [pagination, setPagination] = useState<PaginationState>({ pageIndex: 0, pageSize: 50 });
   const [search, setSearch] = useState('');
   const [status, setStatus] = useState<'' | 'held' | 'candidate'>('');
@@ -131,7 +148,7 @@ export function LeasesTable({ canEdit, showAccount = true }: { canEdit: boolean;
   const params = {
     q: q || undefined,
     status: status || undefined,
-    sort: sorting[0]?.id ?? 'leaseId',
+    sort: sorting[0]?.id ?? 'annualRating',
     order: sorting[0]?.desc ? ('desc' as const) : ('asc' as const),
     limit: pagination.pageSize,
     offset: pagination.pageIndex * pagination.pageSize,
@@ -379,6 +396,7 @@ export function LeasesTable({ canEdit, showAccount = true }: { canEdit: boolean;
               Next
             </Button>
           </nav>
+          <AnnualRatingExplainer />
         </>
       )}
     </div>

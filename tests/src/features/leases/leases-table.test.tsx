@@ -11,6 +11,23 @@ const LEASES = [
   { id: '3', leaseId: 'FB-003', holder: 'Carrick Mussel Lines', species: 'blue-mussel', status: 'held', areaM2: 14_000 },
 ].map((l) => ({ ...l, notes: null, ownerId: 'u', ownerName: 'Ida Marsh', onLand: false, importId: null, createdAt: '', updatedAt: '' }));
 
+// Yearly figures as the server gives them (rating from the issue #14 cut points: 10 days → High, 0.05 → Moderate).
+const ANNUAL: Record<
+  string,
+  { annualRating: string | null; closureDaysPerYear: number | null; harmfulSalinityChancePerYear: number | null }
+> = {
+  '1': { annualRating: 'moderate', closureDaysPerYear: 0, harmfulSalinityChancePerYear: 0.05 },
+  '2': { annualRating: 'high', closureDaysPerYear: 10, harmfulSalinityChancePerYear: 0 },
+  '3': { annualRating: 'moderate', closureDaysPerYear: 3, harmfulSalinityChancePerYear: 0 },
+};
+const RANK = ['low', 'moderate', 'high', 'severe'];
+/** The server's sort=annualRating: the rating, then closure days, then the chance. */
+const annualKey = (id: string) => [
+  RANK.indexOf(ANNUAL[id].annualRating ?? ''),
+  ANNUAL[id].closureDaysPerYear ?? -1,
+  ANNUAL[id].harmfulSalinityChancePerYear ?? -1,
+];
+
 const RIVERS = { items: [{ id: 'r1', name: 'Amberlin River', hasFlowRecord: true, settings: {}, defaultsUsed: [] }] };
 const SCENARIOS = {
   items: [
@@ -36,12 +53,18 @@ function fakeLeasesApi(url: string) {
   const items = LEASES.filter(
     (l) => (!q || l.leaseId.toLowerCase().includes(q) || l.holder.toLowerCase().includes(q)) && (!status || l.status === status),
   ).sort((a, b) => {
+    if ((sort as string) === 'annualRating') {
+      const [ka, kb] = [annualKey(a.id), annualKey(b.id)];
+      const k = ka.findIndex((v, i) => v !== kb[i]);
+      return (k < 0 ? 0 : ka[k] - kb[k]) * (desc ? -1 : 1);
+    }
     const x = a[sort] as string | number;
     const y = b[sort] as string | number;
     return (x < y ? -1 : x > y ? 1 : 0) * (desc ? -1 : 1);
   });
   const ratingsRiver = u.searchParams.get('ratingsRiverId');
-  return { items: items.map((l) => (ratingsRiver ? { ...l, scenarioRatings: RATINGS[l.id] } : l)), total: items.length };
+  const withAnnual = items.map((l) => ({ ...l, ...ANNUAL[l.id] }));
+  return { items: withAnnual.map((l) => (ratingsRiver ? { ...l, scenarioRatings: RATINGS[l.id] } : l)), total: items.length };
 }
 
 const requests: string[] = [];
@@ -77,9 +100,32 @@ const leaseIdsShown = () =>
     .map((a) => a.textContent);
 
 describe('LeasesTable', () => {
-  it('lists leases sorted by lease id, then by area when the header is clicked', async () => {
+  it('lists leases worst yearly rating first (then closure days, then the chance), with the figures and how the rating is set', async () => {
     renderTable();
-    await waitFor(() => expect(leaseIdsShown()).toEqual(['FB-001', 'FB-002', 'FB-003']));
+    // FB-001 High (10 days); FB-003 Moderate with 3 closure days before FB-002 Moderate with 0 days and a 0.05 chance.
+    await waitFor(() => expect(leaseIdsShown()).toEqual(['FB-001', 'FB-003', 'FB-002']));
+    expect(requests.find((r) => r.includes('/leases?'))).toMatch(/sort=annualRating&order=desc/);
+    const table = screen.getByRole('table', { name: 'Leases' });
+    const header = within(table)
+      .getByRole('button', { name: /Yearly rating/ })
+      .closest('th')!;
+    expect(header.getAttribute('aria-sort')).toBe('descending');
+    const row = within(table).getByRole('link', { name: 'FB-002' }).closest('tr')!;
+    expect(row.querySelector('[data-rating]')?.getAttribute('data-rating')).toBe('moderate');
+    expect(row.textContent).toContain('0 days closed a yearharmful salinity: 1 year in 20');
+    expect(screen.getByText('How the yearly rating is set')).toBeTruthy();
+    expect(within(screen.getByRole('list', { name: 'Yearly rating cut points' })).getAllByRole('listitem')).toHaveLength(4);
+  }, 20_000);
+
+  it('sorts by lease id, then by area when the header is clicked', async () => {
+    renderTable();
+    await waitFor(() => expect(leaseIdsShown()).toHaveLength(3));
+    await act(async () => fireEvent.click(screen.getByRole('button', { name: /Lease id/ })));
+    await waitFor(() => expect(requests.at(-1)).toMatch(/sort=leaseId/));
+    const idOrder = new URL(requests.at(-1)!, 'http://x').searchParams.get('order');
+    await waitFor(() =>
+      expect(leaseIdsShown()).toEqual(idOrder === 'desc' ? ['FB-003', 'FB-002', 'FB-001'] : ['FB-001', 'FB-002', 'FB-003']),
+    );
     const areaButton = screen.getByRole('button', { name: /Area/ });
     await act(async () => fireEvent.click(areaButton));
     await waitFor(() => expect(requests.at(-1)).toMatch(/sort=areaM2/));

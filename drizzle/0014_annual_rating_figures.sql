@@ -1,0 +1,2 @@
+ALTER TABLE "lease_annual_exposure" ADD COLUMN "closure_days_per_year" double precision;--> statement-breakpoint
+ALTER TABLE "lease_annual_exposure" ADD COLUMN "harmful_salinity_chance" double precision;
