@@ -13,6 +13,8 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoRegion } from '../../../server/db/seed-demo-region';
 import { CAUTION_TEXT } from '../../../shared/cautions';
+import { layerExportGeoJsonSchema } from '../../../shared/schemas/exports';
+import { LEASE_EXPORT_CSV_COLUMNS, leaseExportGeoJsonSchema } from '../../../shared/schemas/lease';
 import { createTestApp, signIn, type TestApp } from '../../helpers/test-app';
 
 const REF = path.resolve(import.meta.dirname, '../../fixtures/uploads/reference');
@@ -230,6 +232,23 @@ describe('exports open in GDAL with the right CRS, features and attributes', () 
     await checkLayer(regulator, '/api/v1/stations/export?', 'stations', 'stations', { count: codes.length, field: 'Station', values: codes });
     const csv = await regulator.get('/api/v1/stations/export?format=csv').expect(200);
     expect(csv.text.split('\r\n')[0]).toBe('Station,Name,Samples,First sample,Last sample,Longitude (WGS 84),Latitude (WGS 84)');
+  });
+
+  it('GeoJSON and CSV downloads match the schemas the API document declares for them', async () => {
+    // The export routes write their files themselves, so the response check of defineRoute does not see them: check here.
+    for (const [agent, url] of [
+      [regulator, '/api/v1/zones/export?format=geojson'],
+      [regulator, '/api/v1/stations/export?format=geojson'],
+    ] as const) {
+      const res = await agent.get(url).expect(200);
+      const parsed = layerExportGeoJsonSchema.safeParse(JSON.parse(res.text));
+      expect(parsed.success, `${url}: ${parsed.error?.message}`).toBe(true);
+    }
+    const leases = await grower.get('/api/v1/leases/export?format=geojson').expect(200);
+    const parsed = leaseExportGeoJsonSchema.safeParse(JSON.parse(leases.text));
+    expect(parsed.success, parsed.error?.message).toBe(true);
+    const csv = await grower.get('/api/v1/leases/export?format=csv').expect(200);
+    expect(csv.text.split('\r\n')[0]).toBe(LEASE_EXPORT_CSV_COLUMNS.join(','));
   });
 
   it('refuses an unknown format and other roles', async () => {
