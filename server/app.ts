@@ -22,6 +22,8 @@ import { registerAccountRoutes } from './routes/account.routes';
 import { registerAdminRoutes } from './routes/admin.routes';
 import { registerCalcRoutes } from './routes/calc.routes';
 import { registerCoastRoutes } from './routes/coasts.routes';
+import { registerRegionRoutes } from './routes/regions.routes';
+import { createRegionsService } from './services/regions.service';
 import { registerImportRoutes } from './routes/imports.routes';
 import { registerLeaseRoutes } from './routes/leases.routes';
 import { registerMonitoringRoutes } from './routes/monitoring.routes';
@@ -254,6 +256,7 @@ export function createApp(deps: AppDeps): Express {
   const rivers = createRiversService({ db, onRiverChanged: async (riverId) => void (await jobs.enqueueRiver(riverId)) });
   registerRiverRoutes(ctx, rivers, jobs);
   registerCoastRoutes(ctx, db);
+  registerRegionRoutes(ctx, createRegionsService(db));
   registerInboxRoutes(ctx, createInboxService(db));
   registerOverviewRoutes(ctx, db, { basemapUrl: env.BASEMAP_URL ?? null, basemapAttribution: env.BASEMAP_ATTRIBUTION });
   registerClientRoutes(ctx, createClientsService({ db, mailer, appUrl: env.APP_URL }));

@@ -48,6 +48,11 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
 
   // Leases: each grower's from the region's GeoJSON, owned by that grower's account.
   const region = readJson('region.json');
+  // The region's area (issue #15): the demo bay's box, so a lease saved there joins its grower to the region.
+  if (Array.isArray(region.bbox) && region.bbox.length === 4) {
+    const [w, s, e, n] = region.bbox as number[];
+    await db.execute(sql`UPDATE jurisdictions SET area = ST_Multi(ST_MakeEnvelope(${w}, ${s}, ${e}, ${n}, 4326)) WHERE id = ${jurisdiction.id}::uuid AND area IS NULL`);
+  }
   const leases = readJson('leases/fennick-leases.geojson');
   const growerByName = new Map<string, CurrentUser>();
   for (const g of region.growers as { name: string; email: string }[]) growerByName.set(g.name, await userByEmail(db, g.email));

@@ -19,6 +19,7 @@ import type { CurrentUser } from '../http/route';
 import { AppError, ConflictError, ForbiddenError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors';
 import { openSqlite } from '../lib/sqlite';
 import { recordAudit } from './audit.service';
+import { assignLeasesToRegions } from './regions.service';
 
 /** Who may upload what: growers and advisers their leases; regulators zones; all three coastlines. */
 export const UPLOAD_ROLES: Record<UploadKind, readonly string[]> = {
@@ -329,6 +330,8 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
             created++;
           }
         }
+        // A lease inside a region's area belongs to that region (and brings a grower of no region into it).
+        await assignLeasesToRegions(tx, user, ids);
       } else if (row.kind === 'zone') {
         if (!user.jurisdictionId) throw new ValidationError('Your account has no jurisdiction, so closure zones cannot be saved. Ask an administrator to set it.');
         for (const f of features) {

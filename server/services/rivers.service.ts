@@ -25,6 +25,7 @@ import type { Database } from '../db/client';
 import type { CurrentUser } from '../http/route';
 import { ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors';
 import { recordAudit } from './audit.service';
+import { checkMouthOnBuiltinCoast, mouthError, uploadedCoastNear } from './builtin-coast.service';
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0];
 
@@ -42,6 +43,7 @@ type RiverRow = {
   created_at: Date;
   updated_at: Date;
   has_record: boolean;
+  coast_source: 'upload' | 'traced' | 'builtin' | null;
 };
 
 function toRiver(r: RiverRow): River {
@@ -54,16 +56,23 @@ function toRiver(r: RiverRow): River {
     defaultsUsed: r.defaults_used,
     version: r.version,
     hasFlowRecord: r.has_record,
+    coastSource: r.coast_source ?? null,
     createdAt: new Date(r.created_at).toISOString(),
     updatedAt: new Date(r.updated_at).toISOString(),
   };
 }
 
-/** Rivers a user may read: their own and those of their jurisdiction. */
+/**
+ * Rivers a user may read: their own, those of their jurisdiction, those that screen one of their
+ * leases (issue #15: a river of any jurisdiction whose plume reaches the lease), and a grower's
+ * advisers' rivers (an accepted client link shares them).
+ */
 export function visibleRivers(user: CurrentUser, alias = 'r') {
   const a = sql.raw(alias);
   if (user.role === 'admin') return sql`false`;
-  return sql`(${a}.owner_id = ${user.id} OR (${a}.jurisdiction_id IS NOT NULL AND ${a}.jurisdiction_id = ${user.jurisdictionId}::uuid))`;
+  return sql`(${a}.owner_id = ${user.id} OR (${a}.jurisdiction_id IS NOT NULL AND ${a}.jurisdiction_id = ${user.jurisdictionId}::uuid)
+    OR EXISTS (SELECT 1 FROM screenings vs JOIN leases vl ON vl.id = vs.lease_id WHERE vs.river_id = ${a}.id AND vl.owner_id = ${user.id})
+    OR EXISTS (SELECT 1 FROM client_invitations vc WHERE vc.status = 'accepted' AND vc.adviser_id = ${a}.owner_id AND vc.grower_id = ${user.id}))`;
 }
 
 function ordinalAep(aep: number): string {
@@ -79,7 +88,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
 
   async function load(user: CurrentUser, id: string): Promise<RiverRow> {
     const res = await db.execute<RiverRow>(sql`
-      SELECT r.*, EXISTS (SELECT 1 FROM flow_records f WHERE f.river_id = r.id AND f.active) AS has_record
+      SELECT r.*, EXISTS (SELECT 1 FROM flow_records f WHERE f.river_id = r.id AND f.active) AS has_record, (SELECT c.source FROM coasts c WHERE c.id = r.coast_id) AS coast_source
         FROM rivers r WHERE r.id = ${id}::uuid AND ${visibleRivers(user)}`);
     if (!res.rows[0]) throw new NotFoundError('No river with this id that you can see.');
     return res.rows[0];
@@ -95,7 +104,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
 
   async function list(user: CurrentUser): Promise<River[]> {
     const res = await db.execute<RiverRow>(sql`
-      SELECT r.*, EXISTS (SELECT 1 FROM flow_records f WHERE f.river_id = r.id AND f.active) AS has_record
+      SELECT r.*, EXISTS (SELECT 1 FROM flow_records f WHERE f.river_id = r.id AND f.active) AS has_record, (SELECT c.source FROM coasts c WHERE c.id = r.coast_id) AS coast_source
         FROM rivers r WHERE ${visibleRivers(user)} ORDER BY r.name`);
     return res.rows.map(toRiver);
   }
@@ -104,7 +113,21 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
     return toRiver(await load(user, id));
   }
 
-  async function create(user: CurrentUser, body: RiverCreate, tx?: Tx): Promise<River> {
+  /**
+   * The coast a river at this mouth walks when none is chosen: an uploaded coast the user may use near
+   * the mouth (then null: the usual choice in screening), else the built-in world coastline, which
+   * also checks the mouth is on the coast (refusing a mouth on land or far from any coast).
+   */
+  async function builtinCoastFor(user: CurrentUser, lon: number, lat: number, t: Tx | Database): Promise<string | null> {
+    if (await uploadedCoastNear(t, user, lon, lat)) return null;
+    const check = await checkMouthOnBuiltinCoast(db, lon, lat);
+    if (check.problem) throw mouthError(check);
+    return check.coastId;
+  }
+
+  async function create(user: CurrentUser, input: RiverCreate, tx?: Tx): Promise<River> {
+    const builtin = input.coastId ? null : await builtinCoastFor(user, input.mouthLongitude, input.mouthLatitude, tx ?? db);
+    const body = builtin ? { ...input, coastId: builtin } : input;
     const { settings, defaultsUsed } = applyRiverDefaults(body);
     const run = async (t: Tx | Database) => {
       const res = await t.execute<{ id: string }>(sql`
@@ -123,6 +146,13 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
     const river = await load(user, id);
     requireEditor(user, river);
     const merged = { ...river.settings, ...patch } as RiverCreate;
+    const mouthMoved =
+      (patch.mouthLongitude !== undefined && patch.mouthLongitude !== river.settings.mouthLongitude) ||
+      (patch.mouthLatitude !== undefined && patch.mouthLatitude !== river.settings.mouthLatitude);
+    if (mouthMoved && patch.coastId === undefined && (river.coast_source === 'builtin' || !river.settings.coastId)) {
+      // A moved mouth on the built-in coast is checked again (and may need another window of it).
+      merged.coastId = (await builtinCoastFor(user, merged.mouthLongitude, merged.mouthLatitude, db)) ?? undefined;
+    }
     // A field the user sets stops being a default; the rest keep their flag.
     const stillDefault = river.defaults_used.filter((f) => !(f in patch));
     const { settings } = applyRiverDefaults(merged);

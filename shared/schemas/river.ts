@@ -113,6 +113,8 @@ export const riverSchema = z.object({
   defaultsUsed: z.array(z.string()),
   version: z.number(),
   hasFlowRecord: z.boolean(),
+  /** Where the river's chosen coast comes from ('builtin': the open world coastline; null: the usual choice of uploaded coasts). */
+  coastSource: z.enum(['upload', 'traced', 'builtin']).nullable().optional(),
   createdAt: z.string(),
   updatedAt: z.string(),
 });

@@ -157,5 +157,14 @@ export const importPreviewSchema = featureCollectionSchema(
 
 /** GET /coasts: coastlines (lines or land polygons) as GeoJSON, simplified to about 10 m. */
 export const coastCollectionSchema = featureCollectionSchema(
-  featureSchema(z.object({ id: z.string(), name: z.string(), form: z.enum(['line', 'land']), shared: z.boolean() }), geometrySchema),
+  featureSchema(
+    z.object({
+      id: z.string(),
+      name: z.string(),
+      form: z.enum(['line', 'land']),
+      shared: z.boolean(),
+      source: z.string().describe('Where the coast came from: an upload, a trace on the map, or the built-in world coastline'),
+    }),
+    geometrySchema,
+  ),
 );

@@ -1,3 +1,4 @@
+import { BUILTIN_COAST_ATTRIBUTION } from '#shared/cautions';
 import { useQuery } from '@tanstack/react-query';
 import type { FeatureCollection, Geometry } from 'geojson';
 import { useMemo, useState } from 'react';
@@ -362,6 +363,11 @@ export function ExposureMapPage() {
                   White leases are not screened against this river. Click a lease for its numbers.
                 </p>
               </section>
+              {rivers.data.items.find((r) => r.id === riverId)?.coastSource === 'builtin' && (
+                <p className="text-xs text-shell-700" data-testid="coast-attribution">
+                  {BUILTIN_COAST_ATTRIBUTION}
+                </p>
+              )}
               {fp?.warnings.length ? (
                 <section className="space-y-1">
                   <h2 className="font-semibold text-deep-900">What the model warns about</h2>

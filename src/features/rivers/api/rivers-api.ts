@@ -127,3 +127,17 @@ export function uploadFlowRecord(
     xhr.send(file);
   });
 }
+
+/** The built-in world coastline around a point (loaded on the server on first use) and whether a mouth may go there. */
+export interface BuiltinCoast {
+  coastId: string;
+  attribution: string;
+  caution: string;
+  distanceM: number | null;
+  onLand: boolean;
+  maxMouthDistanceM: number;
+  problem: string | null;
+  line: import('geojson').Geometry;
+  window: import('geojson').Geometry;
+}
+export const getBuiltinCoast = (lon: number, lat: number) => api<BuiltinCoast>(`/coasts/builtin?lon=${lon}&lat=${lat}`);

@@ -220,7 +220,7 @@ function PreviewAndConfirm({
     return (
       <Notice tone="done" title="Saved">
         <p>
-          {confirm.data.created} {words.plural} added{confirm.data.updated ? `, ${confirm.data.updated} replaced` : ''}.{' '}
+          {confirm.data.created} {confirm.data.created === 1 ? words.noun : words.plural} added{confirm.data.updated ? `, ${confirm.data.updated} replaced` : ''}.{' '}
           {result.kind === 'lease' && (
             <Link className="font-semibold underline" to="/leases">
               See them in the leases table
