@@ -10,6 +10,7 @@ import {
   leaseUpdateSchema,
 } from '#shared/schemas/lease';
 import { defineRoute, type RouteContext } from '../http/route';
+import { exportResponse, leasesLayer, sendExport } from '../services/exports.service';
 import { type LeasesService, toCsv } from '../services/leases.service';
 
 const LEASE_READERS = ['grower', 'adviser', 'regulator'] as const;
@@ -32,17 +33,19 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
     method: 'get',
     path: '/leases/export',
     operationId: 'exportLeases',
-    summary: 'Export the leases you may see as CSV (attributes and areas) or GeoJSON',
+    summary:
+      'Export the leases you may see as CSV (attributes, areas and the yearly rating with its two figures), GeoJSON, GeoPackage (with a readme table) or KML (with the model version and the cautions)',
     tags: ['leases'],
     access: { roles: LEASE_READERS },
     query: leaseExportQuerySchema,
-    response: {
-      description: 'A file download (Content-Disposition: attachment): CSV for format=csv, GeoJSON for format=geojson',
-      content: { 'text/csv': leaseExportCsvSchema, 'application/geo+json': leaseExportGeoJsonSchema },
-    },
+    response: exportResponse('The leases', leaseExportCsvSchema, leaseExportGeoJsonSchema),
     handler: async ({ user, query, res }) => {
       const rows = await leases.exportRows(user!, query.status);
       const stamp = new Date().toISOString().slice(0, 10);
+      if (query.format === 'gpkg' || query.format === 'kml') {
+        await sendExport(res, leasesLayer(rows), query.format, `brackline-leases-${stamp}`, 'Lease id');
+        return undefined;
+      }
       if (query.format === 'geojson') {
         res.setHeader('Content-Type', 'application/geo+json');
         res.setHeader('Content-Disposition', `attachment; filename="brackline-leases-${stamp}.geojson"`);
@@ -59,7 +62,21 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
       res.send(
         toCsv(
           [...LEASE_EXPORT_CSV_COLUMNS],
-          rows.map((l) => [l.id, l.leaseId, l.holder, l.species, l.status, Math.round(l.areaM2 * 100) / 100, Math.round(l.areaM2 / 100) / 100, l.onLand, l.ownerName, l.createdAt]),
+          rows.map((l) => [
+            l.id,
+            l.leaseId,
+            l.holder,
+            l.species,
+            l.status,
+            Math.round(l.areaM2 * 100) / 100,
+            Math.round(l.areaM2 / 100) / 100,
+            l.onLand,
+            l.ownerName,
+            l.createdAt,
+            l.annualRating ?? null,
+            l.closureDaysPerYear === null ? null : Math.round(l.closureDaysPerYear * 100) / 100,
+            l.harmfulSalinityChancePerYear === null ? null : Math.round(l.harmfulSalinityChancePerYear * 10_000) / 10_000,
+          ]),
         ),
       );
       return undefined;

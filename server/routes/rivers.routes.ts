@@ -23,6 +23,9 @@ const READERS = ['grower', 'adviser', 'regulator'] as const;
 const idParams = z.object({ id: z.uuid({ error: 'id must be a river id (UUID)' }) });
 const scenarioParams = z.object({ id: z.uuid({ error: 'id must be a scenario id (UUID)' }) });
 
+/** Media types a gauge record may be sent as. */
+const FLOW_RECORD_TYPES = ['text/csv', 'text/plain', 'text/tab-separated-values', 'application/xml', 'text/xml', 'application/waterml+xml'];
+
 export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jobs: ScreeningJobs): void {
   defineRoute(ctx, {
     method: 'get',
@@ -75,19 +78,22 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
     method: 'post',
     path: '/rivers/:id/flow-records',
     operationId: 'uploadFlowRecord',
-    summary: 'Upload the gauge record (CSV: date or date-time, discharge): fits flood frequency and makes the scenarios',
+    summary:
+      'Upload the gauge record (CSV or tab-separated with # comments and several columns, or WaterML 2.0): fits flood frequency and makes the scenarios',
     tags: ['rivers'],
     access: { roles: READERS },
-    middleware: [express.text({ type: ['text/csv', 'text/plain'], limit: '50mb' })],
+    middleware: [express.text({ type: FLOW_RECORD_TYPES, limit: '50mb' })],
     bodyContentType: 'text/csv',
     params: idParams,
     query: flowRecordUploadQuerySchema,
-    body: z.string({ error: 'Send the record as the request body with Content-Type: text/csv' }),
+    body: z.string({ error: 'Send the record as the request body with Content-Type: text/csv (or application/xml for WaterML 2.0)' }),
     response: flowRecordUploadResultSchema,
     errors: [404, 415, 422],
     successStatus: 201,
     handler: async ({ user, params, query, body, req }) => {
-      if (!req.is(['text/csv', 'text/plain'])) throw new UnsupportedMediaTypeError('Send the gauge record as CSV text with the header Content-Type: text/csv.');
+      if (!req.is(FLOW_RECORD_TYPES)) {
+        throw new UnsupportedMediaTypeError('Send the gauge record as text with the header Content-Type: text/csv (CSV) or application/xml (WaterML 2.0).');
+      }
       const fileName = typeof req.headers['x-file-name'] === 'string' ? req.headers['x-file-name'] : undefined;
       return rivers.uploadFlowRecord(user!, params.id, body, { ...query, fileName });
     },

@@ -23,7 +23,9 @@ import {
   zoneSchema,
   zoneUpdateSchema,
 } from '#shared/schemas/zones';
+import { exportFormatSchema, layerExportCsvSchema, layerExportGeoJsonSchema } from '#shared/schemas/exports';
 import { defineRoute, type RouteContext } from '../http/route';
+import { exportResponse, sendExport, zonesLayer } from '../services/exports.service';
 import type { ZonesService } from '../services/zones.service';
 
 const REGULATOR = ['regulator'] as const;
@@ -39,6 +41,23 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
     query: z.strictObject({ withGeometry: z.enum(['true', 'false'], { error: 'withGeometry must be true or false' }).default('false') }),
     response: zoneListSchema,
     handler: ({ user, query }) => zones.list(user!, query.withGeometry === 'true'),
+  });
+
+  // Declared before /zones/:id so "export" is not taken for an id.
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/zones/export',
+    operationId: 'exportZones',
+    summary: 'Download the closure zones of your jurisdiction as CSV, GeoJSON, GeoPackage (readme table) or KML (document description)',
+    tags: ['zones'],
+    access: { roles: REGULATOR },
+    query: z.strictObject({ format: exportFormatSchema }),
+    response: exportResponse('The closure zones', layerExportCsvSchema, layerExportGeoJsonSchema),
+    handler: async ({ user, query, res }) => {
+      const { items } = await zones.list(user!, true);
+      await sendExport(res, zonesLayer(items), query.format, `brackline-closure-zones-${new Date().toISOString().slice(0, 10)}`, 'Zone');
+      return undefined;
+    },
   });
 
   defineRoute(ctx, {

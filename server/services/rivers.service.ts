@@ -9,7 +9,7 @@ import { annualMaxima } from '#shared/hydrology/annual-maxima';
 import { fitFloodFrequency, type FloodFrequencyResult } from '#shared/hydrology/flood-frequency';
 import { durationsForFlows, floodEvents, typicalDurationForPeak } from '#shared/hydrology/flood-duration';
 import { flowPercentiles, seasonalScenarioName } from '#shared/hydrology/flow-percentiles';
-import { parseFlowRecord } from '#shared/hydrology/parse-flow-record';
+import { FlowSourceError, type FlowSourceResult, readFlowSource } from '#shared/hydrology/read-flow-source';
 import { plumeProfiles, riverPlume } from '#shared/physics/river-plume';
 import {
   applyRiverDefaults,
@@ -173,12 +173,35 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
     user: CurrentUser,
     id: string,
     csv: string,
-    options: { units: 'm3s' | 'cfs'; waterYearStart: string; acceptProblems: boolean; fileName?: string },
+    options: {
+      units: 'm3s' | 'cfs' | 'auto';
+      waterYearStart: string;
+      acceptProblems: boolean;
+      fileName?: string;
+      dateColumn?: string;
+      dischargeColumn?: string;
+      qualityColumn?: string;
+      dropProvisional?: boolean;
+      daily?: 'max' | 'mean';
+    },
     tx?: Tx,
   ) {
     const river = await load(user, id);
     requireEditor(user, river);
-    const parsed = parseFlowRecord(csv, { units: options.units });
+    let parsed: FlowSourceResult;
+    try {
+      parsed = readFlowSource(csv, {
+        units: options.units,
+        dateColumn: options.dateColumn,
+        dischargeColumn: options.dischargeColumn,
+        qualityColumn: options.qualityColumn,
+        dropProvisional: options.dropProvisional,
+        daily: options.daily,
+      });
+    } catch (err) {
+      if (err instanceof FlowSourceError) throw new UnprocessableError(err.message);
+      throw err;
+    }
     if (parsed.problems.length && !options.acceptProblems) {
       throw new UnprocessableError(
         `${parsed.problems.length} of ${parsed.rows} rows have problems (first: row ${parsed.problems[0].row}, ${parsed.problems[0].reason}). Fix them and upload again, or upload with acceptProblems=true to continue without those rows.`,
@@ -213,7 +236,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
       await t.execute(sql`UPDATE flow_records SET active = false WHERE river_id = ${id}::uuid`);
       const rec = await t.execute<{ id: string }>(sql`
         INSERT INTO flow_records (river_id, file_name, units, water_year_start, uploaded_by, reading_count, first_time, last_time, interval, problems, gaps, annual_peaks, fit, durations, percentiles)
-        VALUES (${id}::uuid, ${options.fileName ?? 'record.csv'}, ${options.units}, ${options.waterYearStart}, ${user.id}, ${parsed.readings.length},
+        VALUES (${id}::uuid, ${options.fileName ?? 'record.csv'}, ${parsed.units}, ${options.waterYearStart}, ${user.id}, ${parsed.readings.length},
                 ${parsed.readings[0].time}::timestamptz, ${parsed.readings.at(-1)!.time}::timestamptz, ${parsed.interval},
                 ${JSON.stringify(parsed.problems.slice(0, 1000))}::jsonb, ${JSON.stringify(parsed.gaps)}::jsonb, ${JSON.stringify(peaks)}::jsonb,
                 ${JSON.stringify(fit)}::jsonb, ${JSON.stringify({ medianHours: typical.medianHours, meanHours: typical.meanHours, fraction: typical.fraction })}::jsonb,
@@ -266,7 +289,14 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
       annualPeaks: peaks,
       fit,
       typicalDurationHours: durationHours,
-      warnings: [...fit.warnings, ...perFlow.warnings],
+      warnings: [parsed.unitsNote, ...parsed.warnings, ...fit.warnings, ...perFlow.warnings],
+      format: parsed.format,
+      units: parsed.units,
+      unitsNote: parsed.unitsNote,
+      columns: parsed.columns,
+      qualityCodes: parsed.qualityCodes,
+      droppedProvisional: parsed.droppedProvisional,
+      aggregated: parsed.aggregated,
     };
   }
 

@@ -128,7 +128,24 @@ export const riverSchema = z.object({
 export type River = z.infer<typeof riverSchema>;
 
 export const flowRecordUploadQuerySchema = z.strictObject({
-  units: z.enum(['m3s', 'cfs'], { error: "units must be 'm3s' (cubic metres per second) or 'cfs' (cubic feet per second)" }),
+  units: z
+    .enum(['m3s', 'cfs', 'auto'], {
+      error: "units must be 'm3s' (cubic metres per second), 'cfs' (cubic feet per second) or 'auto' (read from the file)",
+    })
+    .default('auto')
+    .describe("Units of the flows: 'm3s', 'cfs' (converted to m³/s) or 'auto' (WaterML unit of measure, or the CSV column name)"),
+  dateColumn: z.string().min(1).max(200).optional().describe('CSV: the date (or date-time) column; guessed when absent'),
+  dischargeColumn: z.string().min(1).max(200).optional().describe('CSV: the flow column; guessed when absent'),
+  qualityColumn: z.string().max(200).optional().describe("CSV: the quality or approval code column; guessed when absent; '' for none"),
+  dropProvisional: z
+    .enum(['true', 'false'], { error: 'dropProvisional must be true or false' })
+    .default('false')
+    .transform((v) => v === 'true')
+    .describe('Leave out readings whose code says provisional (P, provisional, unchecked)'),
+  daily: z
+    .enum(['max', 'mean'], { error: "daily must be 'max' or 'mean'" })
+    .optional()
+    .describe('Turn a sub-daily record into daily maxima or daily means (per calendar day as written in the file)'),
   waterYearStart: z
     .string()
     .regex(/^(0[1-9]|1[0-2])-(0[1-9]|[12]\d|3[01])$/, { error: 'waterYearStart must be a day of the year written MM-DD, e.g. 10-01' })
@@ -253,6 +270,15 @@ export const flowRecordUploadResultSchema = z.object({
   fit: floodFrequencyResultSchema,
   typicalDurationHours: z.number().describe('Flood duration given to the scenarios (h)'),
   warnings: z.array(z.string()),
+  format: z.enum(['csv', 'waterml2']).describe('How the file was read'),
+  units: z.enum(['m3s', 'cfs']).describe('The units the flows were read in (stored in m³/s)'),
+  unitsNote: z.string().describe('Where the units came from and the conversion, in words'),
+  columns: z
+    .object({ names: z.array(z.string()), date: z.string(), discharge: z.string(), quality: z.string().nullable(), guessed: z.boolean() })
+    .nullable(),
+  qualityCodes: z.array(z.object({ code: z.string(), count: z.number().int(), provisional: z.boolean() })),
+  droppedProvisional: z.number().int(),
+  aggregated: z.enum(['max', 'mean']).nullable().describe('How a sub-daily record was turned into daily readings, if it was'),
 });
 
 /** GET /rivers/:id/flow-records/readings: the thinned hydrograph. */

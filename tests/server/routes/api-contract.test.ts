@@ -21,6 +21,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { z } from 'zod';
 import { type DeclaredRoute, declaredRoutes, defineRoute, deriveOperationId, type RouteContext } from '../../../server/http/route';
+import { seedDemoRegion } from '../../../server/db/seed-demo-region';
 import { errorHandler } from '../../../server/middleware/error-handler';
 import { createTestApp, DEMO_PASSWORD, type TestApp } from '../../helpers/test-app';
 
@@ -42,10 +43,12 @@ let work: string;
 
 beforeAll(async () => {
   t = await createTestApp();
+  // The client below lists the grower's leases and rivers: the demo region gives it some whatever ran before.
+  await seedDemoRegion(t.db.db);
   doc = (await request(t.app).get('/api/v1/openapi.json').expect(200)).body;
   routes = t.app.locals.apiRoutes;
   work = mkdtempSync(path.join(tmpdir(), 'brackline-contract-'));
-});
+}, 180_000);
 afterAll(async () => {
   rmSync(work, { recursive: true, force: true });
   await t.close();
@@ -199,7 +202,8 @@ describe('every route declares its contract (route registry)', () => {
     const tile = doc.paths['/api/v1/tiles/leases/{z}/{x}/{y}'].get.responses['200'].content!;
     expect(tile['application/vnd.mapbox-vector-tile'].schema).toEqual({ type: 'string', format: 'binary' });
     const exported = doc.paths['/api/v1/leases/export'].get.responses['200'].content!;
-    expect(Object.keys(exported).sort()).toEqual(['application/geo+json', 'text/csv']);
+    expect(Object.keys(exported).sort()).toEqual(['application/geo+json', 'application/geopackage+sqlite3', 'application/vnd.google-earth.kml+xml', 'text/csv']);
+    expect(exported['application/geopackage+sqlite3'].schema).toMatchObject({ type: 'string', format: 'binary' });
     expect(doc.paths['/api/v1/leases/{id}'].delete.responses['204']).toBeDefined();
   });
 });

@@ -264,7 +264,7 @@ describe('export', () => {
     const csv = await grower.get('/api/v1/leases/export?format=csv').expect(200);
     expect(csv.headers['content-type']).toMatch(/text\/csv/);
     const lines = csv.text.trim().split('\r\n');
-    expect(lines[0]).toBe('id,lease_id,holder,species,status,area_m2,area_ha,on_land,owner,created_at');
+    expect(lines[0]).toBe('id,lease_id,holder,species,status,area_m2,area_ha,on_land,owner,created_at,annual_rating,closure_days_per_year,harmful_salinity_chance_per_year');
     expect(lines.length).toBeGreaterThan(3);
     const gj = await grower.get('/api/v1/leases/export?format=geojson').expect(200);
     const fc = JSON.parse(gj.text);

@@ -12,6 +12,7 @@ import { bandsToDraw } from '../../../lib/bands';
 import { exposureKeys, type ScreeningRow } from '../../../lib/exposure-api';
 import { fmtDays, fmtFlow, fmtIndicator, fmtNumber, fmtPercent, fmtSalinity } from '../../../lib/format';
 import { FlowSlider } from './flow-slider';
+import { DownloadLinks } from '../../../components/ui/download-links';
 
 function rgba(hex: string, alpha: number): string {
   const n = Number.parseInt(hex.slice(1), 16);
@@ -335,6 +336,19 @@ export function ExposureMapPage() {
                     </p>
                   )}
                   <p className="mt-1 text-xs text-shell-700">Model {fp.modelVersion}</p>
+                  <div className="mt-2">
+                    <DownloadLinks
+                      verb="Download bands"
+                      label={`of ${fp.riverName} at ${fmtFlow(fp.discharge)}`}
+                      href={(f) =>
+                        `/api/v1/footprints/export?${new URLSearchParams({
+                          riverId,
+                          ...(flow !== null ? { discharge: String(flow) } : { scenarioId: scenario?.id ?? '' }),
+                          format: f,
+                        })}`
+                      }
+                    />
+                  </div>
                 </section>
               )}
               <section className="space-y-2">
