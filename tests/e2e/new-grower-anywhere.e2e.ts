@@ -103,7 +103,7 @@ describe('a new grower anywhere gets an answer', () => {
     // The gauge record (a CSV, not a GIS file).
     await page.getByRole('heading', { name: 'Dune Water', level: 1 }).waitFor();
     const csv = readFileSync(path.resolve(import.meta.dirname, '../../demo-data/flows/tolley-brook-daily.csv'));
-    await page.getByLabel('Gauge record (CSV)').setInputFiles({ name: 'dune-water-daily.csv', mimeType: 'text/csv', buffer: csv });
+    await page.getByLabel(/Gauge record/).setInputFiles({ name: 'dune-water-daily.csv', mimeType: 'text/csv', buffer: csv });
     await page.getByRole('button', { name: 'Upload record' }).click();
     await page.getByText('Record saved').waitFor({ timeout: 120_000 });
 
