@@ -8,6 +8,7 @@ import { scienceBenchmarks } from './science-bench';
 import { clientBenchmarks } from './client-bench';
 import { screeningBenchmarks } from './screening-bench';
 import { uploadBenchmarks } from './upload-bench';
+import { apiBenchmarks } from './api-bench';
 
 async function main() {
   await baseline();
@@ -17,6 +18,7 @@ async function main() {
   const databaseUrl = process.env.DATABASE_URL;
   if (databaseUrl && (!only || only === 'upload')) results.push(...(await uploadBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'screening')) results.push(...(await screeningBenchmarks(databaseUrl)));
+  if (databaseUrl && (!only || only === 'api')) results.push(...(await apiBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'client')) results.push(...(await clientBenchmarks(databaseUrl)));
   report(results);
   const mem = process.memoryUsage();

@@ -130,7 +130,10 @@ export function createApp(deps: AppDeps): Express {
 
   const router = express.Router();
   router.use(express.json({ limit: '2mb' }));
-  router.use(['/account', '/invitations'], authLimiter);
+  router.use('/invitations', authLimiter);
+  // The sign-in limiter guards sign-up and resets; reading who you are (GET /account/me, asked on every page)
+  // is not an attempt at anything and must not use up the allowance.
+  router.use('/account', (req, res, next) => (req.method === 'GET' ? next() : authLimiter(req, res, next)));
   router.use('/calc', calcLimiter);
   const registry = createRegistry();
   const ctx: RouteContext = { router, registry, basePath: API_BASE, resolveUser: createUserResolver(db, env.AUTH_SECRET) };

@@ -242,42 +242,58 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
             { duplicates: [...existingByCode.keys()] },
           );
         }
+        // Set-based writes: one UPDATE for the replaced leases and one INSERT … SELECT per 10 000 new ones, joined to the
+        // staged features by index, so a 40 000-lease file costs a few statements instead of 40 000 round trips.
+        const replaced = new Map<string, { idx: number; holder: string | null; species: string | null; status: string; id: string }>();
+        const added: { idx: number; code: string; holder: string | null; species: string | null; status: string }[] = [];
         for (const [i, f] of features.entries()) {
           const code = codes[i];
           const status = body.mapping.status ? (normaliseStatus(f.properties[body.mapping.status]) ?? 'candidate') : 'candidate';
+          const holder = text(f.properties, body.mapping.holder);
+          const species = text(f.properties, body.mapping.species);
           const replaceId = body.onDuplicate === 'replace' ? existingByCode.get(code) : undefined;
           if (replaceId) {
-            await tx.execute(sql`
-              UPDATE leases l SET geom = f.geom, area_m2 = f.area_m2, on_land = f.on_land, import_id = ${id}::uuid,
-                     holder = ${text(f.properties, body.mapping.holder)}, species = ${text(f.properties, body.mapping.species)},
-                     status = ${status}::lease_status, source_properties = f.properties, updated_at = now()
-                FROM import_features f
-               WHERE l.id = ${replaceId}::uuid AND f.import_id = ${id}::uuid AND f.feature_index = ${f.index}`);
+            // Two features with the same code: the later one wins, as when they were written one after the other.
+            replaced.set(replaceId, { idx: f.index, holder, species, status, id: replaceId });
             ids.push(replaceId);
             updated++;
           } else {
-            const res = await tx.execute<{ id: string }>(sql`
-              INSERT INTO leases (lease_code, holder, species, status, owner_id, organisation_id, jurisdiction_id, import_id, source_properties, geom, area_m2, on_land)
-              SELECT ${code}, ${text(f.properties, body.mapping.holder)}, ${text(f.properties, body.mapping.species)}, ${status}::lease_status,
-                     ${user.id}, ${user.organisationId}::uuid, ${user.jurisdictionId}::uuid, ${id}::uuid, f.properties, f.geom, f.area_m2, f.on_land
-                FROM import_features f WHERE f.import_id = ${id}::uuid AND f.feature_index = ${f.index}
-              RETURNING id`);
-            ids.push(res.rows[0].id);
-            created++;
+            added.push({ idx: f.index, code, holder, species, status });
           }
+        }
+        if (replaced.size) {
+          await tx.execute(sql`
+            UPDATE leases l SET geom = f.geom, area_m2 = f.area_m2, on_land = f.on_land, import_id = ${id}::uuid,
+                   holder = r.holder, species = r.species, status = r.status::lease_status, source_properties = f.properties, updated_at = now()
+              FROM jsonb_to_recordset(${JSON.stringify([...replaced.values()])}::jsonb) AS r(idx int, holder text, species text, status text, id uuid)
+              JOIN import_features f ON f.import_id = ${id}::uuid AND f.feature_index = r.idx
+             WHERE l.id = r.id`);
+        }
+        const CHUNK = 10_000;
+        for (let at = 0; at < added.length; at += CHUNK) {
+          const res = await tx.execute<{ id: string }>(sql`
+            INSERT INTO leases (lease_code, holder, species, status, owner_id, organisation_id, jurisdiction_id, import_id, source_properties, geom, area_m2, on_land)
+            SELECT r.code, r.holder, r.species, r.status::lease_status,
+                   ${user.id}, ${user.organisationId}::uuid, ${user.jurisdictionId}::uuid, ${id}::uuid, f.properties, f.geom, f.area_m2, f.on_land
+              FROM jsonb_to_recordset(${JSON.stringify(added.slice(at, at + CHUNK))}::jsonb) AS r(idx int, code text, holder text, species text, status text)
+              JOIN import_features f ON f.import_id = ${id}::uuid AND f.feature_index = r.idx
+             ORDER BY r.idx
+            RETURNING id`);
+          for (const r of res.rows) ids.push(r.id);
+          created += res.rows.length;
         }
       } else if (row.kind === 'zone') {
         if (!user.jurisdictionId) throw new ValidationError('Your account has no jurisdiction, so closure zones cannot be saved. Ask an administrator to set it.');
-        for (const f of features) {
-          const name = text(f.properties, body.mapping.leaseId) ?? `${base} zone ${f.index + 1}`;
-          const res = await tx.execute<{ id: string }>(sql`
-            INSERT INTO closure_zones (name, jurisdiction_id, import_id, source_properties, geom, area_m2)
-            SELECT ${name}, ${user.jurisdictionId}::uuid, ${id}::uuid, f.properties, f.geom, f.area_m2
-              FROM import_features f WHERE f.import_id = ${id}::uuid AND f.feature_index = ${f.index}
-            RETURNING id`);
-          ids.push(res.rows[0].id);
-          created++;
-        }
+        const named = features.map((f) => ({ idx: f.index, name: text(f.properties, body.mapping.leaseId) ?? `${base} zone ${f.index + 1}` }));
+        const res = await tx.execute<{ id: string }>(sql`
+          INSERT INTO closure_zones (name, jurisdiction_id, import_id, source_properties, geom, area_m2)
+          SELECT r.name, ${user.jurisdictionId}::uuid, ${id}::uuid, f.properties, f.geom, f.area_m2
+            FROM jsonb_to_recordset(${JSON.stringify(named)}::jsonb) AS r(idx int, name text)
+            JOIN import_features f ON f.import_id = ${id}::uuid AND f.feature_index = r.idx
+           ORDER BY r.idx
+          RETURNING id`);
+        for (const r of res.rows) ids.push(r.id);
+        created = res.rows.length;
       } else {
         // A coastline is stored as one geometry: lines merged, or land polygons unioned.
         const hasPolygons = features.some((f) => f.geometryType.includes('POLYGON'));
