@@ -9,12 +9,14 @@ import { clientBenchmarks } from './client-bench';
 import { screeningBenchmarks } from './screening-bench';
 import { uploadBenchmarks } from './upload-bench';
 import { apiBenchmarks } from './api-bench';
+import { overlayLibraryBenchmarks } from './overlay-library-bench';
 
 async function main() {
   await baseline();
   const results: BenchResult[] = [];
   const only = process.argv[2];
   if (!only || only === 'science') results.push(...(await scienceBenchmarks()));
+  if (!only || only === 'overlay') results.push(...(await overlayLibraryBenchmarks()));
   const databaseUrl = process.env.DATABASE_URL;
   if (databaseUrl && (!only || only === 'upload')) results.push(...(await uploadBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'screening')) results.push(...(await screeningBenchmarks(databaseUrl)));

@@ -5,7 +5,7 @@ import proj4 from 'proj4';
 const UTM24N_WKT =
   'PROJCS["WGS_1984_UTM_Zone_24N",GEOGCS["GCS_WGS_1984",DATUM["D_WGS_1984",SPHEROID["WGS_1984",6378137.0,298.257223563]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]],PROJECTION["Transverse_Mercator"],PARAMETER["False_Easting",500000.0],PARAMETER["False_Northing",0.0],PARAMETER["Central_Meridian",-39.0],PARAMETER["Scale_Factor",0.9996],PARAMETER["Latitude_Of_Origin",0.0],UNIT["Meter",1.0]]';
 
-export function generateLeaseShapefile(count: number): Buffer {
+export async function generateLeaseShapefile(count: number): Promise<Buffer> {
   const toUtm = proj4('EPSG:4326', '+proj=utm +zone=24 +datum=WGS84 +units=m +no_defs');
   const [x0, y0] = toUtm.forward([-38.9, 41.0]);
   const features = Array.from({ length: count }, (_, i) => {
@@ -33,12 +33,12 @@ export function generateLeaseShapefile(count: number): Buffer {
       geometry: { type: 'Polygon' as const, coordinates: [ring] },
     };
   });
-  return shpZip({ type: 'FeatureCollection', features }, {
+  return (await shpZip({ type: 'FeatureCollection', features }, {
     outputType: 'nodebuffer',
     compression: 'DEFLATE',
     types: { polygon: 'bench' },
     prj: UTM24N_WKT,
-  } as never) as unknown as Buffer;
+  } as never)) as unknown as Buffer;
 }
 
 /** `count` squares of about 100 m on a grid 0.002° apart, in WGS 84 lon/lat, as GeoJSON text. */
