@@ -20,7 +20,7 @@ export async function scienceBenchmarks(): Promise<BenchResult[]> {
     shelfSlope: 0.004,
     floodDurationHours: 72,
   };
-  const settings = { mixingLength: 25_000, t90DayHours: 8, t90NightHours: 40, indicator: { kind: 'constant' as const, concentration: 20_000 } };
+  const settings = { entrainmentCoefficient: 3e-5, t90DayHours: 8, t90NightHours: 40, indicator: { kind: 'constant' as const, concentration: 20_000 } };
   const results: BenchResult[] = [];
   results.push(
     await bench('physics: one river × scenario (computePlume + field parameters)', () => {

@@ -33,7 +33,7 @@ function coastBench(): Promise<BenchResult> {
     coordinates.push([-38.6 + x / 84_000, 41 + y / 111_050]);
   }
   const plume = computePlume({ latitude: 41, discharge: 150, reducedGravity: 0.02, mouthWidth: 800, mouthDepth: 1.5, floodDurationHours: 48 });
-  const params = exposureParameters({ mixingLength: 12_000, t90DayHours: 6, t90NightHours: 48, indicator: { kind: 'constant', concentration: 1e4 } }, { seaSalinity: 34, riverSalinity: 0 }, 150);
+  const params = exposureParameters({ entrainmentCoefficient: 3e-5, t90DayHours: 6, t90NightHours: 48, indicator: { kind: 'constant', concentration: 1e4 } }, { seaSalinity: 34, riverSalinity: 0 }, 150);
   const input = {
     coast: { type: 'LineString' as const, coordinates },
     mouth: [coordinates[VERTICES / 2][0] - 0.002, 41] as [number, number],

@@ -13,6 +13,7 @@ import { createPgBossScreeningJobs } from './jobs/screening-jobs';
 import { createPgBossAlertJobs } from './jobs/alert-jobs';
 import { type GaugeFeed, startGaugeFeed } from './fakes/gauge-feed';
 import { type PaymentFake, startPaymentFake } from './fakes/payment-fake';
+import { upgradeStoredModel } from './services/model-upgrade.service';
 import { createScreeningService } from './services/screening.service';
 
 async function main() {
@@ -76,6 +77,9 @@ async function main() {
   const jobs = await createPgBossScreeningJobs(env.DATABASE_URL, dbHandle.db, screening, {
     work: process.env.WORKERS !== 'false',
   });
+  // Stored results of an older model version are re-screened (and legacy river settings carried over) at start-up.
+  const upgraded = await upgradeStoredModel(dbHandle.db, jobs);
+  if (upgraded.queued.length) logger.info({ rivers: upgraded.queued.length, carried: upgraded.carried.length }, 're-screening results of an older model');
   const alertJobs = await createPgBossAlertJobs(env.DATABASE_URL, dbHandle.pool, {
     retryDelaySeconds: env.ALERT_RETRY_DELAY_SECONDS,
     retryLimit: env.ALERT_RETRY_LIMIT,

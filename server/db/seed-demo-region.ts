@@ -10,6 +10,7 @@ import { eq, sql } from 'drizzle-orm';
 import type { RiverJson } from '../../demo-data/lib/rivers';
 import type { CurrentUser } from '../http/route';
 import { createInlineScreeningJobs } from '../jobs/screening-jobs';
+import { carryMixingLength as carryLegacyLength } from '../services/model-upgrade.service';
 import { createRiversService } from '../services/rivers.service';
 import { createScreeningService } from '../services/screening.service';
 import type { Database } from './client';
@@ -19,6 +20,17 @@ import { DEMO_JURISDICTION } from './seed';
 const DEMO_DIR = path.resolve(import.meta.dirname, '../../demo-data');
 const readJson = (file: string) => JSON.parse(readFileSync(path.join(DEMO_DIR, file), 'utf8'));
 
+
+/** Demo rivers written with a fixed mixing length get the entrainment coefficient that matches it at their median annual peak. */
+async function carryMixingLength(db: Database, riverId: string, r: RiverJson): Promise<void> {
+  const legacy = (r as { mixingLengthM?: number }).mixingLengthM;
+  const given = (r as { entrainmentCoefficient?: number }).entrainmentCoefficient;
+  if (given !== undefined) {
+    await db.execute(sql`UPDATE rivers SET settings = settings || jsonb_build_object('entrainmentCoefficient', ${given}::float8) WHERE id = ${riverId}::uuid`);
+  } else if (legacy !== undefined) {
+    await carryLegacyLength(db, riverId, legacy);
+  }
+}
 
 async function userByEmail(db: Database, email: string): Promise<CurrentUser> {
   const [u] = await db.select().from(users).where(eq(users.email, email));
@@ -135,7 +147,6 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
       riverTemperature: r.riverTemperature,
       seaSalinity: r.seaSalinity,
       seaTemperature: r.seaTemperature,
-      mixingLength: r.mixingLengthM,
       t90DayHours: r.t90DayHours,
       t90NightHours: r.t90NightHours,
       daylightFraction: r.daylightFraction,
@@ -148,6 +159,7 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
     });
     const csv = readFileSync(path.join(DEMO_DIR, r.flowRecordFile), 'utf8');
     await rivers.uploadFlowRecord(regulator, river.id, csv, { units: 'm3s', waterYearStart: '10-01', acceptProblems: false, fileName: path.basename(r.flowRecordFile) });
+    await carryMixingLength(db, river.id, r);
     log(`${r.name}: flow record and scenarios loaded; screening…`);
     await jobs.enqueueRiver(river.id);
   }

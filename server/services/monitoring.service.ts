@@ -50,6 +50,7 @@ import type { Database } from '../db/client';
 import type { CurrentUser } from '../http/route';
 import { AppError, ConflictError, ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors';
 import { recordAudit } from './audit.service';
+import { type FrameSettings, footprintCoastFrame, placePoints } from './coast-positions';
 import { visibleRivers } from './rivers.service';
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0];
@@ -116,6 +117,8 @@ type MatchedRow = {
   s: number | null;
   x: number | null;
   d: number | null;
+  lon: number;
+  lat: number;
   flow: number | null;
 };
 
@@ -438,16 +441,20 @@ export function createMonitoringService(deps: { db: Database; onRiverChanged?: (
         SELECT st.id AS station_id, st.code, st.name,
                ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, st.geom)) * ST_Length(f.path::geography) AS s,
                ST_Distance(st.geom::geography, f.path::geography) AS x,
-               ST_Distance(st.geom::geography, r.mouth::geography) AS d
+               ST_Distance(st.geom::geography, r.mouth::geography) AS d, ST_X(st.geom) AS lon, ST_Y(st.geom) AS lat
           FROM stations st, footprints f, rivers r
          WHERE f.id = ${fp.rows[0].id}::uuid AND r.id = ${riverId}::uuid AND ${visibleStations(user)} AND ${scope})
-      SELECT sm.id AS sample_id, p.code, p.name, sm.sampled_at, sm.salinity, sm.indicator, sm.indicator_censored, p.s, p.x, p.d,
+      SELECT sm.id AS sample_id, p.code, p.name, sm.sampled_at, sm.salinity, sm.indicator, sm.indicator_censored, p.s, p.x, p.d, p.lon, p.lat,
              (SELECT max(fr.discharge) FROM flow_readings fr JOIN flow_records rec ON rec.id = fr.record_id AND rec.active AND rec.river_id = ${riverId}::uuid
                WHERE fr.t >= (date_trunc('day', sm.sampled_at AT TIME ZONE 'UTC') AT TIME ZONE 'UTC') - make_interval(days => ${lagDays}::int)
                  AND fr.t <= sm.sampled_at) AS flow
         FROM samples sm JOIN place p ON p.station_id = sm.station_id
        ORDER BY sm.sampled_at, p.code`);
-    return res.rows;
+    // Signed positions: stations up-coast of the mouth keep their distance from it (the bulge's frame).
+    const frame = await footprintCoastFrame(db, fp.rows[0].id, river.settings as unknown as FrameSettings);
+    if (!frame) return res.rows;
+    const placed = placePoints(frame, res.rows.map((r) => ({ lon: r.lon, lat: r.lat, s: r.s, x: r.x })));
+    return res.rows.map((r, i) => ({ ...r, s: placed[i].s, x: placed[i].x }));
   }
 
   interface Matching {

@@ -7,7 +7,7 @@
 import { sql } from 'drizzle-orm';
 import { annualMaxima } from '#shared/hydrology/annual-maxima';
 import { fitFloodFrequency, type FloodFrequencyResult } from '#shared/hydrology/flood-frequency';
-import { floodEvents, typicalDurationForPeak } from '#shared/hydrology/flood-duration';
+import { durationsForFlows, floodEvents, typicalDurationForPeak } from '#shared/hydrology/flood-duration';
 import { flowPercentiles, seasonalScenarioName } from '#shared/hydrology/flow-percentiles';
 import { parseFlowRecord } from '#shared/hydrology/parse-flow-record';
 import { plumeProfiles, riverPlume } from '#shared/physics/river-plume';
@@ -174,6 +174,10 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
     const distribution = river.settings.designDistribution ?? 'gev';
     const quantiles = fit[distribution].quantiles;
     const durationHours = Math.max(24, Math.round(typical.medianHours ?? 72));
+    // Each design flood lasts as long as the record's own floods of that size (time above half the peak).
+    const scenarioQuantiles = quantiles.filter((q) => SCENARIO_AEPS.some((a) => Math.abs(a - q.aep) < 1e-9));
+    const perFlow = durationsForFlows(typical.events, scenarioQuantiles.map((q) => q.discharge));
+    const durationOf = new Map(scenarioQuantiles.map((q, i) => [q.aep, Math.max(24, Math.round(perFlow.hours[i]))]));
 
     const run = async (t: Tx) => {
       await t.execute(sql`UPDATE flow_records SET active = false WHERE river_id = ${id}::uuid`);
@@ -198,8 +202,8 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
         if (!SCENARIO_AEPS.some((a) => Math.abs(a - q.aep) < 1e-9)) continue;
         await t.execute(sql`
           INSERT INTO scenarios (river_id, name, kind, aep, discharge, duration_hours, source)
-          VALUES (${id}::uuid, ${ordinalAep(q.aep)}, 'aep', ${q.aep}, ${q.discharge}, ${durationHours},
-                  ${JSON.stringify({ distribution, lower: q.lower ?? null, upper: q.upper ?? null, durationRule: 'median time above half the annual peak', recordId })}::jsonb)`);
+          VALUES (${id}::uuid, ${ordinalAep(q.aep)}, 'aep', ${q.aep}, ${q.discharge}, ${durationOf.get(q.aep) ?? durationHours},
+                  ${JSON.stringify({ distribution, lower: q.lower ?? null, upper: q.upper ?? null, durationRule: 'time above half the peak, from the record’s annual floods by peak size', durationExponent: perFlow.exponent, durationWarnings: perFlow.warnings, recordId })}::jsonb)`);
       }
       for (const season of percentiles.seasonal) {
         const p99 = season.percentiles.find((p) => p.p === 99)?.discharge;
@@ -232,7 +236,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
       annualPeaks: peaks,
       fit,
       typicalDurationHours: durationHours,
-      warnings: fit.warnings,
+      warnings: [...fit.warnings, ...perFlow.warnings],
     };
   }
 

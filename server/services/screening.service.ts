@@ -6,11 +6,12 @@
  */
 import { createHash } from 'node:crypto';
 import { type SQL, sql } from 'drizzle-orm';
-import type { Geometry } from 'geojson';
+import type { Geometry, Position } from 'geojson';
 import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared/biology/species-tolerance';
 import { buildFootprint } from '#shared/geometry/build-footprint';
 import type { PlumeResult } from '#shared/physics/compute-plume';
-import { type ExposureParameters, fieldAt } from '#shared/physics/exposure-field';
+import { type ExposureParameters, type fieldAt, worstField } from '#shared/physics/exposure-field';
+import { type CoastFrame, coastPosition, outlinePositions } from '#shared/geometry/coast-position';
 import { MODEL_VERSION } from '#shared/physics/model-version';
 import { riverPlume } from '#shared/physics/river-plume';
 import type { RiverSettings } from '#shared/schemas/river';
@@ -20,6 +21,7 @@ import { salinityBandId, screeningBandSpecs, strictestSpecies } from '#shared/sc
 import { daysBelowTolerance, scoreLease } from '#shared/scoring/score-lease';
 import type { Database } from '../db/client';
 import { NotFoundError, UnprocessableError } from '../lib/errors';
+import { footprintCoastFrame } from './coast-positions';
 
 const RATING_ORDER = ['low', 'moderate', 'high', 'severe'] as const;
 const INDICATOR_STANDARD = 14;
@@ -45,6 +47,31 @@ export interface FlowSpec {
 /** The water and plume inputs of the engine for a river at one flow (shared with the browser's previews). */
 export function plumeFor(settings: RiverSettings, flow: { discharge: number; durationHours: number }): { plume: PlumeResult; params: ExposureParameters } {
   return riverPlume(settings, flow);
+}
+
+/** Outer and inner rings of a Polygon or MultiPolygon. */
+export function polygonRings(geometry: { type: string; coordinates: unknown }): Position[][] {
+  if (geometry.type === 'Polygon') return geometry.coordinates as Position[][];
+  if (geometry.type === 'MultiPolygon') return (geometry.coordinates as Position[][][]).flat();
+  return [];
+}
+
+/** Spacing of the points a lease outline is judged at [m], (c): a tenth of a 300 m lease. */
+const OUTLINE_SPACING = 30;
+
+/**
+ * A lease's worst point in a plume: the field over its outline (every 30 m) and centroid, in the
+ * plume's signed coordinates. `hint` is the arc of the lease's nearest point to the walked coast.
+ */
+export function leaseWorstPoint(
+  frame: CoastFrame,
+  rings: Position[][],
+  plume: PlumeResult,
+  params: ExposureParameters,
+  hint: number | null,
+): { field: ReturnType<typeof fieldAt>; at: { s: number; x: number } } | null {
+  const positions = outlinePositions(frame, rings, OUTLINE_SPACING, hint ?? undefined);
+  return positions.length ? worstField(plume, params, positions) : null;
 }
 
 function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
@@ -213,21 +240,43 @@ export function createScreeningService(deps: { db: Database }) {
   ) {
     const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
     const byLease = await leaseBandFractions(db, footprint.id, sql`${scopedLeases(river)} ${leaseFilter}`);
-    const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null }>(sql`
+    const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null; lon: number; lat: number }>(sql`
       SELECT l.id, l.species,
              ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * ST_Length(f.path::geography) AS s,
-             ST_Distance(l.geom::geography, f.path::geography) AS x
+             ST_Distance(l.geom::geography, f.path::geography) AS x,
+             ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat
         FROM leases l, footprints f
        WHERE f.id = ${footprint.id}::uuid AND ${scopedLeases(river)} ${leaseFilter}`);
     const { params } = plumeFor(river.settings, scenario);
     const days = scenario.durationHours / 24;
+    // Each lease in the plume is judged at its own worst point: its outline and centroid placed in
+    // the plume's signed coordinates (up-coast of the mouth in the bulge's own frame).
+    const inPlumeIds = leases.rows.filter((l) => (byLease.get(l.id)?.['plume-edge'] ?? 0) > 0).map((l) => l.id);
+    const outlines = new Map<string, Position[][]>();
+    // The frame is needed for every lease: those outside the plume still report their own signed place.
+    const frame: CoastFrame | null = leases.rows.length ? await footprintCoastFrame(db, footprint.id, river.settings) : null;
+    if (inPlumeIds.length) {
+      const geo = await db.execute<{ id: string; geometry: string }>(sql`
+        SELECT l.id, ST_AsGeoJSON(l.geom, 7) AS geometry FROM leases l
+         WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(inPlumeIds)}::jsonb)::uuid)`);
+      for (const g of geo.rows) outlines.set(g.id, polygonRings(JSON.parse(g.geometry)));
+    }
     const rows = leases.rows.map((l) => {
       const fractionsOfLease = byLease.get(l.id) ?? {};
       const { tolerance, known } = speciesOf(l.species);
       const inPlume = (fractionsOfLease['plume-edge'] ?? 0) > 0;
-      const field = inPlume && l.s !== null && l.x !== null ? fieldAt(footprint.plume, params, Math.max(0, l.s), Math.max(0, l.x)) : null;
-      // The field at the lease's nearest point to the coast walked, made consistent with the
-      // band polygons it touches (the bands also hold the bulge, which the path distance misses).
+      const worst = inPlume && frame && outlines.has(l.id) ? leaseWorstPoint(frame, outlines.get(l.id) as Position[][], footprint.plume, params, l.s) : null;
+      const field = worst ? worst.field : null;
+      if (worst) {
+        l.s = worst.at.s;
+        l.x = worst.at.x;
+      } else if (frame && l.s !== null) {
+        // Outside the plume: the lease's own place (a point on it), never "at the mouth".
+        const at = coastPosition(frame, [l.lon, l.lat], { s: Math.max(0, l.s), window: 2 * (l.x ?? 0) + 2000 });
+        l.s = at.s;
+        l.x = at.x;
+      }
+      // The field at the lease's worst point, made consistent with the band polygons it touches.
       const inSpeciesBand = (fractionsOfLease[salinityBandId(tolerance.chronicLowerSalinity)] ?? 0) > 0;
       const inIndicatorBand = (fractionsOfLease['indicator-over-standard'] ?? 0) > 0;
       let lowestSalinity = field ? field.salinity : river.settings.seaSalinity;

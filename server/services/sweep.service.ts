@@ -5,13 +5,14 @@
  */
 import { sql } from 'drizzle-orm';
 import { getSpeciesTolerance, SPECIES_IDS } from '#shared/biology/species-tolerance';
-import { fieldAt } from '#shared/physics/exposure-field';
+import { worstField } from '#shared/physics/exposure-field';
 import { strictestSpecies } from '#shared/scoring/lease-band-specs';
 import type { Database } from '../db/client';
 import type { CurrentUser } from '../http/route';
 import { NotFoundError, UnprocessableError } from '../lib/errors';
 import { visibleLeases } from './leases.service';
-import { plumeFor, type ScreeningService } from './screening.service';
+import { footprintCoastFrame, placeOutline } from './coast-positions';
+import { plumeFor, polygonRings, type ScreeningService } from './screening.service';
 
 /** AEP of a flow from a fitted quantile table, by log-log interpolation; null outside it. */
 export function aepOfFlow(quantiles: { aep: number; discharge: number }[], q: number): number | null {
@@ -46,6 +47,11 @@ export function createSweepService(deps: { db: Database; screening: ScreeningSer
              ST_Distance(l.geom::geography, f.path::geography) AS x
         FROM leases l, footprints f WHERE l.id = ${leaseId}::uuid AND f.id = ${fp.id}::uuid`);
     const { s, x } = pos.rows[0];
+    // The lease is judged at its worst point: its outline in the plume's signed coordinates.
+    const frame = await footprintCoastFrame(db, fp.id, river.settings);
+    const geo = await db.execute<{ geometry: string }>(sql`SELECT ST_AsGeoJSON(geom, 7) AS geometry FROM leases WHERE id = ${leaseId}::uuid`);
+    const outline = frame && geo.rows[0] ? placeOutline(frame, polygonRings(JSON.parse(geo.rows[0].geometry))) : [];
+    const positions = outline.length ? outline : [{ s: Math.max(0, s), x: Math.max(0, x) }];
     const fit = await db.execute<{ fit: { gev: { quantiles: { aep: number; discharge: number }[] } } | null; durations: { medianHours: number | null } | null }>(sql`
       SELECT fit, durations FROM flow_records WHERE river_id = ${riverId}::uuid AND active`);
     const quantiles = fit.rows[0]?.fit?.[(river.settings.designDistribution ?? 'gev') as 'gev']?.quantiles ?? [];
@@ -57,7 +63,7 @@ export function createSweepService(deps: { db: Database; screening: ScreeningSer
     const curve = Array.from({ length: steps }, (_, i) => {
       const q = qMin * (qMax / qMin) ** (i / (steps - 1));
       const { plume, params } = plumeFor(river.settings, { discharge: q, durationHours });
-      const v = fieldAt(plume, params, Math.max(0, s), Math.max(0, x));
+      const v = worstField(plume, params, positions).field;
       return { discharge: q, salinity: v.salinity, indicator: v.indicator, freshwaterFraction: v.freshwaterFraction, aep: aepOfFlow(quantiles, q) };
     });
     const bands = [
@@ -83,8 +89,9 @@ export function createSweepService(deps: { db: Database; screening: ScreeningSer
       riverId,
       riverName: river.name,
       species: species.id,
-      alongCoastM: s,
-      offshoreM: x,
+      // the lease's centre in the plume's signed coordinates (negative up-coast of the mouth)
+      alongCoastM: positions[positions.length - 1].s,
+      offshoreM: positions[positions.length - 1].x,
       durationHours,
       bands,
       curve,

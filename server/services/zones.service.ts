@@ -10,6 +10,7 @@
 import { sql } from 'drizzle-orm';
 import { fieldAt } from '#shared/physics/exposure-field';
 import { MODEL_VERSION } from '#shared/physics/model-version';
+import { footprintCoastFrame, placePoints } from './coast-positions';
 import type {
   AuditEntry,
   ClosureCheckRequest,
@@ -376,12 +377,14 @@ export function createZonesService(deps: {
       discharge: largest.discharge,
       durationHours: largest.duration_hours,
     });
-    const pts = await db.execute<{ s: number; x: number }>(sql`
+    const pts = await db.execute<{ s: number; x: number; lon: number; lat: number }>(sql`
       WITH p AS (SELECT (ST_Dump(ST_GeneratePoints(z.geom, ${SWEEP_POINTS}, 1))).geom AS g FROM closure_zones z WHERE z.id = ${zoneId}::uuid)
       SELECT ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, p.g)) * ST_Length(f.path::geography) AS s,
-             ST_Distance(p.g::geography, f.path::geography) AS x
+             ST_Distance(p.g::geography, f.path::geography) AS x, ST_X(p.g) AS lon, ST_Y(p.g) AS lat
         FROM p, footprints f WHERE f.id = ${fp.id}::uuid`);
-    const points = pts.rows.map((r) => ({ s: Math.max(0, r.s), x: Math.max(0, r.x) }));
+    // Signed positions: points up-coast of the mouth sit in the bulge's frame, not "in the bulge at the mouth".
+    const frame = await footprintCoastFrame(db, fp.id, river.settings);
+    const points = frame ? placePoints(frame, pts.rows) : pts.rows.map((r) => ({ s: Math.max(0, r.s), x: Math.max(0, r.x) }));
     if (!points.length) throw new UnprocessableError(`${zone.name} has no area to sample. Redraw or re-upload the zone.`);
     const { aep, durationHours } = await riverFit(zone.river_id, river.settings.designDistribution as string | undefined);
 

@@ -1,7 +1,8 @@
 /**
  * @module shared/calibration/calibrate-plume
  * Thin adapter between the plume's exposure field (shared/physics/exposure-field) and the
- * generic calibration core (./fit-parameters): fits the alongshore mixing length L [m] and an
+ * generic calibration core (./fit-parameters): fits the entrainment coefficient E [–] (which sets
+ * the flow-dependent dilution length L_e = (2/3)·H0/(φ0·E), science.md §1.11) and an
  * effective die-off T90 [h] to monitoring data (product.md §4 item 6).
  *
  * Each observation carries the plume scales and flood-water indicator concentration of its
@@ -20,7 +21,7 @@ import { type CalibrationObservation, type FitResult, type FitWeights, fitParame
 
 /** An observation placed in the plume's coordinates. */
 export interface PlumeObservation extends CalibrationObservation {
-  /** s, alongshore distance downcoast from the mouth, m, ≥ 0. */
+  /** s, signed alongshore distance from the mouth, m (> 0 down-coast, < 0 up-coast). */
   readonly along: number;
   /** x, offshore distance from the coast, m, ≥ 0. */
   readonly offshore: number;
@@ -40,8 +41,8 @@ export interface PlumeParameterBounds {
 
 /** The values being fitted. */
 export interface PlumeFieldParameters {
-  /** L, m, > 0. */
-  readonly mixingLength: number;
+  /** E, –, > 0. */
+  readonly entrainmentCoefficient: number;
   /** Effective T90, h, > 0. */
   readonly t90Hours: number;
 }
@@ -62,8 +63,8 @@ export interface PlumeFieldSettings {
 export interface CalibratePlumeInput {
   readonly observations: readonly PlumeObservation[];
   readonly settings: PlumeFieldSettings;
-  /** Mixing length L, m. Suggested bounds 1 000–200 000 m, (c). */
-  readonly mixingLength: PlumeParameterBounds;
+  /** Entrainment coefficient E, –. Suggested bounds 1e-6–1e-3, (c) around science.md §1.11's 1e-5–1e-4. */
+  readonly entrainmentCoefficient: PlumeParameterBounds;
   /** Effective T90, h. Suggested bounds 0.5–200 h, (c) from science.md §5.2's ranges. */
   readonly t90Hours: PlumeParameterBounds;
   readonly weights?: Partial<FitWeights>;
@@ -80,12 +81,12 @@ export interface PlumeCalibration extends FitResult {
  * Predicts salinity and indicator at one observation with the exposure field.
  * Source: (c) derived: fieldAt of shared/physics/exposure-field with k = ln10/T90.
  *
- * @param values - mixing length [m] and effective T90 [h]
+ * @param values - entrainment coefficient [–] and effective T90 [h]
  * @param settings - sea and river salinity, source fraction, travel speed
  * @param observation - place, plume scales and flood-water concentration
  * @returns { salinity (psu), indicator (per 100 mL) }
  * @example
- * predictPlumeObservation({ mixingLength: 25000, t90Hours: 20 }, { seaSalinity: 34, riverSalinity: 0 }, obs);
+ * predictPlumeObservation({ entrainmentCoefficient: 3e-5, t90Hours: 20 }, { seaSalinity: 34, riverSalinity: 0 }, obs);
  */
 export function predictPlumeObservation(
   values: PlumeFieldParameters,
@@ -95,7 +96,7 @@ export function predictPlumeObservation(
   const params: ExposureParameters = {
     seaSalinity: settings.seaSalinity,
     riverSalinity: settings.riverSalinity,
-    mixingLength: values.mixingLength,
+    entrainmentCoefficient: values.entrainmentCoefficient,
     decayRate: decayRate(values.t90Hours * 3600),
     riverIndicator: observation.riverIndicator,
     sourceFreshwaterFraction: settings.sourceFreshwaterFraction,
@@ -106,15 +107,15 @@ export function predictPlumeObservation(
 }
 
 /**
- * Fits the plume's mixing length and effective T90 to observations (see the module comment;
+ * Fits the plume's entrainment coefficient and effective T90 to observations (see the module comment;
  * misfit, optimiser and skill statistics as in {@link fitParameters}).
  *
  * @param input - observations, fixed settings, parameter bounds, weights, seed
  * @returns the fit with before/after bias, RMSE and Nash–Sutcliffe skill
  * @example
  * calibratePlume({ observations, settings: { seaSalinity: 34, riverSalinity: 0 },
- *   mixingLength: { initial: 30000, min: 1000, max: 200000 },
- *   t90Hours: { initial: 24, min: 0.5, max: 200 } }).fitted; // => { mixingLength: …, t90Hours: … }
+ *   entrainmentCoefficient: { initial: 3e-5, min: 1e-6, max: 1e-3 },
+ *   t90Hours: { initial: 24, min: 0.5, max: 200 } }).fitted; // => { entrainmentCoefficient: …, t90Hours: … }
  */
 export function calibratePlume(input: CalibratePlumeInput): PlumeCalibration {
   const { settings } = input;
@@ -124,8 +125,8 @@ export function calibratePlume(input: CalibratePlumeInput): PlumeCalibration {
     throw new Error(`settings.seaSalinity must be above settings.riverSalinity; got ${settings.seaSalinity} and ${settings.riverSalinity}`);
   }
   input.observations.forEach((observation, i) => {
-    if (!(Number.isFinite(observation.along) && observation.along >= 0)) {
-      throw new Error(`observations[${i}].along must be a distance in m, 0 or more; got ${observation.along}`);
+    if (!Number.isFinite(observation.along)) {
+      throw new Error(`observations[${i}].along must be a signed distance in m; got ${observation.along}`);
     }
     if (!(Number.isFinite(observation.offshore) && observation.offshore >= 0)) {
       throw new Error(`observations[${i}].offshore must be a distance in m, 0 or more; got ${observation.offshore}`);
@@ -136,9 +137,9 @@ export function calibratePlume(input: CalibratePlumeInput): PlumeCalibration {
   });
   const fit = fitParameters({
     observations: input.observations,
-    predict: (p, observation) => predictPlumeObservation({ mixingLength: p.mixingLength, t90Hours: p.t90Hours }, settings, observation),
+    predict: (p, observation) => predictPlumeObservation({ entrainmentCoefficient: p.entrainmentCoefficient, t90Hours: p.t90Hours }, settings, observation),
     parameters: [
-      { name: 'mixingLength', ...input.mixingLength, scale: 'log' },
+      { name: 'entrainmentCoefficient', ...input.entrainmentCoefficient, scale: 'log' },
       { name: 't90Hours', ...input.t90Hours, scale: 'log' },
     ],
     weights: input.weights,
@@ -147,6 +148,6 @@ export function calibratePlume(input: CalibratePlumeInput): PlumeCalibration {
   });
   return {
     ...fit,
-    fitted: { mixingLength: fit.parameters.mixingLength, t90Hours: fit.parameters.t90Hours },
+    fitted: { entrainmentCoefficient: fit.parameters.entrainmentCoefficient, t90Hours: fit.parameters.t90Hours },
   };
 }

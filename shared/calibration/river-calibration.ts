@@ -5,7 +5,8 @@
  * river's calibrated settings with the calibration core (./fit-parameters), and the cautions
  * that go with a fit.
  *
- * Calibrated settings, in river units: the mixing length L [m]; the effective T90 [h], the single
+ * Calibrated settings, in river units: the entrainment coefficient E [–] of the coastal current
+ * (it sets the flow-dependent dilution length L_e = (2/3)·H0/(φ0·E), science.md §1.11); the effective T90 [h], the single
  * T90 whose rate equals the day/night-weighted rate of the river's two T90s (applying it scales
  * both by the same ratio, so their ratio stays the user's); optionally the alongshore share F_cc
  * and the near-field freshwater fraction φ0.
@@ -14,7 +15,12 @@
  * (c) — a sample is taken within a plume that has had days to set up.
  */
 import { computePlume, type PlumeResult } from '../physics/compute-plume';
-import { MAX_ALONGSHORE_SHARE, MIN_ALONGSHORE_SHARE } from '../physics/constants';
+import {
+  MAX_ALONGSHORE_SHARE,
+  MAX_ENTRAINMENT_COEFFICIENT,
+  MIN_ALONGSHORE_SHARE,
+  MIN_ENTRAINMENT_COEFFICIENT,
+} from '../physics/constants';
 import { plumeInput } from '../physics/river-plume';
 import { dielDecayRate } from '../physics/decay';
 import {
@@ -44,7 +50,7 @@ export interface CalibrationRiverSettings {
   readonly mouthDepth: number;
   readonly shelfSlope: number;
   readonly alongshoreShare: number;
-  readonly mixingLength: number;
+  readonly entrainmentCoefficient: number;
   readonly t90DayHours: number;
   readonly t90NightHours: number;
   readonly daylightFraction: number;
@@ -54,8 +60,8 @@ export interface CalibrationRiverSettings {
 
 /** The values calibration fits, in river units. */
 export interface CalibratedValues {
-  /** L, m. */
-  mixingLength: number;
+  /** E, –. */
+  entrainmentCoefficient: number;
   /** Effective T90, h. */
   t90Hours: number;
   /** F_cc, 0.3–1. */
@@ -66,9 +72,9 @@ export interface CalibratedValues {
 
 export type CalibratedName = keyof CalibratedValues;
 
-/** Bounds of the search, (c): science.md §5.2 for T90 (under an hour to ~100 h); L from 1 to 200 km. */
+/** Bounds of the search, (c): science.md §5.2 for T90 (under an hour to ~100 h); E from 1e-6 to 1e-3 (science.md §1.11: 1e-5 to 1e-4, widened tenfold each way). */
 export const CALIBRATION_BOUNDS: Record<CalibratedName, { min: number; max: number; scale: 'log' | 'linear' }> = {
-  mixingLength: { min: 1000, max: 200_000, scale: 'log' },
+  entrainmentCoefficient: { min: MIN_ENTRAINMENT_COEFFICIENT, max: MAX_ENTRAINMENT_COEFFICIENT, scale: 'log' },
   t90Hours: { min: 0.5, max: 200, scale: 'log' },
   alongshoreShare: { min: MIN_ALONGSHORE_SHARE, max: MAX_ALONGSHORE_SHARE, scale: 'linear' },
   nearFieldFreshwaterFraction: { min: 0.02, max: 1, scale: 'linear' },
@@ -95,7 +101,7 @@ export function effectiveT90Hours(settings: Pick<CalibrationRiverSettings, 't90D
 /** The calibrated values a river's settings hold now. */
 export function calibratedValuesOf(settings: CalibrationRiverSettings): CalibratedValues {
   return {
-    mixingLength: settings.mixingLength,
+    entrainmentCoefficient: settings.entrainmentCoefficient,
     t90Hours: effectiveT90Hours(settings),
     alongshoreShare: settings.alongshoreShare,
     nearFieldFreshwaterFraction: settings.nearFieldFreshwaterFraction ?? 1,
@@ -115,7 +121,7 @@ export function calibratedValuesOf(settings: CalibrationRiverSettings): Calibrat
 export function settingsPatchFor(settings: CalibrationRiverSettings, values: Partial<CalibratedValues>): Record<string, number> {
   const patch: Record<string, number> = {};
   const round = (v: number, digits: number) => Number(v.toPrecision(digits));
-  if (values.mixingLength !== undefined) patch.mixingLength = Math.round(values.mixingLength);
+  if (values.entrainmentCoefficient !== undefined) patch.entrainmentCoefficient = round(values.entrainmentCoefficient, 4);
   if (values.t90Hours !== undefined) {
     const ratio = values.t90Hours / effectiveT90Hours(settings);
     patch.t90DayHours = round(settings.t90DayHours * ratio, 4);
@@ -139,7 +145,7 @@ export function samplePlume(
 export interface PlacedSample extends CalibrationObservation {
   /** River flow on the sample's date, m³/s, > 0. */
   readonly flow: number;
-  /** s, alongshore distance downcoast from the mouth, m. */
+  /** s, signed alongshore distance from the mouth, m (> 0 down-coast, < 0 up-coast). */
   readonly along: number;
   /** x, offshore distance from the walked coast, m. */
   readonly offshore: number;
@@ -147,7 +153,7 @@ export interface PlacedSample extends CalibrationObservation {
 
 /** Prediction at a sample. */
 export interface SamplePrediction {
-  /** True when the sample lies within the plume's offshore extent X(s), whatever L and T90 are. */
+  /** True when the sample lies within the plume's offshore extent X(s), whatever E and T90 are. */
   readonly inside: boolean;
   readonly freshwaterFraction: number;
   readonly salinity: number;
@@ -165,12 +171,12 @@ function predictWith(
   const params: ExposureParameters = {
     seaSalinity: settings.seaSalinity,
     riverSalinity: settings.riverSalinity,
-    mixingLength: values.mixingLength,
+    entrainmentCoefficient: values.entrainmentCoefficient,
     decayRate: Math.LN10 / (values.t90Hours * 3600),
     riverIndicator: floodIndicatorConcentration(settings.indicator, flow),
     sourceFreshwaterFraction: values.nearFieldFreshwaterFraction,
   };
-  const s = Math.max(0, along);
+  const s = along;
   const x = Math.max(0, offshore);
   const f = fieldAt(plume, params, s, x);
   return {
@@ -202,7 +208,7 @@ export function predictSample(
   return predictWith(settings, values, plume, sample.flow, sample.along, sample.offshore);
 }
 
-/** Which values to fit besides L and T90. */
+/** Which values to fit besides E and T90. */
 export interface RiverFitOptions {
   readonly fitAlongshoreShare?: boolean;
   readonly fitNearFieldFraction?: boolean;
@@ -235,12 +241,12 @@ const SHARE_STEP = 0.01;
  * @param options - which extra values to fit; seed and restarts of the optimiser
  * @returns start and fitted values with agreement before and after
  * @example
- * fitRiver(settings, samples, { fitNearFieldFraction: true }).fitted.mixingLength; // => m
+ * fitRiver(settings, samples, { fitNearFieldFraction: true }).fitted.entrainmentCoefficient; // => –
  */
 export function fitRiver(settings: CalibrationRiverSettings, samples: readonly PlacedSample[], options: RiverFitOptions = {}): RiverFit {
   if (samples.length === 0) throw new RangeError('samples must hold at least one sample placed in the plume');
   const start = calibratedValuesOf(settings);
-  const names: CalibratedName[] = ['mixingLength', 't90Hours'];
+  const names: CalibratedName[] = ['entrainmentCoefficient', 't90Hours'];
   if (options.fitAlongshoreShare) names.push('alongshoreShare');
   if (options.fitNearFieldFraction) names.push('nearFieldFreshwaterFraction');
   const parameters: FitParameterSpec[] = names.map((name) => {
@@ -263,6 +269,7 @@ export function fitRiver(settings: CalibrationRiverSettings, samples: readonly P
     const mix = (p: number, q: number) => p + w * (q - p);
     return {
       regime: w < 0.5 ? a.regime : b.regime,
+      depth: mix(a.depth, b.depth),
       width: mix(a.width, b.width),
       meanSpeed: mix(a.meanSpeed, b.meanSpeed),
       noseSpeed: mix(a.noseSpeed, b.noseSpeed),
@@ -315,7 +322,7 @@ export interface FitBasis {
 export const MIN_FIT_SAMPLES = 30;
 /** Fewer distinct years: one season's weather may drive the fit, (c). */
 export const MIN_FIT_YEARS = 2;
-/** Fewer stations than this cannot separate the alongshore thinning (L) from the water leaving the mouth (φ0), (c). */
+/** Fewer stations than this cannot separate the alongshore thinning (E) from the water leaving the mouth (φ0), (c). */
 export const MIN_FIT_STATIONS = 3;
 /** The sampled flows should span at least this ratio max/min, (c) common practice: a factor of 5 covers low flows to moderate floods. */
 export const MIN_FLOW_RATIO = 5;
@@ -378,7 +385,7 @@ export function calibrationCautions(basis: FitBasis): string[] {
 }
 
 export const CALIBRATED_LABEL: Record<CalibratedName, string> = {
-  mixingLength: 'mixing length',
+  entrainmentCoefficient: 'entrainment coefficient',
   t90Hours: 'T90',
   alongshoreShare: 'alongshore share',
   nearFieldFreshwaterFraction: 'near-field freshwater fraction',

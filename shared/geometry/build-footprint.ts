@@ -12,20 +12,21 @@
  *    hemisphere (the coast on the right of the flow, science.md §1.1) and left in the
  *    southern, so the walk goes the way that keeps the sea on the left (north) or right
  *    (south). It goes for the reach (or the field's default extent when there is no reach),
- *    or until the coast line ends. Nothing is drawn upcoast except the bulge's own half: the
- *    bulge is a disc centred on the outflow axis, so its field is taken as symmetric about
- *    the mouth, and the walk also goes upcoast for one bulge radius y_s/2 where the band
- *    width is that of the bulge alone (c).
- * 4. At arc length s along the real coast each band reaches offshore to
- *    offshoreDistanceWhere(plume, params, s, threshold), measured along the coast normal as
- *    the field defines it. The walked coast is simplified (Douglas–Peucker, tolerance τ, by
+ *    or until the coast line ends. Up-coast the coastal current draws nothing (science.md
+ *    §1.11); the walk goes up-coast for one bulge radius only so the coast there is known.
+ * 4. Each band is the union of two parts (the field is the larger of the two, exposure-field):
+ *    the coastal current's strip and the bulge's lobe. Strip: at arc length s ≥ 0 along the
+ *    real coast the band reaches offshore to offshoreDistanceWhere(plume, params, s, threshold),
+ *    measured along the coast normal as the field defines it. Lobe: the region seen from the
+ *    mouth out to bulgeEdgeDistance(…, θ, …) along rays θ from the outflow axis towards
+ *    down-coast (96 rays), in the frame of the bulge disc. The walked coast is simplified (Douglas–Peucker, tolerance τ, by
  *    default 1 % of the narrowest band's widest point, 0.5…20 m) and sampled (every kept
  *    vertex, `alongSteps` even steps, the bulge circle, and the field's jumps: mouth, bulge
  *    edge, reach, each band's end); each segment gives a quad from τ + 1 m inside the land out
  *    to the band width (see offset-strip: fans at convex bends, mitres at concave ones). The
- *    band is the union of these pieces (cascaded, see union-rings) minus the land: land
+ *    band is the union of these pieces and the lobe (cascaded, see union-rings) minus the land: land
  *    polygons are subtracted; shoreline lines (and island rings) cut the union into faces,
- *    and only the faces that touch the walked coast from the sea side are kept — so pieces
+ *    and only the faces that touch the walked coast from the sea side (or hold a point of the lobe's axis) are kept — so pieces
  *    that crossed a shoreline onto land, island interiors, and water reached only across land
  *    are dropped. Slivers under 2 m² go. With the same path and samples for every band, a
  *    band with a stricter threshold is never wider, so salinity bands nest exactly.
@@ -49,6 +50,7 @@
 import type { Feature, LineString, MultiPolygon, Polygon, Position } from 'geojson';
 import type { TurningSide } from '../physics/coriolis';
 import {
+  bulgeEdgeDistance,
   defaultAlongExtent,
   type ExposureParameters,
   type FieldPlume,
@@ -117,7 +119,7 @@ export interface BandProperties {
   readonly threshold: FieldThreshold;
   /** Widest offshore distance of the band from the coast [m] (the field's value, before clipping). */
   readonly maxOffshoreM: number;
-  /** Arc length along the coast from the mouth to where the band ends [m] (radius at the equator). */
+  /** Arc length along the coast from the mouth to where the coastal-current part of the band ends [m] (the bulge part's down-coast extent when only the bulge meets the threshold; radius at the equator). */
   readonly alongReachM: number;
 }
 
@@ -171,7 +173,7 @@ const LANDWARD_MARGIN = 1;
  *   the walked coast, warnings and the mouth snap distance [m]; EPSG:4326
  * @example
  * const plume = computePlume({ latitude: 41, discharge: 150, reducedGravity: 0.02, mouthWidth: 800, mouthDepth: 1.5, floodDurationHours: 48 });
- * const params = exposureParameters({ mixingLength: 12000, t90DayHours: 6, t90NightHours: 48, indicator: { kind: 'constant', concentration: 1e4 } },
+ * const params = exposureParameters({ entrainmentCoefficient: 3e-5, t90DayHours: 6, t90NightHours: 48, indicator: { kind: 'constant', concentration: 1e4 } },
  *   { seaSalinity: 34, riverSalinity: 0 }, 150);
  * buildFootprint({ coast: { type: 'LineString', coordinates: [[-70, 40.5], [-70, 41.6]] }, mouth: [-70, 41], outflowAzimuth: 270,
  *   plume, params, bands: defaultBandSpecs({ speciesSalinityThreshold: 12, indicatorStandard: 14 }) });
@@ -235,6 +237,9 @@ export function buildFootprint(input: FootprintInput): Footprint {
 
   const sampled = samplePath(plume, params, input.bands, up, down, options, bulgeRadius);
   const stripSide: 1 | -1 = seaOnLeftOfWalk ? 1 : -1;
+  // Down-coast unit vector at the mouth: right of the outflow when the plume turns right.
+  const downCoast: PlanarPoint =
+    plume.turnsTo === 'right' ? [side.seaward[1], -side.seaward[0]] : [-side.seaward[1], side.seaward[0]];
   const bands = input.bands.map((spec) => {
     const widths = sampled.widths(spec.threshold);
     const rings = offsetStrip({
@@ -245,10 +250,14 @@ export function buildFootprint(input: FootprintInput): Footprint {
       landward: sampled.tolerance + LANDWARD_MARGIN,
       arcTolerance: Math.max(sampled.tolerance / 2, 0.25),
     });
-    const faces = clipToSea(context, rings, options.maxVertices, sampled.tolerance, warnings, spec.id);
-    const along = widths.max > 0 ? bandEnd(plume, params, spec.threshold, down.length) : 0;
-    if (widths.max === 0) warnings.push(`${spec.name}: the threshold is not met anywhere in the plume.`);
-    return bandFeature(spec, faces, projection, widths.max, along);
+    const lobe = bulgeLobe(plume, params, spec.threshold, snap.point, side.seaward, downCoast, sampled.tolerance);
+    const allRings = lobe ? [...rings, lobe.ring] : rings;
+    const faces = clipToSea(context, allRings, options.maxVertices, sampled.tolerance, warnings, spec.id, lobe?.seed);
+    const currentAlong = widths.max > 0 ? bandEnd(plume, params, spec.threshold, down.length) : 0;
+    const along = currentAlong > 0 ? currentAlong : lobe ? lobe.maxAlong : 0;
+    const maxOffshore = Math.max(widths.max, lobe ? lobe.maxOffshore : 0);
+    if (maxOffshore === 0) warnings.push(`${spec.name}: the threshold is not met anywhere in the plume.`);
+    return bandFeature(spec, faces, projection, maxOffshore, along);
   });
 
   const bulge = bulgeFeature(context, snap.point, side.seaward, bulgeRadius, sampled.tolerance, plume.bulgeOffshoreExtent, warnings);
@@ -489,12 +498,53 @@ function samplePath(
   };
 }
 
-/** @private Band width at signed arc length s: the field downstream, the bulge alone upcoast (within one bulge radius). */
-function bandWidth(plume: FootprintPlume, params: ExposureParameters, threshold: FieldThreshold, s: number, bulgeRadius: number): number {
-  if (s >= 0) return offshoreDistanceWhere(plume, params, s, threshold);
-  const along = -s;
-  if (along > bulgeRadius) return 0;
-  return offshoreDistanceWhere({ ...plume, width: Number.MIN_VALUE }, params, along, threshold);
+/** @private Band width at signed arc length s: the coastal current's edge (0 up-coast; the bulge is drawn as its own lobe). */
+function bandWidth(plume: FootprintPlume, params: ExposureParameters, threshold: FieldThreshold, s: number, _bulgeRadius: number): number {
+  if (s < 0) return 0;
+  return offshoreDistanceWhere(plume, params, s, threshold);
+}
+
+/** Rays of a band's bulge lobe (its outline seen from the mouth). */
+const BULGE_LOBE_RAYS = 96;
+
+/**
+ * @private The bulge part of a band: the region {d ≤ D(θ)} seen from the mouth (bulgeEdgeDistance),
+ * θ from the outflow axis towards down-coast, as a ring with a strip `landward` behind the mouth;
+ * null when the bulge does not meet the threshold.
+ */
+function bulgeLobe(
+  plume: FootprintPlume,
+  params: ExposureParameters,
+  threshold: FieldThreshold,
+  mouth: PlanarPoint,
+  seaward: PlanarPoint,
+  downCoast: PlanarPoint,
+  tolerance: number,
+): { ring: PlanarPoint[]; seed: PlanarPoint; maxOffshore: number; maxAlong: number } | null {
+  const arc: PlanarPoint[] = [];
+  let maxOffshore = 0;
+  let maxAlong = 0;
+  let axis = 0;
+  for (let i = 1; i < BULGE_LOBE_RAYS; i += 1) {
+    const theta = -Math.PI / 2 + (Math.PI * i) / BULGE_LOBE_RAYS;
+    const d = bulgeEdgeDistance(plume, params, theta, threshold);
+    const a = d * Math.sin(theta);
+    const x = d * Math.cos(theta);
+    if (i * 2 === BULGE_LOBE_RAYS) axis = d;
+    maxOffshore = Math.max(maxOffshore, x);
+    maxAlong = Math.max(maxAlong, a);
+    arc.push([mouth[0] + a * downCoast[0] + x * seaward[0], mouth[1] + a * downCoast[1] + x * seaward[1]]);
+  }
+  if (maxOffshore <= 0 || axis <= 0) return null;
+  const back = tolerance + LANDWARD_MARGIN;
+  // As the equatorial half-disc: the arc from the up-coast side to the down-coast side, then
+  // back behind the mouth.
+  const ring: PlanarPoint[] = [
+    ...arc,
+    [mouth[0] + back * (downCoast[0] - seaward[0]), mouth[1] + back * (downCoast[1] - seaward[1])],
+    [mouth[0] - back * (downCoast[0] + seaward[0]), mouth[1] - back * (downCoast[1] + seaward[1])],
+  ];
+  return { ring, seed: offsetPoint(mouth, seaward, axis / 2), maxOffshore, maxAlong };
 }
 
 /** @private Arc length where a band ends downstream (last s with a positive width), within [0, limit]. */

@@ -204,3 +204,85 @@ function centre(values: number[]): { medianHours: number | null; meanHours: numb
     meanHours: values.reduce((a, b) => a + b, 0) / values.length,
   };
 }
+
+/** The result of {@link durationsForFlows}. */
+export interface FlowDurations {
+  /** Duration [h] for each flow given, in the same order; never shorter for a larger flow. */
+  hours: number[];
+  /** Fitted exponent b of duration ∝ peak^b (0 when the record cannot show one). */
+  exponent: number;
+  /** Annual peak events the fit rests on. */
+  events: number;
+  /** Plain-English warnings (too short a record, no growth shown, extrapolation). */
+  warnings: string[];
+}
+
+/** Fewer annual peak events than this cannot show how duration changes with flood size, (c). */
+export const MIN_DURATION_EVENTS = 10;
+
+/**
+ * Flood duration for each design flow from the record's own hydrographs: each annual peak's time
+ * above half of it ({@link typicalDurationForPeak}) is regressed on the peak in log–log space,
+ * duration = a·peak^b by least squares, and read off at each flow. A rarer (larger) flood so lasts
+ * longer when the record shows it; b is kept ≥ 0 so a larger flood never lasts less (a record
+ * whose larger floods happen to be shorter gives every flow the median). Beyond the largest
+ * recorded peak the line is carried on but capped at twice the longest recorded duration.
+ * With fewer than {@link MIN_DURATION_EVENTS} events every flow gets the median, and a warning
+ * says the record is too short.
+ *
+ * @param events - annual peak events (typicalDurationForPeak(…).events), each { peak, durationHours }
+ * @param flows - design flows [readings' units], > 0
+ * @param minEvents - events needed for the fit (default 10)
+ * @returns { hours per flow, exponent b, events, warnings }
+ * @example
+ * durationsForFlows(typicalDurationForPeak(readings).events, [300, 600, 1200]).hours; // => [72, 96, 130] (for a record whose larger floods last longer)
+ * Source: (c) common practice: duration above half the peak as the width of a hydrograph
+ * (science.md §1.11); a power law of peak fitted by least squares in log space is our choice.
+ */
+export function durationsForFlows(
+  events: readonly Pick<PeakDuration, 'peak' | 'durationHours'>[],
+  flows: readonly number[],
+  minEvents = MIN_DURATION_EVENTS,
+): FlowDurations {
+  for (const q of flows) {
+    if (!(typeof q === 'number' && Number.isFinite(q) && q > 0)) throw new RangeError(`flows must be positive discharges (got ${String(q)})`);
+  }
+  const usable = events.filter((e) => e.peak > 0 && e.durationHours > 0);
+  const warnings: string[] = [];
+  const median = centre(usable.map((e) => e.durationHours)).medianHours;
+  if (usable.length === 0) {
+    warnings.push('The record has no flood peaks to measure durations from: every flood was given 72 hours.');
+    return { hours: flows.map(() => 72), exponent: 0, events: 0, warnings };
+  }
+  if (usable.length < minEvents) {
+    warnings.push(
+      `The record holds only ${usable.length} annual flood${usable.length === 1 ? '' : 's'} (at least ${minEvents} are needed to show how much longer a larger flood lasts): every flood was given the median duration, ${Math.round(median as number)} hours.`,
+    );
+    return { hours: flows.map(() => median as number), exponent: 0, events: usable.length, warnings };
+  }
+  const xs = usable.map((e) => Math.log(e.peak));
+  const ys = usable.map((e) => Math.log(e.durationHours));
+  const mx = xs.reduce((a, b) => a + b, 0) / xs.length;
+  const my = ys.reduce((a, b) => a + b, 0) / ys.length;
+  let sxx = 0;
+  let sxy = 0;
+  for (let i = 0; i < xs.length; i++) {
+    sxx += (xs[i] - mx) ** 2;
+    sxy += (xs[i] - mx) * (ys[i] - my);
+  }
+  let exponent = sxx > 0 ? sxy / sxx : 0;
+  if (!(exponent > 0)) {
+    warnings.push("In this record larger floods do not last longer than smaller ones: every flood was given the median duration.");
+    return { hours: flows.map(() => median as number), exponent: 0, events: usable.length, warnings };
+  }
+  exponent = Math.min(exponent, 2);
+  const largest = Math.max(...usable.map((e) => e.peak));
+  const longest = Math.max(...usable.map((e) => e.durationHours));
+  if (flows.some((q) => q > largest)) {
+    warnings.push(
+      `Durations of floods above the largest recorded peak (${Math.round(largest)}) are extrapolated from the record's own floods (capped at twice its longest, ${Math.round(2 * longest)} hours).`,
+    );
+  }
+  const hours = flows.map((q) => Math.min(2 * longest, Math.exp(my + exponent * (Math.log(q) - mx))));
+  return { hours, exponent, events: usable.length, warnings };
+}

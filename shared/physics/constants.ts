@@ -148,11 +148,24 @@ export const MANCINI_SEAWATER_RATE_PER_DAY_PERCENT = 0.006;
 export const MANCINI_TEMPERATURE_FACTOR = 1.07;
 
 /**
- * Default e-folding length of the alongshore dilution of the coastal current [m].
- * (c) common practice: a screening default of a few bulge diameters, meant to be fitted
- * by calibration (science.md §0 item 7).
+ * Default entrainment coefficient E of the coastal current [–]: the entrainment velocity across
+ * the plume's base as a share of its mean speed, w_e = E·U0. Sets the dilution length
+ * L_e = (a/φ0)·H0/E (science.md §1.11).
+ * (b) from memory: E of order 10⁻⁵ to 10⁻⁴ for strongly stratified flow (after Ellison & Turner
+ * 1959, where E falls steeply with the Richardson number); 3×10⁻⁵ is science.md §1.11's check
+ * value (L_e = 21.6 km for the §1.10 river), a screening default to be fitted by calibration.
  */
-export const DEFAULT_MIXING_LENGTH = 30_000;
+export const DEFAULT_ENTRAINMENT_COEFFICIENT = 3e-5;
+/** Smallest entrainment coefficient a user may set [–]. (c) a tenth of the low end of science.md §1.11's 10⁻⁵…10⁻⁴. */
+export const MIN_ENTRAINMENT_COEFFICIENT = 1e-6;
+/** Largest entrainment coefficient a user may set [–]. (c) ten times the high end of science.md §1.11's 10⁻⁵…10⁻⁴. */
+export const MAX_ENTRAINMENT_COEFFICIENT = 1e-3;
+/**
+ * Shape factor a = Q/(U0·W0·H0) of the zero-PV coastal current [–]: its cross-section is
+ * (2/3)·H0·W0 (science.md §1.4, family 1), so a = 2/3.
+ * (c) derived: science.md §1.4 and §1.11.
+ */
+export const ZERO_PV_SHAPE_FACTOR = 2 / 3;
 
 /** Default daytime T90 of E. coli / FC in a turbid flood plume [h]. (c) common practice: science.md §5.2. */
 export const DEFAULT_T90_DAY_HOURS = 6;

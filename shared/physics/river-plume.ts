@@ -11,6 +11,7 @@ import type { IndicatorSpec } from './exposure-field';
 import { type ExposureParameters, exposureParameters, fieldAt, defaultAlongExtent } from './exposure-field';
 import { computePlume, type PlumeInput, type PlumeResult } from './compute-plume';
 import { coastalCurrentThickness } from './coastal-current';
+import { MAX_ENTRAINMENT_COEFFICIENT, MIN_ENTRAINMENT_COEFFICIENT, ZERO_PV_SHAPE_FACTOR } from './constants';
 
 /** The river settings the plume needs (the shape of shared/schemas/river RiverSettings). */
 export interface RiverPlumeSettings {
@@ -23,7 +24,7 @@ export interface RiverPlumeSettings {
   readonly seaSalinity: number;
   readonly seaTemperature: number;
   readonly alongshoreShare: number;
-  readonly mixingLength: number;
+  readonly entrainmentCoefficient: number;
   readonly t90DayHours: number;
   readonly t90NightHours: number;
   readonly daylightFraction?: number;
@@ -37,7 +38,7 @@ export interface RiverPlumeSettings {
  * Source: (c) a mapping of names; the physics is computePlume's.
  */
 export function plumeInput(
-  settings: Omit<RiverPlumeSettings, 'mixingLength' | 't90DayHours' | 't90NightHours' | 'indicator'>,
+  settings: Omit<RiverPlumeSettings, 'entrainmentCoefficient' | 't90DayHours' | 't90NightHours' | 'indicator'>,
   discharge: number,
   alongshoreShare = settings.alongshoreShare,
 ): PlumeInput {
@@ -72,7 +73,7 @@ export function riverPlume(
   const plume = computePlume({ ...plumeInput(settings, flow.discharge), floodDurationHours: flow.durationHours });
   const base = exposureParameters(
     {
-      mixingLength: settings.mixingLength,
+      entrainmentCoefficient: settings.entrainmentCoefficient,
       t90DayHours: settings.t90DayHours,
       t90NightHours: settings.t90NightHours,
       daylightFraction: settings.daylightFraction,
@@ -150,4 +151,30 @@ export function plumeProfiles(plume: PlumeResult, params: ExposureParameters, st
     alongshore.push({ alongKm: s / 1000, salinity: v.salinity, indicator: v.indicator });
   }
   return { sectionAlongKm: reachCut / 1000, crossShore, alongshore };
+}
+
+/**
+ * The entrainment coefficient E that gives a river the dilution length L_e it had as a fixed
+ * "mixing length" at a reference flow: E = (a/φ0)·H0(Q_ref)/L_e, clamped to the allowed range.
+ * Used to carry settings saved before the dilution length followed the flow (science.md §1.11).
+ *
+ * @param settings - river settings (mouth, water, alongshore share, φ0)
+ * @param dilutionLengthM - the old fixed length [m], > 0
+ * @param referenceDischarge - Q_ref [m³ s⁻¹], > 0: the flow at which the old length should hold
+ *   (the median annual peak of the river's record is the natural choice: the floods it screened)
+ * @returns E [–], within MIN_ENTRAINMENT_COEFFICIENT…MAX_ENTRAINMENT_COEFFICIENT
+ * @example
+ * entrainmentForDilutionLength(settings, 25000, 450); // => (2/3)·H0(450 m³/s)/(φ0·25000)
+ * Source: (c) derived: inversion of L_e = (a/φ0)·H0/E (science.md §1.11), a = 2/3.
+ */
+export function entrainmentForDilutionLength(
+  settings: Omit<RiverPlumeSettings, 'entrainmentCoefficient' | 't90DayHours' | 't90NightHours' | 'indicator'>,
+  dilutionLengthM: number,
+  referenceDischarge: number,
+): number {
+  if (!(dilutionLengthM > 0) || !Number.isFinite(dilutionLengthM)) throw new RangeError(`dilution length must be > 0 m (got ${String(dilutionLengthM)})`);
+  const plume = computePlume(plumeInput(settings, referenceDischarge));
+  const phi0 = settings.nearFieldFreshwaterFraction ?? 1;
+  const e = (ZERO_PV_SHAPE_FACTOR * plume.depth) / (Math.max(phi0, 1e-6) * dilutionLengthM);
+  return Number(Math.min(MAX_ENTRAINMENT_COEFFICIENT, Math.max(MIN_ENTRAINMENT_COEFFICIENT, e)).toPrecision(4));
 }

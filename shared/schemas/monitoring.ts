@@ -91,7 +91,7 @@ export const comparisonPointSchema = z.object({
   stationName: z.string().nullable(),
   sampledAt: z.string(),
   flow: z.number().describe('River flow on the date (m³/s): the largest daily flow over the lag window'),
-  along: z.number().describe('Alongshore distance downcoast from the mouth, m'),
+  along: z.number().describe('Signed alongshore distance from the mouth, m: positive down-coast (the way the coastal current turns), negative up-coast'),
   offshore: z.number().describe('Distance from the walked coast, m'),
   distanceFromMouth: z.number().describe('Straight-line distance from the mouth, m'),
   observedSalinity: z.number().nullable(),
@@ -118,7 +118,10 @@ export const outsideSampleSchema = z.object({
 });
 
 export const calibratedValuesSchema = z.object({
-  mixingLength: z.number(),
+  /** Entrainment coefficient E (model 2 on). */
+  entrainmentCoefficient: z.number().optional(),
+  /** Fixed alongshore mixing length, m (calibrations saved by model 1 only). */
+  mixingLength: z.number().optional(),
   t90Hours: z.number(),
   alongshoreShare: z.number(),
   nearFieldFreshwaterFraction: z.number(),

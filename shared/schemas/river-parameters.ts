@@ -1,6 +1,6 @@
 /**
  * @module shared/schemas/river-parameters
- * Per-river settings of the exposure fields: alongshore mixing length, day/night T90 of the
+ * Per-river settings of the exposure fields: entrainment coefficient of the coastal current, day/night T90 of the
  * faecal indicator, daylight fraction, indicator concentration in flood water (constant or a
  * power law of flow) and the share of the discharge carried alongshore. Each default has its
  * source in {@link RIVER_PARAMETER_DEFAULTS}.
@@ -11,9 +11,11 @@ import {
   DEFAULT_ALONGSHORE_SHARE,
   DEFAULT_DAYLIGHT_FRACTION,
   DEFAULT_FLOOD_INDICATOR_CONCENTRATION,
-  DEFAULT_MIXING_LENGTH,
+  DEFAULT_ENTRAINMENT_COEFFICIENT,
   DEFAULT_T90_DAY_HOURS,
   DEFAULT_T90_NIGHT_HOURS,
+  MAX_ENTRAINMENT_COEFFICIENT,
+  MIN_ENTRAINMENT_COEFFICIENT,
 } from '../physics/constants';
 import { numberField, strictObjectError } from './physical-fields';
 
@@ -31,12 +33,12 @@ export interface DocumentedDefault<T> {
 
 /** Defaults of the river parameters, each with its source label. */
 export const RIVER_PARAMETER_DEFAULTS = {
-  mixingLength: {
-    value: DEFAULT_MIXING_LENGTH,
-    unit: 'm',
-    label: 'c',
+  entrainmentCoefficient: {
+    value: DEFAULT_ENTRAINMENT_COEFFICIENT,
+    unit: '',
+    label: 'b',
     source:
-      'common practice: a screening e-folding length of a few bulge diameters, to be fitted by calibration (science.md §0 item 7)',
+      'from memory: entrainment into strongly stratified flow is of order 1e-5 to 1e-4 (after Ellison & Turner 1959); 3e-5 is the science.md §1.11 check value; sets the dilution length L_e = (2/3)·H0/(φ0·E), which grows with flow; fitted by calibration',
   },
   t90DayHours: {
     value: DEFAULT_T90_DAY_HOURS,
@@ -108,11 +110,12 @@ export type IndicatorSpecInput = z.infer<typeof IndicatorSpecSchema>;
 /** River parameters for the exposure fields; missing fields take their documented defaults. */
 export const RiverParametersSchema = z.strictObject(
   {
-    mixingLength: numberField('mixingLength', 'm', 'Alongshore e-folding length of the fresh-water fraction', {
-      min: 0,
-      exclusiveMin: true,
-      max: 1e6,
-    }).default(RIVER_PARAMETER_DEFAULTS.mixingLength.value),
+    entrainmentCoefficient: numberField(
+      'entrainmentCoefficient',
+      '',
+      'Entrainment coefficient of the coastal current (dilution length = (2/3)·depth/(fraction at the mouth × coefficient))',
+      { min: MIN_ENTRAINMENT_COEFFICIENT, max: MAX_ENTRAINMENT_COEFFICIENT },
+    ).default(RIVER_PARAMETER_DEFAULTS.entrainmentCoefficient.value),
     t90DayHours: numberField('t90DayHours', 'h', 'Daytime T90 of the faecal indicator', {
       min: 0,
       exclusiveMin: true,

@@ -4,6 +4,7 @@
  * screens can say which numbers are still defaults.
  */
 import { z } from 'zod';
+import { MAX_ENTRAINMENT_COEFFICIENT, MIN_ENTRAINMENT_COEFFICIENT } from '../physics/constants';
 import { numberField, strictObjectError } from './physical-fields';
 import { IndicatorSpecSchema, RIVER_PARAMETER_DEFAULTS } from './river-parameters';
 import { latitudeField, salinityField, temperatureField } from './water';
@@ -51,7 +52,12 @@ const settingsShape = {
   riverTemperature: temperatureField('riverTemperature').optional(),
   seaSalinity: salinityField('seaSalinity').optional(),
   seaTemperature: temperatureField('seaTemperature').optional(),
-  mixingLength: numberField('mixingLength', 'm', 'Alongshore e-folding length of the fresh-water fraction', { min: 0, exclusiveMin: true, max: 1e6 }).optional(),
+  entrainmentCoefficient: numberField(
+    'entrainmentCoefficient',
+    '',
+    'Entrainment coefficient of the coastal current (dilution length = (2/3)·depth/(fraction at the mouth × coefficient)); 1e-6 to 1e-3, typically 1e-5 to 1e-4',
+    { min: MIN_ENTRAINMENT_COEFFICIENT, max: MAX_ENTRAINMENT_COEFFICIENT },
+  ).optional(),
   t90DayHours: numberField('t90DayHours', 'h', 'Daytime T90 of the faecal indicator', { min: 0, exclusiveMin: true, max: 10_000 }).optional(),
   t90NightHours: numberField('t90NightHours', 'h', 'Night-time T90 of the faecal indicator', { min: 0, exclusiveMin: true, max: 10_000 }).optional(),
   daylightFraction: numberField('daylightFraction', '', 'Fraction of the day in daylight', { min: 0, max: 1 }).optional(),

@@ -201,7 +201,7 @@ describe('rivers.json', () => {
   it('passes the engine’s own schemas (river parameters and a plume request at a flood flow)', () => {
     for (const r of rivers) {
       const params = RiverParametersSchema.safeParse({
-        mixingLength: r.mixingLengthM,
+        entrainmentCoefficient: (r as { entrainmentCoefficient?: number }).entrainmentCoefficient ?? 3e-5,
         t90DayHours: r.t90DayHours,
         t90NightHours: r.t90NightHours,
         daylightFraction: r.daylightFraction,

@@ -83,10 +83,10 @@ describe('monitoring and calibration', () => {
     await result.getByRole('button', { name: 'Apply to Amberlin River' }).click();
     await result.getByText('Applied to the river').waitFor({ timeout: 60_000 });
     const applied = await amberlinSettings();
-    expect(applied.mixingLength).not.toBe(original.mixingLength);
+    expect(applied.entrainmentCoefficient).not.toBe(original.entrainmentCoefficient);
     expect(applied.nearFieldFreshwaterFraction).not.toBe(original.nearFieldFreshwaterFraction);
     // The comparison above is redrawn with the applied values.
-    await page.getByText(/Settings now: mixing length (?!25\.0 km)/).waitFor();
+    await page.getByText(new RegExp(`Settings now: entrainment coefficient (?!${(original.entrainmentCoefficient as number).toExponential(2).replace('.', '\\.')})`)).waitFor();
     const audit = await pool.query(`SELECT count(*)::int AS n FROM audit_entries WHERE action = 'calibration.apply'`);
     expect(audit.rows[0].n).toBeGreaterThan(0);
     await screenshot(page, 'monitoring-5-applied');

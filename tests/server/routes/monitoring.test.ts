@@ -198,8 +198,10 @@ describe('comparison with the demo samples', () => {
     const c = res.body;
     expect(c.points.length).toBeGreaterThan(100);
     expect(c.points.length + c.outside.length + c.otherRivers).toBeGreaterThanOrEqual(309);
-    // FB-S08 answers to Tolley Brook (demo-data/README.md).
-    expect(c.points.some((p: { stationCode: string }) => p.stationCode === 'FB-S08')).toBe(false);
+    // FB-S08 lies near Tolley Brook, up-coast of the Amberlin mouth (demo-data/README.md): it keeps its
+    // distance from the mouth as a negative alongshore position (science.md §1.11), never "at the mouth".
+    const s08 = c.points.filter((p: { stationCode: string }) => p.stationCode === 'FB-S08') as { along: number }[];
+    for (const p of s08) expect(p.along).toBeLessThan(-5000);
     const p = c.points[0];
     expect(p.flow).toBeGreaterThan(0);
     expect(p.predictedSalinity).toBeGreaterThan(0);
@@ -223,8 +225,8 @@ describe('comparison with the demo samples', () => {
 
 describe('calibration of a synthetic river with known parameters', () => {
   // A river owned by a user of no jurisdiction, so no other river competes for its samples. Its settings
-  // are the truth: L = 18 000 m and T90 6 h by day, 30 h by night (effective T90 = 1/(0.5/6 + 0.5/30) = 10 h, c derived).
-  const TRUTH = { mixingLength: 18_000, t90Hours: 10 };
+  // are the truth: E = 4e-5 and T90 6 h by day, 30 h by night (effective T90 = 1/(0.5/6 + 0.5/30) = 10 h, c derived).
+  const TRUTH = { entrainmentCoefficient: 4e-5, t90Hours: 10 };
   const settingsBody = {
     name: 'Synthetic Creek',
     mouthLongitude: -38.6007654,
@@ -237,7 +239,7 @@ describe('calibration of a synthetic river with known parameters', () => {
     riverTemperature: 9,
     seaSalinity: 33.5,
     seaTemperature: 12,
-    mixingLength: TRUTH.mixingLength,
+    entrainmentCoefficient: TRUTH.entrainmentCoefficient,
     t90DayHours: 6,
     t90NightHours: 30,
     daylightFraction: 0.5,
@@ -246,7 +248,7 @@ describe('calibration of a synthetic river with known parameters', () => {
     nearFieldFreshwaterFraction: 0.6,
   };
 
-  it('recovers the mixing length and T90 within 5 % from noisy, partly censored samples, and the skill improves', async () => {
+  it('recovers the entrainment coefficient and T90 within 5 % from noisy, partly censored samples, and the skill improves', async () => {
     await request(t.app)
       .post('/api/v1/account/sign-up')
       .send({ name: 'Lone Grower', email: 'lone@brackline.test', password: 'lone-grower-pw-1' });
@@ -310,12 +312,12 @@ describe('calibration of a synthetic river with known parameters', () => {
     const real = await upload(lone, '/api/v1/samples', [header, ...lines].join('\n'), 'synthetic.csv').expect(201);
     expect(real.body.updated).toBe(lines.length);
 
-    // Start from poor values: L = 6 km, T90 five times too long.
-    await lone.patch(`/api/v1/rivers/${riverId}`).send({ mixingLength: 6000, t90DayHours: 30, t90NightHours: 150 }).expect(200);
+    // Start from poor values: E four times too large, T90 five times too long.
+    await lone.patch(`/api/v1/rivers/${riverId}`).send({ entrainmentCoefficient: 1.6e-4, t90DayHours: 30, t90NightHours: 150 }).expect(200);
     const fit = await lone.post(`/api/v1/rivers/${riverId}/calibrations`).send({ lagDays: 0 }).expect(201);
     const c = fit.body;
-    expect(c.start.mixingLength).toBe(6000);
-    expect(Math.abs(c.fitted.mixingLength / TRUTH.mixingLength - 1)).toBeLessThan(0.05);
+    expect(c.start.entrainmentCoefficient).toBe(1.6e-4);
+    expect(Math.abs(c.fitted.entrainmentCoefficient / TRUTH.entrainmentCoefficient - 1)).toBeLessThan(0.05);
     expect(Math.abs(c.fitted.t90Hours / TRUTH.t90Hours - 1)).toBeLessThan(0.05);
     // Nash–Sutcliffe skill, (a) Nash & Sutcliffe 1970: better after the fit, for both variables.
     expect(c.after.salinity.skill).toBeGreaterThan(c.before.salinity.skill);
@@ -349,7 +351,7 @@ describe('apply and roll back on the demo region', () => {
     const fit = await grower.post(`/api/v1/rivers/${amberlinId}/calibrations`).send({ lagDays: 2, fitNearFieldFraction: true }).expect(201);
     const id = fit.body.id as string;
     expect(fit.body.canApply).toBe(false);
-    expect(fit.body.fittedNames).toEqual(['mixingLength', 't90Hours', 'nearFieldFreshwaterFraction']);
+    expect(fit.body.fittedNames).toEqual(['entrainmentCoefficient', 't90Hours', 'nearFieldFreshwaterFraction']);
     expect(fit.body.after.salinity.rmse).toBeLessThan(fit.body.before.salinity.rmse);
 
     // Denials: the grower did not create the river; another grower cannot see this fit; an adviser neither.
@@ -368,9 +370,9 @@ describe('apply and roll back on the demo region', () => {
     const applied = await regulator.post(`/api/v1/calibrations/${id}/apply`).expect(200);
     expect(applied.body.status).toBe('applied');
     const after = await settingsOf();
-    expect(after.mixingLength).toBe(fit.body.settingsPatch.mixingLength);
+    expect(after.entrainmentCoefficient).toBe(fit.body.settingsPatch.entrainmentCoefficient);
     expect(after.nearFieldFreshwaterFraction).toBe(fit.body.settingsPatch.nearFieldFreshwaterFraction);
-    expect(applied.body.previous).toMatchObject({ mixingLength: beforeSettings.mixingLength, nearFieldFreshwaterFraction: 0.5 });
+    expect(applied.body.previous).toMatchObject({ entrainmentCoefficient: beforeSettings.entrainmentCoefficient, nearFieldFreshwaterFraction: 0.5 });
     const afterRatings = await ratingsOf('grower@brackline.test');
     expect(afterRatings).not.toEqual(beforeRatings);
     const audit = await t.db.pool.query(
@@ -378,8 +380,8 @@ describe('apply and roll back on the demo region', () => {
       [amberlinId],
     );
     expect(audit.rows).toHaveLength(1);
-    expect(audit.rows[0].before.mixingLength).toBe(beforeSettings.mixingLength);
-    expect(audit.rows[0].after.mixingLength).toBe(fit.body.settingsPatch.mixingLength);
+    expect(audit.rows[0].before.entrainmentCoefficient).toBe(beforeSettings.entrainmentCoefficient);
+    expect(audit.rows[0].after.entrainmentCoefficient).toBe(fit.body.settingsPatch.entrainmentCoefficient);
     await regulator.post(`/api/v1/calibrations/${id}/apply`).expect(409);
 
     // Rollback: a grower may not; the regulator restores the values and the ratings.
@@ -392,7 +394,7 @@ describe('apply and roll back on the demo region', () => {
       `SELECT action, after FROM audit_entries WHERE action = 'calibration.rollback' AND subject_id = $1`,
       [amberlinId],
     );
-    expect(audit2.rows[0].after.mixingLength).toBe(beforeSettings.mixingLength);
+    expect(audit2.rows[0].after.entrainmentCoefficient).toBe(beforeSettings.entrainmentCoefficient);
     await regulator.post(`/api/v1/calibrations/${id}/rollback`).expect(409);
   }, 300_000);
 });

@@ -37,7 +37,7 @@ const newRiver = { name: 'Test Creek', mouthLongitude: -38.6, mouthLatitude: 41.
 describe('rivers', () => {
   it('creates a river and marks the documented defaults it uses', async () => {
     const res = await adviser.post('/api/v1/rivers').send(newRiver).expect(201);
-    expect(res.body.defaultsUsed).toEqual(expect.arrayContaining(['seaSalinity', 'mixingLength', 't90DayHours', 'alongshoreShare']));
+    expect(res.body.defaultsUsed).toEqual(expect.arrayContaining(['seaSalinity', 'entrainmentCoefficient', 't90DayHours', 'alongshoreShare']));
     expect(res.body.settings.seaSalinity).toBe(34);
     const changed = await adviser.patch(`/api/v1/rivers/${res.body.id}`).send({ seaSalinity: 33 }).expect(200);
     expect(changed.body.defaultsUsed).not.toContain('seaSalinity');
@@ -58,7 +58,7 @@ describe('rivers', () => {
   });
 
   it("only the river's creator or the jurisdiction's regulator may change it", async () => {
-    const res = await grower.patch(`/api/v1/rivers/${amberlinId}`).send({ mixingLength: 1000 }).expect(403);
+    const res = await grower.patch(`/api/v1/rivers/${amberlinId}`).send({ entrainmentCoefficient: 1e-4 }).expect(403);
     expect(res.body.error.message).toMatch(/creator or a regulator/);
     await grower2.get(`/api/v1/rivers/${amberlinId}`).expect(200);
   });

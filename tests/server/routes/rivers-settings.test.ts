@@ -38,7 +38,7 @@ const RANGES: [string, unknown, unknown, RegExp][] = [
   ['riverTemperature', -2.1, 40.1, /riverTemperature must be between -2 and 40 °C/],
   ['seaSalinity', -0.1, 42.1, /seaSalinity must be between 0 and 42/],
   ['seaTemperature', -2.1, 40.1, /seaTemperature must be between -2 and 40 °C/],
-  ['mixingLength', 0, 1_000_001, /mixingLength must be greater than 0 and at most 1000000 m/],
+  ['entrainmentCoefficient', 1e-7, 0.0011, /entrainmentCoefficient must be between 0.000001 and 0.001/],
   ['t90DayHours', 0, 10_001, /t90DayHours must be greater than 0 and at most 10000 h/],
   ['t90NightHours', 0, 10_001, /t90NightHours must be greater than 0 and at most 10000 h/],
   ['daylightFraction', -0.01, 1.01, /daylightFraction must be between 0 and 1/],
@@ -82,8 +82,8 @@ describe('river settings: every field has its range, and the message says which'
     const res = await adviser.post('/api/v1/rivers').send({ ...base, name: 'Default Creek' }).expect(201);
     expect(res.body.defaultsUsed.sort()).toEqual(Object.keys(RIVER_DEFAULTS).sort());
     for (const [field, d] of Object.entries(RIVER_DEFAULTS)) expect(res.body.settings[field]).toEqual(d.value);
-    const changed = await adviser.patch(`/api/v1/rivers/${res.body.id}`).send({ mixingLength: 12_000, riverTemperature: 8 }).expect(200);
-    expect(changed.body.defaultsUsed).not.toContain('mixingLength');
+    const changed = await adviser.patch(`/api/v1/rivers/${res.body.id}`).send({ entrainmentCoefficient: 5e-5, riverTemperature: 8 }).expect(200);
+    expect(changed.body.defaultsUsed).not.toContain('entrainmentCoefficient');
     expect(changed.body.defaultsUsed).not.toContain('riverTemperature');
     expect(changed.body.defaultsUsed).toContain('seaSalinity');
     // Renaming does not clear any default flag.

@@ -10,12 +10,13 @@ import {
 import type { FieldPlume } from '../../../shared/physics/exposure-field';
 
 const SETTINGS: PlumeFieldSettings = { seaSalinity: 34, riverSalinity: 0, sourceFreshwaterFraction: 0.8 };
-const TRUTH = { mixingLength: 25_000, t90Hours: 20 };
+const TRUTH = { entrainmentCoefficient: 3e-5, t90Hours: 20 };
 
 /** Invented plume scales that grow with flow, (c) synthetic stand-ins for computed plumes. */
 function plumeFor(flow: number): FieldPlume {
   return {
     regime: 'surface-advected',
+    depth: 0.3 + flow / 2000,
     width: 3000 + 2 * flow,
     meanSpeed: 0.12 + flow / 10_000,
     noseSpeed: 0.18 + flow / 8000,
@@ -31,7 +32,7 @@ function makeObservations(seed: number, count: number): PlumeObservation[] {
   for (let i = 0; i < count; i++) {
     const flow = 200 + 1800 * uniform();
     const plume = plumeFor(flow);
-    const place = { along: 60_000 * uniform(), offshore: 1.2 * plume.width * uniform(), plume, riverIndicator: 2e4 };
+    const place = { along: -8000 + 68_000 * uniform(), offshore: 1.2 * plume.width * uniform(), plume, riverIndicator: 2e4 };
     const truth = predictPlumeObservation(TRUTH, SETTINGS, { ...place, salinity: { value: 0 } });
     const salinity = Math.min(45, Math.max(0, (truth.salinity as number) + 0.5 * normal()));
     const c = truth.indicator as number;
@@ -51,17 +52,17 @@ describe('calibratePlume (adapter over shared/physics/exposure-field fieldAt)', 
     expect(p.indicator).toBeCloseTo(16_000, 6);
   });
 
-  it('recovers L and T90 within 5 % from a poor start, with better skill', () => {
-    // (c) synthetic truth L = 25 000 m, T90 = 20 h; start L = 8 000 m, T90 = 60 h; 150 observations
+  it('recovers E and T90 within 5 % from a poor start, with better skill', () => {
+    // (c) synthetic truth E = 3e-5, T90 = 20 h; start E = 1.5e-4, T90 = 60 h; 150 observations on both sides of the mouth
     const observations = makeObservations(99, 150);
     const fit = calibratePlume({
       observations,
       settings: SETTINGS,
-      mixingLength: { initial: 8000, min: 1000, max: 200_000 },
+      entrainmentCoefficient: { initial: 1.5e-4, min: 1e-6, max: 1e-3 },
       t90Hours: { initial: 60, min: 0.5, max: 200 },
       seed: 11,
     });
-    expect(Math.abs(fit.fitted.mixingLength / TRUTH.mixingLength - 1)).toBeLessThan(0.05);
+    expect(Math.abs(fit.fitted.entrainmentCoefficient / TRUTH.entrainmentCoefficient - 1)).toBeLessThan(0.05);
     expect(Math.abs(fit.fitted.t90Hours / TRUTH.t90Hours - 1)).toBeLessThan(0.05);
     // Nash–Sutcliffe skill, (a) Nash & Sutcliffe 1970
     expect(fit.after.salinity.skill as number).toBeGreaterThan(fit.before.salinity.skill as number);
@@ -74,14 +75,14 @@ describe('calibratePlume (adapter over shared/physics/exposure-field fieldAt)', 
     const base = {
       observations,
       settings: SETTINGS,
-      mixingLength: { initial: 8000, min: 1000, max: 200_000 },
+      entrainmentCoefficient: { initial: 1.5e-4, min: 1e-6, max: 1e-3 },
       t90Hours: { initial: 60, min: 0.5, max: 200 },
     };
     expect(() => calibratePlume({ ...base, settings: { seaSalinity: 0, riverSalinity: 5 } })).toThrow(
       /settings.seaSalinity must be above settings.riverSalinity/,
     );
-    expect(() => calibratePlume({ ...base, observations: [{ ...observations[0], along: -1 }] })).toThrow(
-      /observations\[0\].along must be a distance in m, 0 or more; got -1/,
+    expect(() => calibratePlume({ ...base, observations: [{ ...observations[0], along: Number.NaN }] })).toThrow(
+      /observations\[0\].along must be a signed distance in m; got NaN/,
     );
   });
 });

@@ -149,7 +149,15 @@ describe('buildFootprint fixtures', () => {
           const near = arcOf(xy);
           if (near.distance > 200) continue;
           const s = (near.arc - s0) * sign;
-          expect(s, `${b.properties.id} coast vertex ${p.join(',')}`).toBeGreaterThanOrEqual(-radius - tolerance);
+          // Up-coast only inside the bulge disc (science.md §1.11): in a bay the disc reaches side
+          // shores whose arc from the mouth is longer than the radius, so check the disc itself.
+          const a = (input.outflowAzimuth * Math.PI) / 180;
+          const centre = [mouth[0] + radius * Math.sin(a), mouth[1] + radius * Math.cos(a)];
+          if (s < -radius - tolerance) {
+            expect(Math.hypot(xy[0] - centre[0], xy[1] - centre[1]), `${b.properties.id} up-coast vertex ${p.join(',')} outside the bulge`).toBeLessThanOrEqual(
+              radius + tolerance,
+            );
+          }
           expect(s).toBeLessThanOrEqual(reach + radius + tolerance);
         }
         expect(b.properties.alongReachM).toBeLessThanOrEqual(reach + 1e-6);
@@ -186,7 +194,8 @@ describe('buildFootprint geometry rules', () => {
         const nearest = Math.min(...other.map((q) => Math.hypot(q[0] - p[0], q[1] - p[1])));
         expect(nearest, `${b.properties.id} mirror of ${p.join(',')}`).toBeLessThan(2e-6);
       }
-      expect(Math.abs(projectedArea(band(south, b.properties.id)) / projectedArea(b) - 1)).toBeLessThan(1e-6);
+      // (c) the bulge lobe's rays are taken in the opposite order in the mirror; its vertices agree to 2e-6°, areas to 5e-6.
+      expect(Math.abs(projectedArea(band(south, b.properties.id)) / projectedArea(b) - 1)).toBeLessThan(5e-6);
     }
   });
 

@@ -4,6 +4,10 @@ import { computePlume } from '../../../shared/physics/compute-plume';
 import { dielDecayRate } from '../../../shared/physics/decay';
 import {
   bandProfile,
+  bulgeEdgeDistance,
+  bulgeFraction,
+  currentFraction,
+  dilutionLength,
   type ExposureParameters,
   exposureParameters,
   fieldAt,
@@ -32,7 +36,7 @@ const HOUR = 3600;
 const PARAMS: ExposureParameters = {
   seaSalinity: 34,
   riverSalinity: 0,
-  mixingLength: 30000,
+  entrainmentCoefficient: 3e-5,
   decayRate: dielDecayRate({ t90Day: 6 * HOUR, t90Night: 48 * HOUR, daylightFraction: 0.5 }),
   riverIndicator: 1e4,
 };
@@ -43,15 +47,20 @@ describe('fieldAt', () => {
     expect(fieldAt(PLUME, PARAMS, 0, 0)).toEqual({ freshwaterFraction: 1, salinity: 0, indicator: 1e4 });
   });
 
-  it('decays as exp(−s/L) along the coast and with travel time s/c_p', () => {
-    const s = 30000;
-    const value = fieldAt(PLUME, PARAMS, s, 0);
-    // (c) derived: φ_coast(L) = e^{−1}
-    expectWithin(value.freshwaterFraction, Math.exp(-1), 1e-15);
+  it('dilutes as φ0/(1 + s/L_e) along the coast, L_e = (2/3)·H0/(φ0·E), and with travel time s/c_p', () => {
+    // science.md §1.11 check (c): H0 = 0.9716 m, a = 2/3, φ0 = 1, E = 3e-5 → L_e = 21.6 km
+    const le = dilutionLength(PLUME, PARAMS);
+    expectWithin(le / 1000, 21.6, 0.05);
+    const value = fieldAt(PLUME, PARAMS, le, 0);
+    // (c) derived: φ_coast(L_e) = φ0/2 (the bulge gives nothing on the coast away from the mouth)
+    expectWithin(value.freshwaterFraction, 0.5, 1e-12);
     // science.md §2.4 (c): S = (1 − φ) S_o
-    expectWithin(value.salinity, (1 - Math.exp(-1)) * 34, 1e-12);
+    expectWithin(value.salinity, 0.5 * 34, 1e-10);
     // science.md §5.1 (c): C = φ C_river e^{−k t}, t = s/c_p
-    expectRelative(value.indicator, Math.exp(-1) * 1e4 * Math.exp((-PARAMS.decayRate * s) / PLUME.noseSpeed), 1e-12);
+    expectRelative(value.indicator, 0.5 * 1e4 * Math.exp((-PARAMS.decayRate * le) / PLUME.noseSpeed), 1e-12);
+    // science.md §1.11 (c): at four times the flow H0 doubles and so does L_e
+    const four = computePlume({ latitude: 43.5, discharge: 3600, reducedGravity: 0.191415, mouthWidth: 1500, mouthDepth: 6, shelfSlope: 2e-3, alongshoreShare: 1 });
+    expectRelative(dilutionLength(four, PARAMS), 2 * le, 1e-9);
   });
 
   it('follows the parabolic thickness profile across the current', () => {
@@ -81,18 +90,32 @@ describe('fieldAt', () => {
     expect(mean).toBeLessThan(nose);
   });
 
-  it('scales with the source freshwater fraction', () => {
-    // (c) derived: φ ∝ φ0
-    expectRelative(
-      fieldAt(PLUME, { ...PARAMS, sourceFreshwaterFraction: 0.5 }, 10000, 2000).freshwaterFraction,
-      0.5 * fieldAt(PLUME, PARAMS, 10000, 2000).freshwaterFraction,
-      1e-12,
-    );
+  it('scales with the source freshwater fraction, whose dilution length is longer', () => {
+    // (c) derived, science.md §1.11: φ_cc = φ0/(1 + s/L_e)(1 − (x/W0)²), L_e ∝ 1/φ0
+    const half = { ...PARAMS, sourceFreshwaterFraction: 0.5 };
+    const le = dilutionLength(PLUME, half);
+    expectRelative(le, 2 * dilutionLength(PLUME, PARAMS), 1e-12);
+    const expected = (0.5 / (1 + 30000 / le)) * (1 - (2000 / PLUME.width) ** 2);
+    expectRelative(fieldAt(PLUME, half, 30000, 2000).freshwaterFraction, expected, 1e-12);
   });
 
-  it('rejects negative distances', () => {
-    expect(() => fieldAt(PLUME, PARAMS, -1, 0)).toThrow(/along must be a finite number of at least 0 m/);
+  it('up-coast: only the bulge lens, nothing beyond it', () => {
+    // science.md §1.11 (c): R_b = y_s/2, centre (0, R_b); φ_b = φ0 (1 − (r/R_b)²) on the far side of the centre
+    const rb = PLUME.bulgeOffshoreExtent / 2;
+    expectWithin(fieldAt(PLUME, PARAMS, 0, rb).freshwaterFraction, 1, 1e-12);
+    expectWithin(fieldAt(PLUME, PARAMS, -rb / 2, rb).freshwaterFraction, 1 - 0.25, 1e-12);
+    expectWithin(bulgeFraction(PLUME, PARAMS, 0, 1.5 * rb), 1 - 0.25, 1e-12);
+    // Between the mouth and the centre: the freshest the lens was as the bulge grew, φ0 x²/(s² + x²)
+    expectWithin(bulgeFraction(PLUME, PARAMS, -rb / 4, rb / 4), 0.5, 1e-12);
+    // Outside the disc, up-coast: nothing at all
+    expect(fieldAt(PLUME, PARAMS, -rb * 1.01, rb)).toEqual({ freshwaterFraction: 0, salinity: 34, indicator: 0 });
+    expect(fieldAt(PLUME, PARAMS, -1000, 0).freshwaterFraction).toBe(0);
+    expect(fieldAt(PLUME, PARAMS, -6000, 500).freshwaterFraction).toBeLessThan(0.03);
+  });
+
+  it('rejects negative offshore distances and non-finite positions', () => {
     expect(() => fieldAt(PLUME, PARAMS, 0, -1)).toThrow(/offshore must be a finite number of at least 0 m/);
+    expect(() => fieldAt(PLUME, PARAMS, Number.NaN, 0)).toThrow(/along must be a finite number/);
   });
 });
 
@@ -143,26 +166,41 @@ describe('offshoreDistanceWhere', () => {
     // (c) derived: analytic inversion; consistency check required by the brief
     for (const s of [0, 5000, 20000, 40000, 60000]) {
       const x = offshoreDistanceWhere(PLUME, PARAMS, s, { salinityBelow: threshold });
-      if (x > 0 && x < plumeOffshoreExtent(PLUME, s)) {
-        expectWithin(fieldAt(PLUME, PARAMS, s, x).salinity, threshold, 1e-6);
+      if (x > 0 && x < PLUME.width) {
+        // the coastal current's edge (the bulge's part of a band is bulgeEdgeDistance)
+        expectWithin((1 - currentFraction(PLUME, PARAMS, s, x)) * 34, threshold, 1e-6);
       }
+      if (s > PLUME.bulgeOffshoreExtent && x > 0 && x < PLUME.width) expectWithin(fieldAt(PLUME, PARAMS, s, x).salinity, threshold, 1e-6);
     }
   });
 
   it('indicator and presence thresholds are met at the returned distance', () => {
     // (c) derived: analytic inversion
-    const xi = offshoreDistanceWhere(PLUME, PARAMS, 10000, { indicatorAbove: 1000 });
-    expectRelative(fieldAt(PLUME, PARAMS, 10000, xi).indicator, 1000, 1e-9);
-    const xp = offshoreDistanceWhere(PLUME, PARAMS, 10000, { presenceAbove: 0.2 });
-    expectWithin(fieldAt(PLUME, PARAMS, 10000, xp).freshwaterFraction, 0.2, 1e-12);
+    const s = 30000;
+    const xi = offshoreDistanceWhere(PLUME, PARAMS, s, { indicatorAbove: 10 });
+    expect(xi).toBeGreaterThan(0);
+    expectRelative(fieldAt(PLUME, PARAMS, s, xi).indicator, 10, 1e-9);
+    const xp = offshoreDistanceWhere(PLUME, PARAMS, s, { presenceAbove: 0.2 });
+    expectWithin(fieldAt(PLUME, PARAMS, s, xp).freshwaterFraction, 0.2, 1e-12);
+    // bulge lobe: on each ray from the mouth the field equals the threshold at D(θ)
+    for (const theta of [-1.2, -0.5, 0, 0.4, 1.1]) {
+      const d = bulgeEdgeDistance(PLUME, PARAMS, theta, { salinityBelow: 20 });
+      // (c) a ray whose envelope φ0 cos²θ stays under the threshold has none of the band (D = 0)
+      if (Math.cos(theta) ** 2 <= 14 / 34) expect(d).toBe(0);
+      else expectWithin((1 - bulgeFraction(PLUME, PARAMS, d * Math.sin(theta), d * Math.cos(theta))) * 34, 20, 1e-9);
+      const di = bulgeEdgeDistance(PLUME, PARAMS, theta, { indicatorAbove: 500 });
+      const phi = bulgeFraction(PLUME, PARAMS, di * Math.sin(theta), di * Math.cos(theta));
+      if (di > 0) expectRelative(1e4 * phi * Math.exp((-PARAMS.decayRate * di) / PLUME.noseSpeed), 500, 1e-4);
+    }
   });
 
   it.each([
     // (c) limits: never met → 0; met everywhere → the plume's offshore extent; beyond reach → 0
     { s: 10000, threshold: { salinityBelow: 0 }, expected: (): number => 0 },
-    { s: 10000, threshold: { salinityBelow: 35 }, expected: (): number => plumeOffshoreExtent(PLUME, 10000) },
-    { s: 10000, threshold: { salinityBelow: 34 }, expected: (): number => plumeOffshoreExtent(PLUME, 10000) },
-    { s: 10000, threshold: { presenceAbove: 0 }, expected: (): number => plumeOffshoreExtent(PLUME, 10000) },
+    { s: 10000, threshold: { salinityBelow: 35 }, expected: (): number => PLUME.width },
+    { s: 10000, threshold: { salinityBelow: 34 }, expected: (): number => PLUME.width },
+    { s: 10000, threshold: { presenceAbove: 0 }, expected: (): number => PLUME.width },
+    { s: -10000, threshold: { presenceAbove: 0 }, expected: (): number => 0 },
     { s: 10000, threshold: { presenceAbove: 1 }, expected: (): number => 0 },
     { s: 10000, threshold: { indicatorAbove: 1e9 }, expected: (): number => 0 },
     { s: REACH * 1.01, threshold: { salinityBelow: 35 }, expected: (): number => 0 },
@@ -237,7 +275,7 @@ describe('indicator concentration and parameters', () => {
   it('converts hours to seconds', () => {
     // (c) unit conversion; science.md §5.2 defaults 6 h / 48 h, daylight fraction 0.5
     const params = exposureParameters(
-      { mixingLength: 30000, t90DayHours: 6, t90NightHours: 48, indicator: { kind: 'constant', concentration: 1e4 } },
+      { entrainmentCoefficient: 3e-5, t90DayHours: 6, t90NightHours: 48, indicator: { kind: 'constant', concentration: 1e4 } },
       { seaSalinity: 34, riverSalinity: 0 },
       900,
     );

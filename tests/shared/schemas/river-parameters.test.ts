@@ -15,9 +15,9 @@ function messages(input: unknown): string[] {
 describe('RiverParametersSchema', () => {
   it('fills every default from RIVER_PARAMETER_DEFAULTS', () => {
     const parsed = RiverParametersSchema.parse({});
-    // science.md §1.6 (b) 0.6; §5.2 (c) 6 h / 48 h; §5.3 (c) 1e4; mixing length 30 km (c); daylight 0.5 (c)
+    // science.md §1.6 (b) 0.6; §5.2 (c) 6 h / 48 h; §5.3 (c) 1e4; entrainment coefficient 3e-5 (b, §1.11); daylight 0.5 (c)
     expect(parsed).toEqual({
-      mixingLength: 30000,
+      entrainmentCoefficient: 3e-5,
       t90DayHours: 6,
       t90NightHours: 48,
       daylightFraction: 0.5,
@@ -38,7 +38,7 @@ describe('RiverParametersSchema', () => {
   });
 
   it.each([
-    { body: { mixingLength: 0 }, message: 'mixingLength must be greater than 0 and at most 1000000 m' },
+    { body: { entrainmentCoefficient: 0 }, message: 'entrainmentCoefficient must be between 0.000001 and 0.001' },
     { body: { t90DayHours: -1 }, message: 't90DayHours must be greater than 0 and at most 10000 h' },
     { body: { t90NightHours: 0 }, message: 't90NightHours must be greater than 0 and at most 10000 h' },
     { body: { daylightFraction: 1.1 }, message: 'daylightFraction must be between 0 and 1' },

@@ -8,7 +8,7 @@ import { applyCalibration, monitoringKeys, rollbackCalibration } from '../api/mo
 import { SkillTable } from './skill-table';
 
 const VALUE_ROWS: { key: keyof Calibration['fitted']; label: string; show: (v: number) => string }[] = [
-  { key: 'mixingLength', label: 'Mixing length', show: (v) => `${fmtNumber(v / 1000, 1)} km` },
+  { key: 'entrainmentCoefficient', label: 'Entrainment coefficient', show: (v) => v.toExponential(2) },
   { key: 't90Hours', label: 'T90 (day and night combined)', show: (v) => `${fmtNumber(v, 1)} h` },
   { key: 'alongshoreShare', label: 'Share carried alongshore', show: (v) => fmtNumber(v, 2) },
   { key: 'nearFieldFreshwaterFraction', label: 'River water leaving the mouth region', show: (v) => `${fmtNumber(v * 100, 0)} %` },
@@ -17,6 +17,7 @@ const VALUE_ROWS: { key: keyof Calibration['fitted']; label: string; show: (v: n
 /** River settings in plain words, with units. */
 function describeSettings(values: Record<string, number>): string {
   const words: Record<string, (v: number) => string> = {
+    entrainmentCoefficient: (v) => `entrainment coefficient ${v.toExponential(2)}`,
     mixingLength: (v) => `mixing length ${fmtNumber(v / 1000, 1)} km`,
     t90DayHours: (v) => `T90 by day ${fmtNumber(v, 1)} h`,
     t90NightHours: (v) => `T90 by night ${fmtNumber(v, 1)} h`,
@@ -66,9 +67,9 @@ export function CalibrationResult({ calibration, riverName }: { calibration: Cal
                   <th scope="row" className="p-2 text-left font-normal">
                     {r.label}
                   </th>
-                  <td className="p-2 tabular-nums">{r.show(c.start[r.key])}</td>
+                  <td className="p-2 tabular-nums">{c.start[r.key] === undefined ? '—' : r.show(c.start[r.key] as number)}</td>
                   <td className="p-2 tabular-nums">
-                    {fitted ? <strong>{r.show(c.fitted[r.key])}</strong> : <span className="text-shell-700">kept</span>}
+                    {fitted ? <strong>{c.fitted[r.key] === undefined ? '—' : r.show(c.fitted[r.key] as number)}</strong> : <span className="text-shell-700">kept</span>}
                   </td>
                 </tr>
               );

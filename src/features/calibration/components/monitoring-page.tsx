@@ -111,8 +111,8 @@ function ComparisonView({ riverId, lagDays }: { riverId: string; lagDays: number
         <>
           <p className="text-sm text-shell-700">
             {c.points.length} samples in {c.riverName}’s plume
-            {c.otherRivers ? `; ${c.otherRivers} more belong to another river’s plume` : ''}. Settings now: mixing length{' '}
-            {fmtNumber(v.mixingLength / 1000, 1)} km, T90 {fmtNumber(v.t90Hours, 1)} h, alongshore share {fmtNumber(v.alongshoreShare, 2)},
+            {c.otherRivers ? `; ${c.otherRivers} more belong to another river’s plume` : ''}. Settings now: entrainment coefficient{' '}
+            {v.entrainmentCoefficient === undefined ? '—' : v.entrainmentCoefficient.toExponential(2)}, T90 {fmtNumber(v.t90Hours, 1)} h, alongshore share {fmtNumber(v.alongshoreShare, 2)},
             river water leaving the mouth region {fmtNumber(v.nearFieldFreshwaterFraction * 100, 0)} %.
           </p>
           <SkillTable stats={c.stats} label="Agreement of the plume with the samples" />

@@ -121,7 +121,7 @@ export function LeaseReportPage() {
     ]);
     inputs.push([
       'Mixing and die-off',
-      `mixing length ${num('mixingLength', ' m', 0)}; T90 ${num('t90DayHours', ' h', 0)} by day, ${num('t90NightHours', ' h', 0)} by night`,
+      `entrainment coefficient ${typeof s.entrainmentCoefficient === 'number' ? s.entrainmentCoefficient.toExponential(2) : 'default'} (the dilution length grows with flow); T90 ${num('t90DayHours', ' h', 0)} by day, ${num('t90NightHours', ' h', 0)} by night`,
     ]);
     if (riverSettings?.defaultsUsed.length) inputs.push(['Still on defaults', riverSettings.defaultsUsed.join(', ')]);
     inputs.push(['Model version', selected?.modelVersion ?? '—']);

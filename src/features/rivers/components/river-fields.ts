@@ -13,7 +13,7 @@ export interface RiverField {
     | 'seaTemperature'
     | 'alongshoreShare'
     | 'nearFieldFreshwaterFraction'
-    | 'mixingLength'
+    | 'entrainmentCoefficient'
     | 't90DayHours'
     | 't90NightHours'
     | 'daylightFraction';
@@ -50,7 +50,7 @@ export const FIELD_GROUPS: { title: string; fields: RiverField[] }[] = [
     fields: [
       { name: 'alongshoreShare', label: 'Share of flow carried alongshore', unit: '', range: '0.3 to 1', help: 'Part of the discharge that leaves the bulge in the coastal current.', step: '0.05' },
       { name: 'nearFieldFreshwaterFraction', label: 'Freshwater fraction leaving the mouth', unit: '', range: '0.05 to 1', help: '1 = undiluted river water (the cautious bound); mixing near the mouth lowers it.', step: '0.05' },
-      { name: 'mixingLength', label: 'Alongshore mixing length', unit: 'm', range: 'above 0, up to 1 000 000', help: 'Distance along the coast over which the river water share falls to about a third.', step: '100' },
+      { name: 'entrainmentCoefficient', label: 'Entrainment coefficient', unit: '', range: '0.000001 to 0.001', help: 'How fast the coastal current takes in sea water. The river water share halves over (2/3) × current depth / (share at the mouth × coefficient), a distance that grows with flow; typically 0.00001 to 0.0001.', step: '0.000001' },
     ],
   },
   {

@@ -20,10 +20,10 @@ const BASE: Calibration = {
   createdBy: 'u1',
   status: 'fitted',
   options: { lagDays: 1, fitAlongshoreShare: false, fitNearFieldFraction: true },
-  fittedNames: ['mixingLength', 't90Hours', 'nearFieldFreshwaterFraction'],
-  start: { mixingLength: 25_000, t90Hours: 13.33, alongshoreShare: 0.6, nearFieldFreshwaterFraction: 0.5 },
-  fitted: { mixingLength: 10_900, t90Hours: 27.3, alongshoreShare: 0.6, nearFieldFreshwaterFraction: 0.09 },
-  settingsPatch: { mixingLength: 10_900, t90DayHours: 16.4, t90NightHours: 81.9, nearFieldFreshwaterFraction: 0.09 },
+  fittedNames: ['entrainmentCoefficient', 't90Hours', 'nearFieldFreshwaterFraction'],
+  start: { entrainmentCoefficient: 3e-5, t90Hours: 13.33, alongshoreShare: 0.6, nearFieldFreshwaterFraction: 0.5 },
+  fitted: { entrainmentCoefficient: 7.2e-5, t90Hours: 27.3, alongshoreShare: 0.6, nearFieldFreshwaterFraction: 0.09 },
+  settingsPatch: { entrainmentCoefficient: 7.2e-5, t90DayHours: 16.4, t90NightHours: 81.9, nearFieldFreshwaterFraction: 0.09 },
   previous: null,
   before: skill(10, -42),
   after: skill(1.3, 0.25),
@@ -54,9 +54,9 @@ describe('CalibrationResult', () => {
   it('shows before and after side by side in plain words, with the cautions and an apply button', () => {
     show(BASE);
     const values = screen.getByRole('table', { name: 'Settings before and after the fit' });
-    expect(within(values).getByRole('row', { name: /Mixing length 25.0 km 10.9 km/ })).toBeTruthy();
+    expect(within(values).getByRole('row', { name: /Entrainment coefficient 3.00e-5 7.20e-5/ })).toBeTruthy();
     expect(within(values).getByRole('row', { name: /Share carried alongshore 0.60 kept/ })).toBeTruthy();
-    expect(screen.getByText(/Applying writes mixing length 10.9 km, T90 by day 16.4 h, T90 by night 81.9 h/)).toBeTruthy();
+    expect(screen.getByText(/Applying writes entrainment coefficient 7.20e-5, T90 by day 16.4 h, T90 by night 81.9 h/)).toBeTruthy();
     expect(screen.getByText('Rests on 40 samples over 2 years, at flows from 27 m³/s to 752 m³/s.')).toBeTruthy();
     expect(screen.getByRole('button', { name: 'Apply to Amberlin River' })).toBeTruthy();
     expect(screen.queryByText(/\bsafe\b/i)).toBeNull();
@@ -70,10 +70,10 @@ describe('CalibrationResult', () => {
     show({
       ...BASE,
       status: 'applied',
-      previous: { mixingLength: 25_000, t90DayHours: 8, t90NightHours: 40, nearFieldFreshwaterFraction: 0.5 },
+      previous: { entrainmentCoefficient: 3e-5, t90DayHours: 8, t90NightHours: 40, nearFieldFreshwaterFraction: 0.5 },
     });
     expect(screen.getByRole('button', { name: 'Roll back to the previous values' })).toBeTruthy();
-    expect(screen.getByText(/Replaced: mixing length 25.0 km, T90 by day 8.0 h/)).toBeTruthy();
+    expect(screen.getByText(/Replaced: entrainment coefficient 3.00e-5, T90 by day 8.0 h/)).toBeTruthy();
   });
 });
 
