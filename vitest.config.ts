@@ -30,6 +30,18 @@ export default defineConfig({
       },
       {
         test: {
+          // npm run faults: multi-process and restart tests, minutes each; not part of npm test.
+          name: 'faults',
+          environment: 'node',
+          include: ['tests/faults/**/*.fault.ts'],
+          setupFiles: ['tests/setup/node.ts'],
+          testTimeout: 300_000,
+          hookTimeout: 300_000,
+          fileParallelism: false,
+        },
+      },
+      {
+        test: {
           name: 'dom',
           environment: 'jsdom',
           include: ['tests/src/**/*.test.tsx'],

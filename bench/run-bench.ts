@@ -10,6 +10,7 @@ import { screeningBenchmarks } from './screening-bench';
 import { uploadBenchmarks } from './upload-bench';
 import { apiBenchmarks } from './api-bench';
 import { overlayLibraryBenchmarks } from './overlay-library-bench';
+import { workersBenchmarks } from './workers-bench';
 
 async function main() {
   await baseline();
@@ -20,6 +21,7 @@ async function main() {
   const databaseUrl = process.env.DATABASE_URL;
   if (databaseUrl && (!only || only === 'upload')) results.push(...(await uploadBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'screening')) results.push(...(await screeningBenchmarks(databaseUrl)));
+  if (databaseUrl && (!only || only === 'workers')) results.push(...(await workersBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'api')) results.push(...(await apiBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'client')) results.push(...(await clientBenchmarks(databaseUrl)));
   report(results);

@@ -10,6 +10,7 @@ import path from 'node:path';
 import { createAuthConfig } from './auth/auth-config';
 import { createUserResolver } from './auth/current-user';
 import type { DbHandle } from './db/client';
+import { readiness } from './db/readiness';
 import type { Env } from './env';
 import { buildOpenApiDocument, createRegistry } from './http/openapi';
 import type { RouteContext } from './http/route';
@@ -126,6 +127,12 @@ export function createApp(deps: AppDeps): Express {
     const smtp = (await mailer.verify()) ? ('ok' as const) : ('unreachable' as const);
     const status = database === 'ok' && smtp === 'ok' ? 'ok' : 'degraded';
     res.status(status === 'ok' ? 200 : 503).json({ status, database, smtp, time: new Date().toISOString() });
+  });
+
+  // Readiness (load balancers): the database answers and this build's migrations are applied.
+  app.get('/api/ready', async (_req, res) => {
+    const ready = await readiness(deps.db.pool);
+    res.status(ready.status === 'ready' ? 200 : 503).json(ready);
   });
 
   const router = express.Router();

@@ -77,6 +77,20 @@ export const envSchema = z.object({
     .optional(),
   /** Credit line the basemap's provider asks for, shown on the map. */
   BASEMAP_ATTRIBUTION: z.string().max(300).default(''),
+  // --- Several processes, one PostgreSQL (README "Running for a whole authority").
+  /** Run the pg-boss workers in this app process (npm start); app processes behind a load balancer set false and leave the work to `npm run worker`. */
+  WORKERS: z
+    .enum(['true', 'false'], { error: 'WORKERS must be true or false' })
+    .default('true')
+    .transform((v) => v === 'true'),
+  /** Names this process in screening_run_chunks.worker and the logs; host:pid when unset. */
+  WORKER_ID: z.string().min(1).max(200).optional(),
+  /** Leases per screening chunk job: a river's re-screen is split into chunks that any worker takes. */
+  SCREENING_CHUNK_LEASES: z.coerce.number().int().min(1, { error: 'SCREENING_CHUNK_LEASES must be at least 1' }).default(1000),
+  /** A chunk not finished this long after a worker took it (the worker died) is given to another worker. */
+  SCREENING_CHUNK_EXPIRE_SECONDS: z.coerce.number().int().min(1).max(3600).default(300),
+  /** How often pg-boss looks for expired jobs (those of a dead worker) and archives old ones. */
+  JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
   /** Serve the built client from dist/ (npm start); off in API tests. */
   SERVE_CLIENT: z
     .enum(['true', 'false'])

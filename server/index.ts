@@ -9,8 +9,7 @@ import { loadEnv, uploadLimitsFromEnv } from './env';
 import { startSmtpFake, type SmtpFake } from './fakes/smtp-fake';
 import { logger } from './lib/logger';
 import { createMailer } from './mail/mailer';
-import { createPgBossScreeningJobs } from './jobs/screening-jobs';
-import { createPgBossAlertJobs } from './jobs/alert-jobs';
+import { startJobs } from './jobs/start-jobs';
 import { type GaugeFeed, startGaugeFeed } from './fakes/gauge-feed';
 import { type PaymentFake, startPaymentFake } from './fakes/payment-fake';
 import { upgradeStoredModel } from './services/model-upgrade.service';
@@ -69,24 +68,15 @@ async function main() {
       startGaugeFeed({ port: env.GAUGE_FEED_PORT }),
     );
   }
-  // Screening runs in pg-boss workers on the same PostgreSQL (WORKERS=false leaves it to other processes).
+  // Screening and alerts run in pg-boss workers on the same PostgreSQL (WORKERS=false leaves them to `npm run worker`).
   const screening = createScreeningService({ db: dbHandle.db });
   // Yearly figures stored before the yearly rating existed are worked out again from the stored screenings.
   const reannualised = await screening.annualiseMissing();
   if (reannualised) logger.info({ rivers: reannualised }, 'yearly figures re-computed for the yearly rating');
-  const jobs = await createPgBossScreeningJobs(env.DATABASE_URL, dbHandle.db, screening, {
-    work: process.env.WORKERS !== 'false',
-  });
+  const { jobs, alertJobs } = await startJobs(env, dbHandle, { work: env.WORKERS });
   // Stored results of an older model version are re-screened (and legacy river settings carried over) at start-up.
   const upgraded = await upgradeStoredModel(dbHandle.db, jobs);
   if (upgraded.queued.length) logger.info({ rivers: upgraded.queued.length, carried: upgraded.carried.length }, 're-screening results of an older model');
-  const alertJobs = await createPgBossAlertJobs(env.DATABASE_URL, dbHandle.pool, {
-    retryDelaySeconds: env.ALERT_RETRY_DELAY_SECONDS,
-    retryLimit: env.ALERT_RETRY_LIMIT,
-    feedPollSeconds: env.GAUGE_FEED_POLL_SECONDS,
-    work: process.env.WORKERS !== 'false',
-    pollFeed: true,
-  });
   const app = createApp({ env, db: dbHandle, mailer, uploadLimits: uploadLimitsFromEnv(), jobs, alertJobs });
   await app.locals.alertsReady;
   const server: Server = app.listen(env.PORT, env.HOST);
@@ -99,8 +89,10 @@ async function main() {
     process.exit(1);
   });
   server.on('listening', () => {
-    logger.info({ url: `http://${env.HOST}:${env.PORT}` }, 'listening');
-    console.log(`\n[brackline] Brackline is running at http://${env.HOST}:${env.PORT}`);
+    const address = server.address();
+    const port = typeof address === 'object' && address ? address.port : env.PORT;
+    logger.info({ url: `http://${env.HOST}:${port}`, workers: env.WORKERS }, 'listening');
+    console.log(`\n[brackline] Brackline is running at http://${env.HOST}:${port}${env.WORKERS ? '' : ' (WORKERS=false: screening and alerts are left to npm run worker)'}`);
     if (smtp) console.log(`[brackline] Local e-mail fake on smtp://127.0.0.1:${smtp.port} (see Admin → Outbox)`);
     if (payment) console.log(`[brackline] Local payment fake on ${payment.url} (test card 4242 4242 4242 4242)`);
     if (feed) console.log(`[brackline] Local gauge feed on ${feed.url} (polled every ${env.GAUGE_FEED_POLL_SECONDS} s)`);

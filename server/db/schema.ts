@@ -540,6 +540,27 @@ export const screeningRuns = pgTable(
   (t) => [index('screening_runs_river_idx').on(t.riverId, t.queuedAt)],
 );
 
+/**
+ * One chunk of a screening run's leases, screened by one pg-boss job on any worker process.
+ * The run is done when every chunk is; `worker` records the process that finished (or last took) it.
+ */
+export const screeningRunChunks = pgTable(
+  'screening_run_chunks',
+  {
+    runId: uuid('run_id')
+      .notNull()
+      .references(() => screeningRuns.id, { onDelete: 'cascade' }),
+    chunkNo: integer('chunk_no').notNull(),
+    leaseIds: uuid('lease_ids').array().notNull(),
+    status: text('status', { enum: ['queued', 'running', 'done', 'failed'] }).notNull().default('queued'),
+    worker: text('worker'),
+    attempts: integer('attempts').notNull().default(0),
+    startedAt: timestamp('started_at', { withTimezone: true }),
+    finishedAt: timestamp('finished_at', { withTimezone: true }),
+  },
+  (t) => [primaryKey({ columns: [t.runId, t.chunkNo] })],
+);
+
 // ---------------------------------------------------------------------------------------------
 // Monitoring stations and samples (loaded with the demo region; calibration builds on them).
 

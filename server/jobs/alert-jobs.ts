@@ -37,6 +37,8 @@ export interface AlertJobOptions {
   work: boolean;
   /** Poll the gauge feed (when a feed is configured). */
   pollFeed: boolean;
+  /** How often pg-boss expires the jobs of dead workers (pg-boss's default when not given). */
+  maintenanceSeconds?: number;
 }
 
 const Q_EVALUATE = 'alerts-evaluate';
@@ -89,7 +91,11 @@ export async function createPgBossAlertJobs(
   pool: pg.Pool,
   options: AlertJobOptions,
 ): Promise<AlertJobs & { boss: PgBoss }> {
-  const boss = new PgBoss({ connectionString: databaseUrl, max: 4 });
+  const boss = new PgBoss({
+    connectionString: databaseUrl,
+    max: 4,
+    ...(options.maintenanceSeconds ? { maintenanceIntervalSeconds: options.maintenanceSeconds } : {}),
+  });
   boss.on('error', (err) => logger.error({ err }, 'pg-boss error'));
   await boss.start();
   const retry = { retryLimit: options.retryLimit, retryDelay: options.retryDelaySeconds, retryBackoff: true };

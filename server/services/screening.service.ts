@@ -38,6 +38,12 @@ interface RiverInputs {
   coastStamp: string;
 }
 
+/** One scenario of a screening run and the footprint its leases are screened against. */
+export interface ScreeningPlanItem {
+  footprint: { id: string; plume: PlumeResult };
+  scenario: { id: string; aep: number | null; discharge: number; durationHours: number; name: string };
+}
+
 export interface FlowSpec {
   scenarioId?: string | null;
   discharge: number;
@@ -162,13 +168,33 @@ export function createScreeningService(deps: { db: Database }) {
         }),
       )
       .digest('hex');
-    const existing = await db.execute<{ id: string; plume: PlumeResult }>(sql`
-      SELECT id, plume FROM footprints WHERE river_id = ${river.id}::uuid AND input_hash = ${inputHash}`);
-    if (existing.rows[0]) {
+    const found = async (exec: Pick<Database, 'execute'>) => {
+      const existing = await exec.execute<{ id: string; plume: PlumeResult }>(sql`
+        SELECT id, plume FROM footprints WHERE river_id = ${river.id}::uuid AND input_hash = ${inputHash}`);
+      if (!existing.rows[0]) return null;
       if (flow.scenarioId)
-        await db.execute(sql`UPDATE footprints SET scenario_id = ${flow.scenarioId}::uuid WHERE id = ${existing.rows[0].id}::uuid`);
+        await exec.execute(sql`UPDATE footprints SET scenario_id = ${flow.scenarioId}::uuid WHERE id = ${existing.rows[0].id}::uuid`);
       return { id: existing.rows[0].id, plume: existing.rows[0].plume, created: false };
-    }
+    };
+    const cached = await found(db);
+    if (cached) return cached;
+    // Several workers (or runs) may ask for the same footprint at once: one transaction-scoped
+    // advisory lock per (river, inputs), taken before anything else, so exactly one builds it and
+    // the others wait, then find it. One lock per transaction cannot deadlock with another.
+    return db.transaction(async (tx) => {
+      await tx.execute(sql`SELECT pg_advisory_xact_lock(hashtextextended(${`footprint:${river.id}:${inputHash}`}, 0))`);
+      return (await found(tx)) ?? buildAndStore(tx, river, flow, bands, inputHash);
+    });
+  }
+
+  /** Computes a footprint and stores it with its bands and their pieces, in the caller's (locked) transaction. */
+  async function buildAndStore(
+    tx: Pick<Database, 'execute'>,
+    river: RiverInputs,
+    flow: FlowSpec,
+    bands: ReturnType<typeof screeningBandSpecs>,
+    inputHash: string,
+  ): Promise<{ id: string; plume: PlumeResult; created: boolean }> {
     let plume: PlumeResult;
     let footprint: ReturnType<typeof buildFootprint>;
     try {
@@ -188,41 +214,39 @@ export function createScreeningService(deps: { db: Database }) {
       throw err;
     }
     const warnings = [...plume.warnings, ...footprint.warnings];
-    return db.transaction(async (tx) => {
-      const inserted = await tx.execute<{ id: string }>(sql`
-        INSERT INTO footprints (river_id, scenario_id, discharge, duration_hours, model_version, input_hash, plume, warnings, path)
-        VALUES (${river.id}::uuid, ${flow.scenarioId ?? null}::uuid, ${flow.discharge}, ${flow.durationHours}, ${MODEL_VERSION}, ${inputHash},
-                ${JSON.stringify(plume)}::jsonb, ${JSON.stringify(warnings)}::jsonb, ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify(footprint.path.geometry)}), 4326))
-        ON CONFLICT (river_id, input_hash) DO UPDATE SET scenario_id = COALESCE(EXCLUDED.scenario_id, footprints.scenario_id)
-        RETURNING id`);
-      const id = inserted.rows[0].id;
-      const rows = [
-        ...(footprint.bulge
-          ? [{ band: 'bulge', name: 'Bulge near the mouth', kind: 'bulge', threshold: null, order: 0, geometry: footprint.bulge.geometry }]
-          : []),
-        ...footprint.bands.map((b, i) => ({
-          band: b.properties.id,
-          name: b.properties.name,
-          kind: b.properties.kind,
-          threshold: Object.values(b.properties.threshold)[0] as number,
-          order: i + 1,
-          geometry: b.geometry,
-        })),
-      ].filter((r) => (r.geometry.type === 'MultiPolygon' ? r.geometry.coordinates.length > 0 : r.geometry.coordinates.length > 0));
-      if (rows.length) {
-        await tx.execute(sql`
-          INSERT INTO footprint_bands (footprint_id, band_id, name, kind, threshold, sort_order, geom)
-          SELECT ${id}::uuid, r.band, r.name, r.kind, r.threshold, r.ord,
-                 ST_Multi(ST_CollectionExtract(ST_MakeValid(ST_SetSRID(ST_GeomFromGeoJSON(r.geometry::text), 4326)), 3))
-            FROM jsonb_to_recordset(${JSON.stringify(rows.map((r) => ({ ...r, ord: r.order })))}::jsonb)
-                 AS r(band text, name text, kind text, threshold double precision, ord int, geometry jsonb)
-          ON CONFLICT DO NOTHING`);
-        await tx.execute(sql`
-          INSERT INTO footprint_band_pieces (footprint_id, band_id, geom)
-          SELECT footprint_id, band_id, ST_Subdivide(geom, 64) FROM footprint_bands WHERE footprint_id = ${id}::uuid AND band_id <> 'bulge'`);
-      }
-      return { id, plume, created: true };
-    });
+    const inserted = await tx.execute<{ id: string }>(sql`
+      INSERT INTO footprints (river_id, scenario_id, discharge, duration_hours, model_version, input_hash, plume, warnings, path)
+      VALUES (${river.id}::uuid, ${flow.scenarioId ?? null}::uuid, ${flow.discharge}, ${flow.durationHours}, ${MODEL_VERSION}, ${inputHash},
+              ${JSON.stringify(plume)}::jsonb, ${JSON.stringify(warnings)}::jsonb, ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify(footprint.path.geometry)}), 4326))
+      ON CONFLICT (river_id, input_hash) DO UPDATE SET scenario_id = COALESCE(EXCLUDED.scenario_id, footprints.scenario_id)
+      RETURNING id`);
+    const id = inserted.rows[0].id;
+    const rows = [
+      ...(footprint.bulge
+        ? [{ band: 'bulge', name: 'Bulge near the mouth', kind: 'bulge', threshold: null, order: 0, geometry: footprint.bulge.geometry }]
+        : []),
+      ...footprint.bands.map((b, i) => ({
+        band: b.properties.id,
+        name: b.properties.name,
+        kind: b.properties.kind,
+        threshold: Object.values(b.properties.threshold)[0] as number,
+        order: i + 1,
+        geometry: b.geometry,
+      })),
+    ].filter((r) => (r.geometry.type === 'MultiPolygon' ? r.geometry.coordinates.length > 0 : r.geometry.coordinates.length > 0));
+    if (rows.length) {
+      await tx.execute(sql`
+        INSERT INTO footprint_bands (footprint_id, band_id, name, kind, threshold, sort_order, geom)
+        SELECT ${id}::uuid, r.band, r.name, r.kind, r.threshold, r.ord,
+               ST_Multi(ST_CollectionExtract(ST_MakeValid(ST_SetSRID(ST_GeomFromGeoJSON(r.geometry::text), 4326)), 3))
+          FROM jsonb_to_recordset(${JSON.stringify(rows.map((r) => ({ ...r, ord: r.order })))}::jsonb)
+               AS r(band text, name text, kind text, threshold double precision, ord int, geometry jsonb)
+        ON CONFLICT DO NOTHING`);
+      await tx.execute(sql`
+        INSERT INTO footprint_band_pieces (footprint_id, band_id, geom)
+        SELECT footprint_id, band_id, ST_Subdivide(geom, 64) FROM footprint_bands WHERE footprint_id = ${id}::uuid AND band_id <> 'bulge'`);
+    }
+    return { id, plume, created: true };
   }
 
   /** Leases a river screens: those of its jurisdiction and those of its owner. */
@@ -414,33 +438,73 @@ export function createScreeningService(deps: { db: Database }) {
     return stale.rows.length;
   }
 
-  /** Every scenario of a river: footprints (cached by inputs) and screenings of every scoped lease. */
-  async function screenRiver(
-    riverId: string,
-    onProgress?: (done: number, total: number, what: string) => Promise<void> | void,
-    leaseIds?: string[],
-  ) {
+  /**
+   * The first half of a river's screening, done once per run: the footprint of every scenario
+   * (built, or found by its inputs) and the drop of stale footprints. The plan it returns is what
+   * screenLeases needs, so the leases can then be screened in any number of chunks, anywhere.
+   */
+  async function prepareRiver(riverId: string, onProgress?: (done: number, total: number, what: string) => Promise<void> | void) {
     const river = await riverInputs(riverId);
     const scenarios = await db.execute<{ id: string; aep: number | null; discharge: number; duration_hours: number; name: string }>(sql`
       SELECT id, aep, discharge, duration_hours, name FROM scenarios WHERE river_id = ${riverId}::uuid ORDER BY discharge`);
-    let screened = 0;
+    const plan: ScreeningPlanItem[] = [];
     for (const [i, s] of scenarios.rows.entries()) {
       await onProgress?.(i, scenarios.rows.length, `Building the plume for ${s.name}`);
       const fp = await ensureFootprint(river, { scenarioId: s.id, discharge: s.discharge, durationHours: s.duration_hours });
-      screened += await screenFootprint(
-        river,
-        fp,
-        { id: s.id, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, name: s.name },
-        leaseIds,
-      );
+      plan.push({
+        footprint: { id: fp.id, plume: fp.plume },
+        scenario: { id: s.id, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, name: s.name },
+      });
     }
     // Scenarios deleted since: their screenings went with them (cascade); stale footprints of older versions are dropped.
     await db.execute(
       sql`DELETE FROM footprints f WHERE f.river_id = ${riverId}::uuid AND f.scenario_id IS NULL AND f.created_at < now() - interval '1 day'`,
     );
+    return { river, plan };
+  }
+
+  /** The plan again from its footprint ids (a chunk job carries ids, not plumes). */
+  async function loadPlan(items: { footprintId: string; scenario: ScreeningPlanItem['scenario'] }[]): Promise<ScreeningPlanItem[]> {
+    const res = await db.execute<{ id: string; plume: PlumeResult }>(sql`
+      SELECT id, plume FROM footprints WHERE id IN (SELECT jsonb_array_elements_text(${JSON.stringify(items.map((i) => i.footprintId))}::jsonb)::uuid)`);
+    const plumes = new Map(res.rows.map((r) => [r.id, r.plume]));
+    return items.map((i) => {
+      const plume = plumes.get(i.footprintId);
+      if (!plume) throw new UnprocessableError(`The plume for ${i.scenario.name} was replaced while its leases were being screened; a newer run screens them.`);
+      return { footprint: { id: i.footprintId, plume }, scenario: i.scenario };
+    });
+  }
+
+  /** Ids of the leases a river screens (all, or those of `leaseIds`), in a stable order for chunking. */
+  async function scopedLeaseIds(river: RiverInputs, leaseIds?: string[]): Promise<string[]> {
+    const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
+    const res = await db.execute<{ id: string }>(sql`SELECT l.id FROM leases l WHERE ${scopedLeases(river)} ${leaseFilter} ORDER BY l.id`);
+    return res.rows.map((r) => r.id);
+  }
+
+  /**
+   * The second half: screenings of these leases (all scoped ones when not given) under every
+   * scenario of the plan, then their annualised exposure. Each lease's rows depend on that lease
+   * alone, so screening the leases in chunks gives the same rows as screening them at once.
+   */
+  async function screenLeases(river: RiverInputs, plan: ScreeningPlanItem[], leaseIds?: string[]) {
+    let screened = 0;
+    for (const item of plan) screened += await screenFootprint(river, item.footprint, item.scenario, leaseIds);
     await annualise(river, leaseIds);
-    await onProgress?.(scenarios.rows.length, scenarios.rows.length, 'Done');
-    return { scenarios: scenarios.rows.length, screenings: screened };
+    return screened;
+  }
+
+  /** Every scenario of a river: footprints (cached by inputs) and screenings of every scoped lease, at once. */
+  async function screenRiver(
+    riverId: string,
+    onProgress?: (done: number, total: number, what: string) => Promise<void> | void,
+    leaseIds?: string[],
+  ) {
+    const { river, plan } = await prepareRiver(riverId, onProgress);
+    await onProgress?.(plan.length, plan.length, 'Screening the leases');
+    const screened = await screenLeases(river, plan, leaseIds);
+    await onProgress?.(plan.length, plan.length, 'Done');
+    return { scenarios: plan.length, screenings: screened };
   }
 
   /** Rivers whose screenings a change to these leases affects. */
@@ -451,7 +515,19 @@ export function createScreeningService(deps: { db: Database }) {
     return res.rows.map((r) => r.id);
   }
 
-  return { riverInputs, ensureFootprint, screenFootprint, screenRiver, annualise, annualiseMissing, riversForLeases };
+  return {
+    riverInputs,
+    ensureFootprint,
+    screenFootprint,
+    screenRiver,
+    prepareRiver,
+    loadPlan,
+    scopedLeaseIds,
+    screenLeases,
+    annualise,
+    annualiseMissing,
+    riversForLeases,
+  };
 }
 
 export type ScreeningService = ReturnType<typeof createScreeningService>;
