@@ -83,7 +83,7 @@ describe('optimised screening against the straightforward one (snapshot before t
   it('gives every screening the same fractions, salinity, indicator, days, rating, score, reasons and numbers', () => {
     const before = JSON.parse(readFileSync(SNAPSHOT, 'utf8')) as Row[];
     const diffs: string[] = [];
-    rows.forEach((r, i) => same(r, before[i], `${r.lease_code} ${r.scenario}`, diffs));
+    for (const [i, r] of rows.entries()) same(r, before[i], `${r.lease_code} ${r.scenario}`, diffs);
     expect(diffs.slice(0, 20)).toEqual([]);
   });
 });
