@@ -16,6 +16,7 @@
  */
 import { computePlume, type PlumeResult } from '../physics/compute-plume';
 import {
+  DEFAULT_ENTRAINMENT_COEFFICIENT,
   MAX_ALONGSHORE_SHARE,
   MAX_ENTRAINMENT_COEFFICIENT,
   MIN_ALONGSHORE_SHARE,
@@ -101,7 +102,7 @@ export function effectiveT90Hours(settings: Pick<CalibrationRiverSettings, 't90D
 /** The calibrated values a river's settings hold now. */
 export function calibratedValuesOf(settings: CalibrationRiverSettings): CalibratedValues {
   return {
-    entrainmentCoefficient: settings.entrainmentCoefficient,
+    entrainmentCoefficient: settings.entrainmentCoefficient ?? DEFAULT_ENTRAINMENT_COEFFICIENT,
     t90Hours: effectiveT90Hours(settings),
     alongshoreShare: settings.alongshoreShare,
     nearFieldFreshwaterFraction: settings.nearFieldFreshwaterFraction ?? 1,
@@ -180,7 +181,8 @@ function predictWith(
   const x = Math.max(0, offshore);
   const f = fieldAt(plume, params, s, x);
   return {
-    inside: x < plumeOffshoreExtent(plume, s),
+    // Up-coast only the bulge disc holds river water (science.md §1.11): s² + x² < 2 x R_b.
+    inside: s < 0 && plume.regime !== 'equatorial-jet' ? s * s + x * x < x * plume.bulgeOffshoreExtent : x < plumeOffshoreExtent(plume, s),
     freshwaterFraction: f.freshwaterFraction,
     salinity: f.salinity,
     indicator: f.indicator,

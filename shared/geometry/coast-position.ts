@@ -157,43 +157,6 @@ function upperBound(arc: number[], v: number): number {
 }
 
 /**
- * Points to judge a polygon at: its vertices and points along its edges no more than `spacing`
- * apart (a lease is judged at its own worst point, which for the plume's fields lies on its
- * outline unless the polygon holds the bulge centre, so the centroid is added too).
- *
- * @param rings - polygon rings [lon, lat] (outer and holes; Polygon or MultiPolygon coordinates flattened)
- * @param frame - the frame (for metres)
- * @param spacing - largest gap between points [m], > 0
- * @returns [lon, lat] points
- * @example
- * outlinePoints([[[0,0],[0.001,0],[0.001,0.001],[0,0]]], frame, 25).length; // => about 16
- * Source: (c) common practice.
- */
-export function outlinePoints(rings: readonly (readonly Position[])[], frame: CoastFrame, spacing: number): [number, number][] {
-  const out: [number, number][] = [];
-  let cx = 0;
-  let cy = 0;
-  let n = 0;
-  for (const ring of rings) {
-    const pts = ring.map((q) => frame.projection.forward(q));
-    for (let i = 0; i + 1 < pts.length; i += 1) {
-      const a = pts[i];
-      const b = pts[i + 1];
-      const pieces = Math.max(1, Math.ceil(Math.hypot(b[0] - a[0], b[1] - a[1]) / spacing));
-      for (let k = 0; k < pieces; k += 1) {
-        const f = k / pieces;
-        out.push(frame.projection.inverse([a[0] + f * (b[0] - a[0]), a[1] + f * (b[1] - a[1])]));
-      }
-      cx += a[0];
-      cy += a[1];
-      n += 1;
-    }
-  }
-  if (n > 0) out.push(frame.projection.inverse([cx / n, cy / n]));
-  return out;
-}
-
-/**
  * Signed positions of a polygon's outline (vertices and points no more than `spacing` apart) and
  * of its vertex centroid, projected once; the outline's own size bounds the path search around
  * `hint` (the arc of the polygon's nearest point to the walked coast), when given.

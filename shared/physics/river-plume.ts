@@ -11,7 +11,12 @@ import type { IndicatorSpec } from './exposure-field';
 import { type ExposureParameters, exposureParameters, fieldAt, defaultAlongExtent } from './exposure-field';
 import { computePlume, type PlumeInput, type PlumeResult } from './compute-plume';
 import { coastalCurrentThickness } from './coastal-current';
-import { MAX_ENTRAINMENT_COEFFICIENT, MIN_ENTRAINMENT_COEFFICIENT, ZERO_PV_SHAPE_FACTOR } from './constants';
+import {
+  DEFAULT_ENTRAINMENT_COEFFICIENT,
+  MAX_ENTRAINMENT_COEFFICIENT,
+  MIN_ENTRAINMENT_COEFFICIENT,
+  ZERO_PV_SHAPE_FACTOR,
+} from './constants';
 
 /** The river settings the plume needs (the shape of shared/schemas/river RiverSettings). */
 export interface RiverPlumeSettings {
@@ -73,7 +78,8 @@ export function riverPlume(
   const plume = computePlume({ ...plumeInput(settings, flow.discharge), floodDurationHours: flow.durationHours });
   const base = exposureParameters(
     {
-      entrainmentCoefficient: settings.entrainmentCoefficient,
+      // (a river saved before the setting existed and not yet carried over at start-up takes the default)
+      entrainmentCoefficient: settings.entrainmentCoefficient ?? DEFAULT_ENTRAINMENT_COEFFICIENT,
       t90DayHours: settings.t90DayHours,
       t90NightHours: settings.t90NightHours,
       daylightFraction: settings.daylightFraction,

@@ -71,7 +71,7 @@ describe('monitoring and calibration', () => {
     await page.waitForFunction(() => document.querySelectorAll('.recharts-scatter-symbol').length > 100);
     await screenshot(page, 'monitoring-3-comparison');
 
-    // Fit (mixing length, T90 and the near-field fraction), then apply.
+    // Fit (entrainment coefficient, T90 and the near-field fraction), then apply.
     await page.getByLabel('Also fit the river water leaving the mouth region').check();
     await page.getByRole('button', { name: 'Run the fit' }).click();
     const result = page.getByRole('article', { name: 'Calibration result' }).first();

@@ -224,7 +224,7 @@ export function MonitoringPage() {
             noValidate
             onSubmit={form.handleSubmit((v) => fit.mutate(v))}
           >
-            <p className="text-sm">Always fitted: mixing length and T90.</p>
+            <p className="text-sm">Always fitted: entrainment coefficient (how fast the coastal current dilutes; its dilution length grows with flow) and T90.</p>
             <label htmlFor={ids.near} className="flex items-center gap-2 text-sm">
               <input id={ids.near} type="checkbox" {...form.register('fitNearFieldFraction')} />
               Also fit the river water leaving the mouth region
