@@ -45,7 +45,7 @@ export async function clientBenchmarks(databaseUrl: string): Promise<BenchResult
   await seedDemoRegion(db.db);
   const env = loadEnv({ NODE_ENV: 'test', DATABASE_URL: databaseUrl, AUTH_SECRET: 'bench-secret-bench-secret-bench-secret-01', SMTP_URL: 'smtp://127.0.0.1:9', SERVE_CLIENT: 'true' });
   const mailer = createMailer(env.SMTP_URL, env.MAIL_FROM);
-  const app = createApp({ env, db, mailer, authRateLimit: { limit: 10_000, windowMs: 60_000 } });
+  const app = createApp({ env, db, mailer, authRateLimit: { limit: 10_000, windowMs: 60_000 }, accountRateLimit: { limit: 10_000, windowMs: 60_000 } });
   const server: Server = await new Promise((resolve) => {
     const s = app.listen(0, '127.0.0.1', () => resolve(s));
   });

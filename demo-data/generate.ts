@@ -1,5 +1,5 @@
 /**
- * Generates the invented Fennick Bay demo region: coast, rivers and flow records, leases, closure
+ * Generates the invented Fennick coast demo region: coast, rivers and flow records, leases, closure
  * zones and monitoring data, as files a user could upload. Deterministic (every random draw comes
  * from a fixed seed); checks its own output and stops with an error if a lease touches land.
  *
@@ -17,7 +17,7 @@ import { AMBERLIN_MOUTH, buildCoast, COAST_SEED, ISLAND_SEED, REGION_BOUNDS, TOL
 import { GROWERS, JURISDICTION } from './lib/growers';
 import { buildLeases, LEASE_SEED } from './lib/leases';
 import { REGION_CENTRE, toLonLat, type Xy } from './lib/local-frame';
-import { buildSamples, MONITORING_SEED, samplesCsv, STATION_TABLE, stationPoint } from './lib/monitoring';
+import { buildSamples, MONITORING_SEED, placeStations, samplesCsv, STATION_TABLE } from './lib/monitoring';
 import { boundaryDistance, closeRing, pointInRing } from './lib/planar';
 import { inlandLine, RIVER_TABLE, riverFlows } from './lib/rivers';
 import { buildZones } from './lib/zones';
@@ -35,13 +35,13 @@ const out = (...parts: string[]) => path.join(OUT, ...parts);
 // ---------------------------------------------------------------- coast
 const coast = buildCoast();
 const landFeature: Feature<MultiPolygon> = multiPolygon([[lonLatRing(coast.landRings.mainland)], [lonLatRing(coast.landRings.island)]], {
-  NAME: 'Fennick Bay land',
+  NAME: 'Fennick Coast land',
   REGION: JURISDICTION.region,
   PARTS: 'mainland; Skerrow Island',
 });
 const shoreFeature: Feature<MultiLineString> = {
   type: 'Feature',
-  properties: { NAME: 'Fennick Bay shoreline', REGION: JURISDICTION.region, PARTS: 'mainland (south to north); Skerrow Island' },
+  properties: { NAME: 'Fennick Coast shoreline', REGION: JURISDICTION.region, PARTS: 'mainland (south to north); Skerrow Island' },
   geometry: { type: 'MultiLineString', coordinates: [coast.mainland.map(toLonLat), closeRing(coast.islandLine).map(toLonLat)] },
 };
 const landKinks = kinks(landFeature).features.length + kinks(lineString(coast.mainland.map(toLonLat))).features.length;
@@ -69,6 +69,7 @@ const riversJson = RIVER_TABLE.map((r) => {
   return {
     name: r.name,
     slug: r.slug,
+    catchmentAreaKm2: r.catchmentAreaKm2,
     mouth: toLonLat(mouth),
     outflowAzimuthDeg: r.outflowAzimuthDeg,
     mouthWidthM: r.mouthWidthM,
@@ -83,7 +84,8 @@ const riversJson = RIVER_TABLE.map((r) => {
     t90NightHours: r.t90NightHours,
     daylightFraction: r.daylightFraction,
     alongshoreShare: r.alongshoreShare,
-    mixingLengthM: r.mixingLengthM,
+    entrainmentCoefficient: r.entrainmentCoefficient,
+    nearFieldFreshwaterFraction: r.nearFieldFreshwaterFraction,
     gauge: r.gauge,
     flowRecordFile: r.flowRecordFile,
   };
@@ -104,7 +106,7 @@ writeGeoJson(
 );
 
 // ---------------------------------------------------------------- leases
-const leases = buildLeases();
+const leases = buildLeases(coast);
 const problems: string[] = [];
 const ids = new Set<string>();
 const leaseFeatures: Feature<Polygon>[] = leases.map((l) => {
@@ -143,7 +145,7 @@ writeGeoJson(out('leases', 'fennick-leases.geojson'), 'fennick-leases', leaseFea
 // ---------------------------------------------------------------- zones
 const zones = buildZones(landRingsLocal);
 const zoneFeatures: Feature<Polygon>[] = zones.map(({ spec, ring }) => {
-  const trigger = roundSignificant(riverSummaries[spec.RIVER].gev50, 2);
+  const trigger = floorSignificant(riverSummaries[spec.RIVER].gev50, 2);
   return polygon([ring.map(toLonLat)], {
     ZONE_NAME: spec.ZONE_NAME,
     RIVER: spec.RIVER,
@@ -159,13 +161,13 @@ const leasesInZone = zones.map(({ spec, ring }) => ({
 }));
 
 // ---------------------------------------------------------------- monitoring
-const stationFeatures: Feature<Point>[] = STATION_TABLE.map((s) => {
-  const p = stationPoint(s);
-  if (onLand(p)) throw new Error(`station ${s.STATION_ID} is on land`);
-  return { type: 'Feature', properties: { STATION_ID: s.STATION_ID, NAME: s.NAME }, geometry: { type: 'Point', coordinates: toLonLat(p) } };
+const placedStations = placeStations(coast);
+const stationFeatures: Feature<Point>[] = placedStations.map((s) => {
+  if (onLand(s.point)) throw new Error(`station ${s.STATION_ID} is on land`);
+  return { type: 'Feature', properties: { STATION_ID: s.STATION_ID, NAME: s.NAME }, geometry: { type: 'Point', coordinates: toLonLat(s.point) } };
 });
 writeGeoJson(out('monitoring', 'stations.geojson'), 'fennick-stations', stationFeatures);
-const samples = buildSamples(RIVER_TABLE, flows);
+const samples = buildSamples(RIVER_TABLE, flows, placedStations, Object.fromEntries(riversJson.map((r) => [r.name, r.mouth[1]])));
 writeText(out('monitoring', 'samples.csv'), samplesCsv(samples));
 
 // ---------------------------------------------------------------- coast files and manifest
@@ -244,7 +246,7 @@ writeZippedShapefile({
 
 // ---------------------------------------------------------------- summary
 const log = (s = '') => process.stdout.write(`${s}\n`);
-log(`Fennick Bay demo data written to ${OUT}`);
+log(`Fennick coast demo data written to ${OUT}`);
 log(`coast: ${coast.mainland.length} mainland vertices, ${coast.islandLine.length} island vertices`);
 for (const r of RIVER_TABLE) {
   const s = riverSummaries[r.name];
@@ -259,8 +261,12 @@ log(`leases: ${leases.length}`);
 for (const line of leaseReport) log(`  ${line}`);
 const censored = samples.filter((s) => s.e_coli_per_100ml.startsWith('<') || s.e_coli_per_100ml.startsWith('>')).length;
 log(`samples: ${samples.length} at ${STATION_TABLE.length} stations, ${censored} censored`);
+for (const s of placedStations) log(`  ${s.STATION_ID} ${s.river.padEnd(14)} s ${(s.s / 1000).toFixed(2).padStart(6)} km  x ${s.x.toFixed(0).padStart(5)} m`);
+const shoreLength = coast.mainland.reduce((sum, p, i, a) => (i ? sum + Math.hypot(p[0] - a[i - 1][0], p[1] - a[i - 1][1]) : 0), 0);
+log(`mainland shoreline: ${(shoreLength / 1000).toFixed(1)} km`);
 
-/** @private Rounds to n significant figures. */
-function roundSignificant(v: number, n: number): number {
-  return Number(v.toPrecision(n));
+/** @private Rounds down to n significant figures (a plan trigger a little under the 2-year flood). */
+function floorSignificant(v: number, n: number): number {
+  const step = 10 ** (Math.floor(Math.log10(v)) - n + 1);
+  return Math.floor(v / step) * step;
 }

@@ -2,7 +2,8 @@
  * Draws an overview of the generated demo region (land, island, leases coloured by grower,
  * candidates dashed, closure zones dashed, river mouths, stations) as SVG and converts it to PNG
  * with headless chromium: screenshots/demo-region.png (whole region) and
- * screenshots/demo-region-bay.png (Fennick Bay to Gullstone Head). For checking by eye only.
+ * screenshots/demo-region-bay.png (the Amberlin mouth to beyond Gullstone Head) and
+ * screenshots/demo-region-tolley.png (the coast south of the Amberlin). For checking by eye only.
  *
  * Run after generate.ts: cd /work/main && npx tsx demo-data/render-overview.ts
  */
@@ -45,8 +46,9 @@ interface View {
 }
 
 const views: View[] = [
-  { file: 'demo-region', minX: -18_000, maxX: 12_000, minY: -20_000, maxY: 20_000, scale: 0.032, labelLeases: false },
-  { file: 'demo-region-bay', minX: -9_000, maxX: 8_000, minY: -5_000, maxY: 19_500, scale: 0.05, labelLeases: true },
+  { file: 'demo-region', minX: -25_000, maxX: 12_000, minY: -56_000, maxY: 56_000, scale: 0.012, labelLeases: false },
+  { file: 'demo-region-bay', minX: -12_000, maxX: 6_000, minY: -4_000, maxY: 50_000, scale: 0.03, labelLeases: true },
+  { file: 'demo-region-tolley', minX: -12_000, maxX: 6_000, minY: -56_000, maxY: -4_000, scale: 0.03, labelLeases: true },
 ];
 
 mkdirSync(shots, { recursive: true });
@@ -121,15 +123,15 @@ for (const v of views) {
       `<text x="${x}" y="${y}" font-size="${size}" font-family="sans-serif" font-style="italic" fill="${colour}" text-anchor="middle">${text}</text>`,
     );
   };
-  label('Fennick Bay', [3000, -400], 18, '#1f4f7a');
-  label('Gullstone Head', [-2300, 10300], 14, '#5a4a2a');
-  label('Skerrow Island', [-5500, 3000], 13, '#5a4a2a');
-  label('open sea (invented region)', [-12_000, -17_000], 14, '#4a7a9a');
+  label('Fennick Bay', [-3500, 16000], 16, '#1f4f7a');
+  label('Gullstone Head', [-9500, 30900], 14, '#5a4a2a');
+  label('Skerrow Island', [-11500, 44500], 13, '#5a4a2a');
+  label('open sea (invented region)', [-20_000, -2_000], 14, '#4a7a9a');
   // Legend, scale bar and north arrow.
   const lx = 12;
   let ly = 20;
   parts.push(`<rect x="4" y="4" width="225" height="${28 + GROWERS.length * 18 + 54}" fill="#fff" fill-opacity="0.85" stroke="#999"/>`);
-  parts.push(`<text x="${lx}" y="${ly}" font-size="13" font-family="sans-serif" font-weight="bold">Fennick Bay demo region</text>`);
+  parts.push(`<text x="${lx}" y="${ly}" font-size="13" font-family="sans-serif" font-weight="bold">Fennick coast demo region</text>`);
   for (const g of GROWERS) {
     ly += 18;
     parts.push(`<rect x="${lx}" y="${ly - 10}" width="14" height="12" fill="${COLOURS[g.name]}"/>`);

@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # npm start: install what is missing, start PostgreSQL, migrate, load the demo data,
-# start the local fakes and serve the app on one loopback port.
+# start the local fakes and serve the app on one loopback port. Production by default: the client is
+# React's production build and the server runs with NODE_ENV=production (npm run dev keeps the dev tools).
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
 export PORT="${PORT:-3000}"
@@ -12,7 +13,7 @@ export PAYMENT_FAKE_PORT="${PAYMENT_FAKE_PORT:-3010}"
 export PAYMENT_API_URL="${PAYMENT_API_URL:-http://127.0.0.1:$PAYMENT_FAKE_PORT}"
 export GAUGE_FEED_PORT="${GAUGE_FEED_PORT:-3011}"
 export GAUGE_FEED_URL="${GAUGE_FEED_URL:-http://127.0.0.1:$GAUGE_FEED_PORT}"
-export NODE_ENV="${NODE_ENV:-development}"
+export NODE_ENV="${NODE_ENV:-production}"
 
 if port_in_use "$PORT"; then
   fail "Port $PORT is already in use: Brackline (or another program) is running there. Open http://127.0.0.1:$PORT, stop the other program, or choose another port: PORT=3100 npm start"
@@ -37,11 +38,15 @@ ensure_auth_secret
 npx tsx server/db/migrate.ts
 npx tsx server/db/seed.ts
 
-# Build the client when there is no build or the sources are newer than it.
-if [ ! -f dist/index.html ] || [ -n "$(find src shared index.html vite.config.ts tailwind.config.ts -newer dist/index.html -print -quit)" ]; then
-  say "Building the client…"
-  npx vite build --logLevel warn
+# Build the client when there is no build, the sources are newer than it, or it is a development
+# build (React's jsxDEV in the chunks, left by an older npm start or another tool).
+if [ ! -f dist/index.html ] || [ -n "$(find src shared index.html vite.config.ts tailwind.config.ts -newer dist/index.html -print -quit)" ] \
+  || grep -qs jsxDEV dist/assets/*.js; then
+  say "Building the client (production build)…"
+  # vite build makes React's production build only when NODE_ENV is production (or unset).
+  NODE_ENV=production npx vite build --logLevel warn
 fi
+say "Serving the production client build with NODE_ENV=$NODE_ENV (npm run dev for the development tools)"
 
 cat <<MSG
 

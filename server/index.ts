@@ -10,10 +10,10 @@ import { startSmtpFake, type SmtpFake } from './fakes/smtp-fake';
 import { logger } from './lib/logger';
 import { createMailer } from './mail/mailer';
 import { startJobs } from './jobs/start-jobs';
+import { createScreeningService } from './services/screening.service';
 import { type GaugeFeed, startGaugeFeed } from './fakes/gauge-feed';
 import { type PaymentFake, startPaymentFake } from './fakes/payment-fake';
 import { upgradeStoredModel } from './services/model-upgrade.service';
-import { createScreeningService } from './services/screening.service';
 
 async function main() {
   let env: ReturnType<typeof loadEnv>;
@@ -68,10 +68,10 @@ async function main() {
       startGaugeFeed({ port: env.GAUGE_FEED_PORT }),
     );
   }
+
   // Screening and alerts run in pg-boss workers on the same PostgreSQL (WORKERS=false leaves them to `npm run worker`).
-  const screening = createScreeningService({ db: dbHandle.db });
   // Yearly figures stored before the yearly rating existed are worked out again from the stored screenings.
-  const reannualised = await screening.annualiseMissing();
+  const reannualised = await createScreeningService({ db: dbHandle.db }).annualiseMissing();
   if (reannualised) logger.info({ rivers: reannualised }, 'yearly figures re-computed for the yearly rating');
   const { jobs, alertJobs } = await startJobs(env, dbHandle, { work: env.WORKERS });
   // Stored results of an older model version are re-screened (and legacy river settings carried over) at start-up.
@@ -92,7 +92,9 @@ async function main() {
     const address = server.address();
     const port = typeof address === 'object' && address ? address.port : env.PORT;
     logger.info({ url: `http://${env.HOST}:${port}`, workers: env.WORKERS }, 'listening');
-    console.log(`\n[brackline] Brackline is running at http://${env.HOST}:${port}${env.WORKERS ? '' : ' (WORKERS=false: screening and alerts are left to npm run worker)'}`);
+    console.log(
+      `\n[brackline] Brackline is running at http://${env.HOST}:${port} (NODE_ENV=${env.NODE_ENV})${env.WORKERS ? '' : ' (WORKERS=false: screening and alerts are left to npm run worker)'}`,
+    );
     if (smtp) console.log(`[brackline] Local e-mail fake on smtp://127.0.0.1:${smtp.port} (see Admin → Outbox)`);
     if (payment) console.log(`[brackline] Local payment fake on ${payment.url} (test card 4242 4242 4242 4242)`);
     if (feed) console.log(`[brackline] Local gauge feed on ${feed.url} (polled every ${env.GAUGE_FEED_POLL_SECONDS} s)`);

@@ -1,8 +1,9 @@
 /**
  * @module demo-data/lib/coast
- * The invented coast of Fennick Bay in the local frame (metres): a mainland shoreline running
- * south → north with the bay, the Amberlin River mouth at its head, Gullstone Head north of the
- * bay and Tolley Brook's mouth to the south; Skerrow Island offshore; the land polygon.
+ * The invented Fennick coast in the local frame (metres): a mainland shoreline running 110 km
+ * south → north with Tolley Brook's mouth, the Amberlin River's mouth 30 km north of it, the
+ * shallow Fennick Bay 10–21 km north of the Amberlin, Gullstone Head 28–35 km north of it;
+ * Skerrow Island offshore beyond the head; the land polygon.
  *
  * Method: a centripetal Catmull–Rom spline through hand-placed control points (km), resampled
  * every ~120 m, then moved along its normal by a seeded sum of sinusoids (wavelengths 6 km down
@@ -19,62 +20,57 @@ export const COAST_SEED = 4107;
 /** Seed of Skerrow Island's outline. */
 export const ISLAND_SEED = 4108;
 
-/** Extent of the region in the local frame [m]: 30 km west–east, 40 km south–north. */
-export const REGION_BOUNDS = { minX: -18_000, maxX: 12_000, minY: -20_000, maxY: 20_000 } as const;
+/** Extent of the region in the local frame [m]: 37 km west–east, 112 km south–north. */
+export const REGION_BOUNDS = { minX: -25_000, maxX: 12_000, minY: -56_000, maxY: 56_000 } as const;
 
-/** Mouth of the Amberlin River, at the head (east end) of Fennick Bay. */
-export const AMBERLIN_MOUTH: Xy = km(7.0, 0.0);
-/** Mouth of Tolley Brook, on the straight coast ~14 km south of the bay's centre line. */
-export const TOLLEY_MOUTH: Xy = km(0.0, -14.0);
+/** Mouth of the Amberlin River, on the open coast near the middle of the region. */
+export const AMBERLIN_MOUTH: Xy = km(0.0, 0.0);
+/** Mouth of Tolley Brook, on the open coast 30 km south of the Amberlin's. */
+export const TOLLEY_MOUTH: Xy = km(0.0, -30.0);
 
 /**
  * Control points of the mainland shoreline, south → north (land to the east, i.e. on the right
  * when walking the list). Index of each river mouth is marked by reference equality.
  */
 const CONTROL: Xy[] = [
-  km(0.6, -20.0),
-  km(0.45, -18.0),
-  km(0.15, -16.0),
+  km(1.0, -55.0),
+  km(0.7, -48.0),
+  km(0.3, -41.0),
+  km(0.1, -35.0),
   TOLLEY_MOUTH,
-  km(-0.15, -12.0),
-  km(-0.3, -10.0),
-  km(-0.1, -7.6),
-  km(-0.3, -5.6),
-  // South point of the bay mouth, then the bay's south shore eastwards.
-  km(-0.7, -4.1),
-  km(0.6, -3.9),
-  km(2.2, -3.6),
-  km(3.8, -3.0),
-  km(5.2, -2.2),
-  km(6.3, -1.2),
-  km(6.9, -0.45),
+  km(-0.2, -25.0),
+  km(-0.5, -19.0),
+  km(-0.3, -13.0),
+  km(-0.1, -7.0),
+  km(0.1, -3.5),
   AMBERLIN_MOUTH,
-  // The bay's north shore westwards.
-  km(6.9, 0.45),
-  km(6.3, 1.25),
-  km(5.2, 2.3),
-  km(3.8, 3.15),
-  km(2.2, 3.75),
-  km(0.6, 4.1),
-  km(-0.5, 4.3),
-  // Straight coast north to Gullstone Head.
-  km(-0.3, 5.6),
-  km(-0.4, 7.3),
-  km(-0.7, 8.5),
-  // Gullstone Head: juts ~3.5 km west.
-  km(-1.7, 9.0),
-  km(-2.8, 9.45),
-  km(-3.6, 9.8),
-  km(-4.0, 10.2),
-  km(-3.8, 10.65),
-  km(-3.0, 10.95),
-  km(-1.9, 11.35),
-  km(-0.9, 11.9),
-  km(-0.25, 12.9),
-  km(0.15, 14.5),
-  km(0.4, 16.5),
-  km(0.7, 18.4),
-  km(1.0, 20.0),
+  km(-0.1, 3.5),
+  km(-0.4, 7.5),
+  // Fennick Bay: a shallow bay 11 km across and 3.5 km deep, 10–21 km north of the Amberlin.
+  km(-0.8, 10.0),
+  km(0.6, 11.6),
+  km(2.0, 13.6),
+  km(2.7, 16.0),
+  km(2.4, 18.4),
+  km(1.0, 20.3),
+  km(-0.6, 21.6),
+  // The straight coast north to Gullstone Head.
+  km(-0.8, 24.5),
+  km(-1.2, 27.5),
+  // Gullstone Head: juts ~5 km west.
+  km(-2.5, 28.6),
+  km(-4.1, 29.3),
+  km(-5.5, 30.0),
+  km(-6.0, 30.9),
+  km(-5.6, 31.8),
+  km(-4.2, 32.5),
+  km(-2.6, 33.3),
+  km(-1.4, 34.6),
+  km(-0.8, 36.8),
+  km(-0.6, 40.5),
+  km(-0.2, 45.0),
+  km(0.2, 50.0),
+  km(0.6, 55.0),
 ];
 
 /** Target spacing of shoreline vertices [m]. */
@@ -134,11 +130,12 @@ export function buildCoast(): Coast {
 
 /**
  * Skerrow Island: an egg-shaped outline ~2 km × 1 km, long axis towards 20° (NNE), centred
- * 5.5 km west and 5 km north of the region centre, with a seeded wobble of a few harmonics.
+ * 8.5 km west and 42 km north of the region centre (off the coast north of Gullstone Head),
+ * with a seeded wobble of a few harmonics.
  */
 function buildIsland(): Xy[] {
   const next = createUniformStream(ISLAND_SEED);
-  const centre = km(-5.5, 5.0);
+  const centre = km(-8.5, 42.0);
   const semiMajor = 1000;
   const semiMinor = 480;
   const axis = (20 * Math.PI) / 180;
@@ -281,4 +278,46 @@ function smoothstep(e0: number, e1: number, x: number): number {
 /** @private Rounds to centimetres. */
 function round2(v: number): number {
   return Math.round(v * 100) / 100;
+}
+
+/** A place on the sea side of the mainland, found from a river mouth along the shore. */
+export interface ShorePlace {
+  /** The point [m] in the local frame. */
+  point: Xy;
+  /** Azimuth of the shoreline there, walking north (degrees clockwise from north). */
+  shoreAzimuth: number;
+}
+
+/**
+ * The point `offshoreM` metres seaward of the shoreline, `alongKm` km along the mainland shore
+ * from a vertex (positive north, negative south). The shore direction is smoothed over ±600 m so
+ * that the wiggles do not swing the normal.
+ * @param coast - the built coast
+ * @param fromIndex - vertex index of the start (a river mouth)
+ * @param alongKm - arc length along the shore [km], signed
+ * @param offshoreM - distance seaward of the shore [m]
+ */
+export function shorePlace(coast: Coast, fromIndex: number, alongKm: number, offshoreM: number): ShorePlace {
+  const line = coast.mainland;
+  const s = cumulativeLength(line);
+  const target = s[fromIndex] + alongKm * 1000;
+  if (target < 0 || target > s[s.length - 1]) throw new Error(`${alongKm} km from vertex ${fromIndex} is off the shoreline`);
+  const at = (arc: number): Xy => {
+    const a = Math.max(0, Math.min(s[s.length - 1], arc));
+    let j = 0;
+    while (j < s.length - 2 && s[j + 1] < a) j++;
+    const f = (a - s[j]) / (s[j + 1] - s[j]);
+    return [line[j][0] + f * (line[j + 1][0] - line[j][0]), line[j][1] + f * (line[j + 1][1] - line[j][1])];
+  };
+  const p = at(target);
+  const a = at(target - 600);
+  const b = at(target + 600);
+  const tx = b[0] - a[0];
+  const ty = b[1] - a[1];
+  const len = Math.hypot(tx, ty);
+  // Sea is on the left when walking north (land on the right): the left normal is (−ty, tx).
+  return {
+    point: [p[0] + (-ty / len) * offshoreM, p[1] + (tx / len) * offshoreM],
+    shoreAzimuth: ((Math.atan2(tx, ty) * 180) / Math.PI + 360) % 360,
+  };
 }

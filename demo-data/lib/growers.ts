@@ -4,7 +4,7 @@
  */
 
 /** The invented shellfish control authority of the region. */
-export const JURISDICTION = { name: 'Fennick Coast Shellfish Authority', slug: 'fennick-coast', region: 'Fennick Bay' } as const;
+export const JURISDICTION = { name: 'Fennick Coast Shellfish Authority', slug: 'fennick-coast', region: 'Fennick Coast' } as const;
 
 /** A grower organisation and its demo sign-in. */
 export interface Grower {

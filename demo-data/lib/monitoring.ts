@@ -1,29 +1,38 @@
 /**
  * @module demo-data/lib/monitoring
  * Invented monitoring stations and synthetic water samples (salinity, E. coli, temperature),
- * made from the generated flow records by a simple, documented rule with seeded noise:
+ * made from the engine's own plume with KNOWN river settings (rivers.json: the mixing settings,
+ * the T90s, the alongshore share and the near-field freshwater fraction), so that a calibration
+ * of the demo rivers against these samples can be checked against the values that made them:
  *
- *  1. Antecedent flow Q_a = the largest daily flow of the sample day and the two days before.
- *  2. Fresh-water fraction φ = φ_max × Q_a / (Q_a + Q_half), with φ_max per station (how exposed
- *     it is to its river) and Q_half per river (Amberlin 500 m³/s, Tolley 50 m³/s).
- *  3. Salinity S = 33.5 (1 − φ) + S_river φ + N(0, 0.3), rounded to 0.1, at least 0.
- *  4. E. coli per 100 mL = 3 e^N(0, 0.8) (marine background)
- *       + φ × C_river(Q_a) × 10^(−τ / T90_eff) × e^N(0, 0.5),
- *     with C_river = a Q_a^b (the river's power law), τ the station's travel time from the
- *     mouth [h] and T90_eff = 1 / (0.5/T90_day + 0.5/T90_night) ≈ 13.3 h.
- *  5. Reported values: below 2 → "<2", above 1600 → ">1600" (the counting range of the
+ *  1. Flow Q = the larger daily flow of the sample day and the day before, from the station's
+ *     river record (what the server takes with its default one-day lag).
+ *  2. The station's place relative to its river: s, the distance along the mainland shore from
+ *     the mouth to the shore point nearest the station (down-coast positive), and x, the
+ *     distance from that shore point.
+ *  3. Model salinity S_m and indicator C_m = predictSample(settings, { flow: Q, along: s,
+ *     offshore: x }) (shared/calibration/river-calibration: the plume of that flow without a
+ *     flood-duration cut-off, then the exposure field).
+ *  4. Salinity S = S_m + N(0, 0.3), rounded to 0.1, at least 0.
+ *  5. E. coli per 100 mL = C_m × e^N(0, 0.5) (measurement and patchiness noise, log-normal).
+ *  6. Reported values: below 2 → "<2", above 1600 → ">1600" (the counting range of the
  *     methods), otherwise MPN to two significant figures or an MF count (whole number).
- *  6. Temperature = (1 − φ) T_sea(day) + φ T_river(day) + N(0, 0.3), with seasonal cycles
- *     T_sea = 14 + 4 cos(2π(doy − 228)/365.25) and T_river = 11 + 7 cos(2π(doy − 200)/365.25).
+ *  7. Temperature = (1 − φ) T_sea(day) + φ T_river(day) + N(0, 0.3), with φ the model's
+ *     freshwater fraction and seasonal cycles T_sea = 14 + 4 cos(2π(doy − 228)/365.25) and
+ *     T_river = 11 + 7 cos(2π(doy − 200)/365.25).
  *
- * Each station is sampled every 40–55 days (seeded) from a seeded first day in October 2020
- * until 30 September 2025, between 10:00 and 15:45 UTC.
+ * Each station is sampled every 35–49 days (seeded) from a seeded first day in October 2020
+ * until 30 September 2025, and also on the day after its river's flow rises through EVENT_FLOW
+ * (about half the 2-year flood: 250 m³/s for the Amberlin, 30 m³/s for Tolley Brook), between
+ * 10:00 and 15:45 UTC.
  */
 import normalQuantile from '@stdlib/stats-base-dists-normal-quantile';
 import { dateOfDayNumber, dayNumber } from '../../shared/hydrology/calendar-days';
 import type { FlowReading } from '../../shared/hydrology/parse-flow-record';
 import { createUniformStream } from '../../shared/hydrology/seeded-uniform';
-import { km, type Xy } from './local-frame';
+import { type CalibrationRiverSettings, predictSample } from '../../shared/calibration/river-calibration';
+import { type Coast, cumulativeLength, shorePlace } from './coast';
+import type { Xy } from './local-frame';
 import type { RiverSpec } from './rivers';
 
 /** Seed of the sampling schedule and the sample noise. */
@@ -38,39 +47,62 @@ export const REPORTING_LIMITS = { lower: 2, upper: 1600 } as const;
 export interface StationSpec {
   STATION_ID: string;
   NAME: string;
-  /** Position [km] in the local frame. */
-  at: [number, number];
   river: RiverSpec['name'];
-  /** Largest fresh-water fraction reached at the station in a great flood. */
-  phiMax: number;
-  /** Travel time of river water from the mouth [h]. */
-  travelHours: number;
+  /** Distance along the shore from the river's mouth [km], positive down-coast (north). */
+  along: number;
+  /** Distance seaward of the shore [m]. */
+  off: number;
   method: 'MPN' | 'MF';
 }
 
-/** The stations. */
+/** The stations: six down-coast of the Amberlin, three down-coast of Tolley Brook. */
 export const STATION_TABLE: readonly StationSpec[] = [
-  { STATION_ID: 'FB-S01', NAME: 'Inner Bay buoy', at: [5.9, 0.1], river: 'Amberlin River', phiMax: 0.6, travelHours: 2, method: 'MPN' },
-  { STATION_ID: 'FB-S02', NAME: 'Mid Bay', at: [3.6, 1.2], river: 'Amberlin River', phiMax: 0.42, travelHours: 5, method: 'MPN' },
-  { STATION_ID: 'FB-S03', NAME: 'Bay mouth marker', at: [0.0, 1.5], river: 'Amberlin River', phiMax: 0.3, travelHours: 9, method: 'MPN' },
-  { STATION_ID: 'FB-S04', NAME: 'North shore', at: [-1.5, 5.9], river: 'Amberlin River', phiMax: 0.25, travelHours: 13, method: 'MPN' },
-  { STATION_ID: 'FB-S05', NAME: 'Gullstone south', at: [-2.4, 8.1], river: 'Amberlin River', phiMax: 0.2, travelHours: 18, method: 'MF' },
-  {
-    STATION_ID: 'FB-S06',
-    NAME: 'Gullstone north',
-    at: [-1.6, 13.9],
-    river: 'Amberlin River',
-    phiMax: 0.12,
-    travelHours: 28,
-    method: 'MPN',
-  },
-  { STATION_ID: 'FB-S07', NAME: 'Skerrow lee', at: [-4.0, 4.4], river: 'Amberlin River', phiMax: 0.1, travelHours: 20, method: 'MPN' },
-  { STATION_ID: 'FB-S08', NAME: 'Tolley north', at: [-1.4, -10.2], river: 'Tolley Brook', phiMax: 0.3, travelHours: 4, method: 'MF' },
+  { STATION_ID: 'FB-S01', NAME: 'Amberlin north buoy', river: 'Amberlin River', along: 2.0, off: 800, method: 'MPN' },
+  { STATION_ID: 'FB-S02', NAME: 'Hollin shore', river: 'Amberlin River', along: 5.5, off: 1500, method: 'MPN' },
+  { STATION_ID: 'FB-S03', NAME: 'Fennick Bay south point', river: 'Amberlin River', along: 9.0, off: 600, method: 'MPN' },
+  { STATION_ID: 'FB-S04', NAME: 'Fennick Bay head', river: 'Amberlin River', along: 15.0, off: 1800, method: 'MPN' },
+  { STATION_ID: 'FB-S05', NAME: 'Gullstone south', river: 'Amberlin River', along: 24.0, off: 1000, method: 'MF' },
+  { STATION_ID: 'FB-S06', NAME: 'Gullstone lee', river: 'Amberlin River', along: 48.0, off: 800, method: 'MPN' },
+  { STATION_ID: 'FB-S07', NAME: 'Tolley mouth north', river: 'Tolley Brook', along: 2.0, off: 700, method: 'MF' },
+  { STATION_ID: 'FB-S08', NAME: 'Tolley shore', river: 'Tolley Brook', along: 6.5, off: 1000, method: 'MF' },
+  { STATION_ID: 'FB-S09', NAME: 'Tolley north', river: 'Tolley Brook', along: 12.0, off: 800, method: 'MPN' },
 ];
 
-/** Q_half of the fresh-water fraction rule, per river [m³/s]. */
-const Q_HALF: Record<RiverSpec['name'], number> = { 'Amberlin River': 500, 'Tolley Brook': 50 };
-const SEA_SALINITY = 33.5;
+/** A station placed on the coast: its point and its place relative to its river's mouth. */
+export interface PlacedStation extends StationSpec {
+  point: Xy;
+  /** s [m] along the shore from the mouth to the nearest shore point (down-coast positive). */
+  s: number;
+  /** x [m] from the nearest shore point. */
+  x: number;
+}
+
+/**
+ * Places every station on the coast and measures it back: s and x from the nearest point of the
+ * mainland shore (which is what the server measures on the plume's walked coast).
+ */
+export function placeStations(coast: Coast): PlacedStation[] {
+  const line = coast.mainland;
+  const arc = cumulativeLength(line);
+  return STATION_TABLE.map((st) => {
+    const mouth = st.river === 'Amberlin River' ? coast.mouthIndex.amberlin : coast.mouthIndex.tolley;
+    const { point } = shorePlace(coast, mouth, st.along, st.off);
+    let best = { d: Number.POSITIVE_INFINITY, s: 0 };
+    for (let i = 0; i < line.length - 1; i++) {
+      const a = line[i];
+      const b = line[i + 1];
+      const dx = b[0] - a[0];
+      const dy = b[1] - a[1];
+      const f = Math.max(0, Math.min(1, ((point[0] - a[0]) * dx + (point[1] - a[1]) * dy) / (dx * dx + dy * dy)));
+      const d = Math.hypot(point[0] - a[0] - f * dx, point[1] - a[1] - f * dy);
+      if (d < best.d) best = { d, s: arc[i] + f * Math.hypot(dx, dy) };
+    }
+    return { ...st, point, s: best.s - arc[mouth], x: best.d };
+  });
+}
+
+/** Flow [m³/s] whose rising crossing is followed by an event sample at each of the river's stations (about half the 2-year flood). */
+export const EVENT_FLOW: Record<RiverSpec['name'], number> = { 'Amberlin River': 250, 'Tolley Brook': 30 };
 
 /** One sample row, as written to samples.csv. */
 export interface SampleRow {
@@ -82,17 +114,19 @@ export interface SampleRow {
   temperature_c: number;
 }
 
-/** Station position in the local frame [m]. */
-export function stationPoint(s: StationSpec): Xy {
-  return km(s.at[0], s.at[1]);
-}
-
 /**
  * Makes the samples of every station, sorted by time then station.
- * @param rivers - the river settings
+ * @param rivers - the river settings (the known values the samples are made with)
  * @param flows - each river's daily readings, by river name
+ * @param stations - the placed stations
+ * @param latitude - each river's mouth latitude, by river name
  */
-export function buildSamples(rivers: readonly RiverSpec[], flows: Record<string, FlowReading[]>): SampleRow[] {
+export function buildSamples(
+  rivers: readonly RiverSpec[],
+  flows: Record<string, FlowReading[]>,
+  stations: readonly PlacedStation[],
+  latitude: Record<string, number>,
+): SampleRow[] {
   const next = createUniformStream(MONITORING_SEED);
   const normal = (sd: number) => normalQuantile(next(), 0, sd);
   const flowByDate = new Map<string, Map<string, number>>();
@@ -100,18 +134,29 @@ export function buildSamples(rivers: readonly RiverSpec[], flows: Record<string,
   const first = dayNumber(SAMPLING_FROM);
   const last = dayNumber(SAMPLING_TO);
   const rows: SampleRow[] = [];
-  for (const station of STATION_TABLE) {
+  for (const station of stations) {
     const river = rivers.find((r) => r.name === station.river);
     const q = flowByDate.get(station.river);
     if (!river || !q) throw new Error(`no river or flow for ${station.STATION_ID}`);
-    const t90 = 1 / (river.daylightFraction / river.t90DayHours + (1 - river.daylightFraction) / river.t90NightHours);
-    for (let day = first + Math.floor(next() * 21); day <= last; day += 40 + Math.floor(next() * 16)) {
+    const settings = knownSettings(river, latitude[river.name]);
+    const routine: number[] = [];
+    for (let day = first + Math.floor(next() * 21); day <= last; day += 35 + Math.floor(next() * 15)) routine.push(day);
+    // Event samples: the day after the river's flow rises through EVENT_FLOW, as a conditionally
+    // approved area is sampled after a closure.
+    const events: number[] = [];
+    for (let day = first + 1; day < last; day++) {
+      const before = q.get(dateOfDayNumber(day - 1)) ?? 0;
+      const now = q.get(dateOfDayNumber(day)) ?? 0;
+      if (before < EVENT_FLOW[station.river] && now >= EVENT_FLOW[station.river]) events.push(day + 1);
+    }
+    const days = [...new Set([...routine, ...events])].sort((a, b) => a - b);
+    for (const day of days) {
       const date = dateOfDayNumber(day);
-      const qa = Math.max(...[0, 1, 2].map((k) => q.get(dateOfDayNumber(day - k)) ?? 0));
-      const phi = (station.phiMax * qa) / (qa + Q_HALF[station.river]);
-      const salinity = Math.max(0, round(SEA_SALINITY * (1 - phi) + river.riverSalinity * phi + normal(0.3), 1));
-      const cRiver = river.indicator.coefficient * qa ** river.indicator.exponent;
-      const eColi = 3 * Math.exp(normal(0.8)) + phi * cRiver * 10 ** (-station.travelHours / t90) * Math.exp(normal(0.5));
+      const qa = Math.max(...[0, 1].map((k) => q.get(dateOfDayNumber(day - k)) ?? 0));
+      const model = predictSample(settings, { flow: qa, along: station.s, offshore: station.x });
+      const phi = model.freshwaterFraction;
+      const salinity = Math.max(0, round(model.salinity + normal(0.3), 1));
+      const eColi = model.indicator * Math.exp(normal(0.5));
       const doy = day - dayNumber(`${date.slice(0, 4)}-01-01`) + 1;
       const tSea = 14 + 4 * Math.cos((2 * Math.PI * (doy - 228)) / 365.25);
       const tRiver = 11 + 7 * Math.cos((2 * Math.PI * (doy - 200)) / 365.25);
@@ -129,6 +174,30 @@ export function buildSamples(rivers: readonly RiverSpec[], flows: Record<string,
     }
   }
   return rows.sort((a, b) => (a.sampled_at < b.sampled_at ? -1 : a.sampled_at > b.sampled_at ? 1 : a.station_id < b.station_id ? -1 : 1));
+}
+
+/**
+ * The river settings the samples are made with: the known values of rivers.ts, in the shape the
+ * engine's calibration code reads (the shape of a stored river's settings).
+ */
+export function knownSettings(river: RiverSpec, mouthLatitude: number): CalibrationRiverSettings {
+  return {
+    mouthLatitude,
+    riverSalinity: river.riverSalinity,
+    riverTemperature: river.riverTemperature,
+    seaSalinity: river.seaSalinity,
+    seaTemperature: river.seaTemperature,
+    mouthWidth: river.mouthWidthM,
+    mouthDepth: river.mouthDepthM,
+    shelfSlope: river.shelfSlope,
+    alongshoreShare: river.alongshoreShare,
+    entrainmentCoefficient: river.entrainmentCoefficient,
+    t90DayHours: river.t90DayHours,
+    t90NightHours: river.t90NightHours,
+    daylightFraction: river.daylightFraction,
+    indicator: river.indicator,
+    nearFieldFreshwaterFraction: river.nearFieldFreshwaterFraction,
+  };
 }
 
 /** Writes an E. coli value as a laboratory would: censored outside the counting range. */

@@ -16,6 +16,8 @@ export const FLOW_YEARS = 35;
 export interface RiverSpec {
   name: 'Amberlin River' | 'Tolley Brook';
   slug: string;
+  /** Catchment area above the mouth [km²] (for the README and sanity; the engine does not use it). */
+  catchmentAreaKm2: number;
   outflowAzimuthDeg: number;
   mouthWidthM: number;
   mouthDepthM: number;
@@ -30,7 +32,10 @@ export interface RiverSpec {
   t90NightHours: number;
   daylightFraction: number;
   alongshoreShare: number;
-  mixingLengthM: number;
+  /** E, the entrainment coefficient of the coastal current (sets the dilution length L_e = (2/3)·H0/(φ0·E), science.md §1.11). */
+  entrainmentCoefficient: number;
+  /** φ0, the share of river water in the water leaving the near field (the samples are made with it). */
+  nearFieldFreshwaterFraction: number;
   gauge: { name: string; code: string };
   flowRecordFile: string;
   /** Options of the flow generator (seeded). */
@@ -47,90 +52,98 @@ export const RIVER_TABLE: readonly RiverSpec[] = [
   {
     name: 'Amberlin River',
     slug: 'amberlin-river',
+    catchmentAreaKm2: 2100,
     outflowAzimuthDeg: 270,
-    mouthWidthM: 450,
-    mouthDepthM: 5,
+    mouthWidthM: 250,
+    mouthDepthM: 4,
     riverSalinity: 0.2,
     riverTemperature: 8,
     seaSalinity: 33.5,
     seaTemperature: 12,
     shelfSlope: 0.004,
-    // 13 × Q^1.2: ~1 800 per 100 mL at a 60 m³/s base flow, ~20 000 at 450 m³/s, ~52 000 at 1 000 m³/s.
-    indicator: { kind: 'power-law', coefficient: 13, exponent: 1.2 },
-    t90DayHours: 8,
-    t90NightHours: 40,
+    // 6 × Q^1.2: ~350 per 100 mL at a 30 m³/s base flow, ~9 000 at 480 m³/s, ~26 000 at 1 100 m³/s.
+    indicator: { kind: 'power-law', coefficient: 6, exponent: 1.2 },
+    // A turbid flood plume in daylight loses its E. coli in a few hours, in the dark in a day or so (science.md §5.2).
+    t90DayHours: 2,
+    t90NightHours: 24,
     daylightFraction: 0.5,
     alongshoreShare: 0.6,
-    mixingLengthM: 25_000,
+    entrainmentCoefficient: 2.5e-5,
+    nearFieldFreshwaterFraction: 0.5,
     gauge: { name: 'Amberlin River at Hollin Ford', code: 'FCSA-G01' },
     flowRecordFile: 'flows/amberlin-river-daily.csv',
     flow: {
       seed: 19901,
       startDate: FLOW_START,
       years: FLOW_YEARS,
-      meanBaseFlow: 60,
+      meanBaseFlow: 20,
       seasonalAmplitude: 0.5,
       peakMonth: 1,
       floodsPerYear: 4,
       floodSeasonality: 0.8,
-      medianFloodPeak: 450,
+      medianFloodPeak: 220,
       peakShapeK: -0.12,
-      recessionDays: 5,
+      // A large lowland catchment: floods take a week or more to pass (8 days above half the peak).
+      recessionDays: 8,
       riseDays: 2,
     },
     inland: [
-      [7.0, 0.0],
-      [7.7, 0.1],
-      [8.4, -0.25],
-      [9.1, 0.05],
-      [9.8, 0.6],
-      [10.6, 0.45],
-      [11.3, 0.95],
-      [12.0, 1.2],
+      [0.0, 0.0],
+      [1.0, 0.15],
+      [2.1, -0.3],
+      [3.3, 0.1],
+      [4.6, 0.7],
+      [6.0, 0.5],
+      [7.4, 1.1],
+      [8.8, 1.4],
+      [10.2, 1.0],
+      [11.5, 1.6],
     ],
   },
   {
     name: 'Tolley Brook',
     slug: 'tolley-brook',
+    catchmentAreaKm2: 210,
     outflowAzimuthDeg: 265,
-    mouthWidthM: 60,
-    mouthDepthM: 2,
+    mouthWidthM: 40,
+    mouthDepthM: 1.5,
     riverSalinity: 0.15,
     riverTemperature: 9,
     seaSalinity: 33.5,
     seaTemperature: 12,
     shelfSlope: 0.006,
-    // 100 × Q^1.2: ~530 per 100 mL at a 4 m³/s base flow, ~9 600 at 45 m³/s, ~25 000 at 100 m³/s.
-    indicator: { kind: 'power-law', coefficient: 100, exponent: 1.2 },
-    t90DayHours: 8,
-    t90NightHours: 40,
+    // 50 × Q^1.2: ~190 per 100 mL at a 3 m³/s base flow, ~6 400 at 57 m³/s, ~20 000 at 150 m³/s.
+    indicator: { kind: 'power-law', coefficient: 50, exponent: 1.2 },
+    t90DayHours: 2,
+    t90NightHours: 24,
     daylightFraction: 0.5,
     alongshoreShare: 0.6,
-    mixingLengthM: 12_000,
+    entrainmentCoefficient: 4e-5,
+    nearFieldFreshwaterFraction: 0.5,
     gauge: { name: 'Tolley Brook at Wenlow Weir', code: 'FCSA-G02' },
     flowRecordFile: 'flows/tolley-brook-daily.csv',
     flow: {
       seed: 19902,
       startDate: FLOW_START,
       years: FLOW_YEARS,
-      meanBaseFlow: 4,
+      meanBaseFlow: 3.2,
       seasonalAmplitude: 0.6,
       peakMonth: 1,
       floodsPerYear: 6,
       floodSeasonality: 0.7,
-      medianFloodPeak: 45,
+      medianFloodPeak: 27,
       peakShapeK: -0.18,
       recessionDays: 1.5,
       riseDays: 1,
     },
     inland: [
-      [0.0, -14.0],
-      [0.7, -13.9],
-      [1.5, -13.6],
-      [2.4, -13.8],
-      [3.3, -13.4],
-      [4.2, -13.1],
-      [5.0, -12.6],
+      [0.0, -30.0],
+      [0.8, -29.9],
+      [1.7, -29.6],
+      [2.7, -29.8],
+      [3.7, -29.4],
+      [4.8, -29.1],
+      [5.8, -28.6],
     ],
   },
 ];

@@ -19,10 +19,11 @@ export interface ZoneSpec {
 
 /** The zones; their trigger flows are set from the generated flow records (see rivers.ts). */
 export const ZONE_TABLE: readonly ZoneSpec[] = [
-  // The inner bay east of a line 2.6 km inside the bay mouth, around the Amberlin mouth.
-  { ZONE_NAME: 'Fennick Bay inner zone', RIVER: 'Amberlin River', box: [2.6, -5, 9, 5], CLOSURE_DAYS: 5 },
-  // A 2-km strip of shore from just north of Tolley Brook's mouth to 6 km north of it.
-  { ZONE_NAME: 'Tolley shore zone', RIVER: 'Tolley Brook', box: [-2.3, -13.8, 2, -7.8], CLOSURE_DAYS: 3 },
+  // Fennick Bay inside a line 1.25 km west of the coast's general line: the growing area
+  // 10–22 km north of (down-coast of) the Amberlin mouth.
+  { ZONE_NAME: 'Fennick Bay inner zone', RIVER: 'Amberlin River', box: [-1.25, 10.2, 4, 21.5], CLOSURE_DAYS: 5 },
+  // A 2.5-km strip of sea along the Tolley shore, from 5 to 11 km north of (down-coast of) the brook's mouth.
+  { ZONE_NAME: 'Tolley shore zone', RIVER: 'Tolley Brook', box: [-2.5, -25, 1, -19], CLOSURE_DAYS: 3 },
 ];
 
 /**

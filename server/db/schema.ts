@@ -31,6 +31,8 @@ export const jurisdictions = pgTable('jurisdictions', {
   /** URL-safe short name, used by the public status page (/status/:slug). */
   slug: text('slug').notNull().unique(),
   name: text('name').notNull(),
+  /** The region's area (issue #15): a lease saved inside it adds its holder to the jurisdiction. */
+  area: geometryColumn('area', 'MultiPolygon'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
@@ -306,9 +308,14 @@ export const coasts = pgTable(
     shared: boolean('shared').notNull().default(false),
     importId: uuid('import_id').references(() => imports.id),
     geom: geometryColumn('geom', 'Geometry').notNull(),
+    /** 'upload' (a user's file), 'traced' (drawn on the map) or 'builtin' (the open world coastline, clipped to `window`). */
+    source: text('source', { enum: ['upload', 'traced', 'builtin'] }).notNull().default('upload'),
+    /** Built-in coasts: the box the world coastline was clipped to, and the sea inside it (to tell land from sea). */
+    window: geometryColumn('window', 'Geometry'),
+    sea: geometryColumn('sea', 'Geometry'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('coasts_geom_idx').using('gist', t.geom)],
+  (t) => [index('coasts_geom_idx').using('gist', t.geom), index('coasts_window_idx').using('gist', t.window)],
 );
 
 export const closureZones = pgTable(

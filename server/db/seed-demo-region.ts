@@ -1,5 +1,5 @@
 /**
- * Loads the invented Fennick Bay region from demo-data/ (idempotent: what exists is left alone):
+ * Loads the invented Fennick coast region from demo-data/ (idempotent: what exists is left alone):
  * the coast, the two rivers with their flow records and scenarios, the four growers' leases,
  * the two closure zones, and a share of the demo grower's leases with the demo adviser.
  * Then it screens every lease under every scenario.
@@ -44,8 +44,8 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
   // The coast, twice: the shoreline (lines) that plumes walk, and the land polygons (mainland
   // and Skerrow Island) that flag leases on land. Both serve the whole jurisdiction.
   for (const [name, file, form] of [
-    ['Fennick Bay shoreline (demo)', 'coast/fennick-shoreline.geojson', 'line'],
-    ['Fennick Bay land (demo)', 'coast/fennick-land.geojson', 'land'],
+    ['Fennick Coast shoreline (demo)', 'coast/fennick-shoreline.geojson', 'line'],
+    ['Fennick Coast land (demo)', 'coast/fennick-land.geojson', 'land'],
   ] as const) {
     const exists = await db.execute(sql`SELECT id FROM coasts WHERE name = ${name} AND jurisdiction_id = ${jurisdiction.id}::uuid`);
     if (exists.rows.length) continue;
@@ -60,6 +60,11 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
 
   // Leases: each grower's from the region's GeoJSON, owned by that grower's account.
   const region = readJson('region.json');
+  // The region's area (issue #15): the demo bay's box, so a lease saved there joins its grower to the region.
+  if (Array.isArray(region.bbox) && region.bbox.length === 4) {
+    const [w, s, e, n] = region.bbox as number[];
+    await db.execute(sql`UPDATE jurisdictions SET area = ST_Multi(ST_MakeEnvelope(${w}, ${s}, ${e}, ${n}, 4326)) WHERE id = ${jurisdiction.id}::uuid AND area IS NULL`);
+  }
   const leases = readJson('leases/fennick-leases.geojson');
   const growerByName = new Map<string, CurrentUser>();
   for (const g of region.growers as { name: string; email: string }[]) growerByName.set(g.name, await userByEmail(db, g.email));
@@ -152,8 +157,8 @@ export async function seedDemoRegion(db: Database, log: (msg: string) => void = 
       daylightFraction: r.daylightFraction,
       indicator: r.indicator,
       alongshoreShare: r.alongshoreShare,
-      // Demo value (invented): near-field mixing halves the river water's share at the mouth.
-      nearFieldFreshwaterFraction: 0.5,
+      // The known value the demo samples were made with (demo-data/README.md).
+      nearFieldFreshwaterFraction: r.nearFieldFreshwaterFraction,
       gaugeName: r.gauge.name,
       gaugeCode: r.gauge.code,
     });

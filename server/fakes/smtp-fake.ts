@@ -4,7 +4,7 @@
  */
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
-import type { Database } from '../db/client';
+import { type Database, isDatabaseUnavailable } from '../db/client';
 import { outboxMessages } from '../db/schema';
 import { logger } from '../lib/logger';
 
@@ -38,8 +38,11 @@ export async function startSmtpFake(db: Database, port: number, host = '127.0.0.
           });
           callback();
         } catch (err) {
-          logger.error({ err }, 'smtp fake could not store a message');
-          callback(err as Error);
+          // A database outage is temporary: 451 tells the sender to try again later (RFC 5321 §4.2.5),
+          // so alert e-mails are retried rather than lost. The error never reaches the process.
+          const temporary = isDatabaseUnavailable(err);
+          logger[temporary ? 'warn' : 'error']({ err }, 'smtp fake could not store a message');
+          callback(Object.assign(new Error(temporary ? 'Mailbox store unavailable, try again later' : (err as Error).message), { responseCode: temporary ? 451 : 554 }));
         }
       });
     },

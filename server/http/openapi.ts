@@ -8,6 +8,11 @@ export function createRegistry(): OpenAPIRegistry {
     name: 'authjs.session-token',
     description: 'The Auth.js session cookie set by POST /auth/callback/credentials or a sign-in link.',
   });
+  registry.registerComponent('securitySchemes', 'gaugeToken', {
+    type: 'http',
+    scheme: 'bearer',
+    description: "A gauge's upload token (Authorization: Bearer <token>), issued by POST /api/v1/gauges/{id}/token.",
+  });
   return registry;
 }
 

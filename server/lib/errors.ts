@@ -60,3 +60,15 @@ export class TooManyRequestsError extends AppError {
     super(429, 'too_many_requests', message);
   }
 }
+/** PostgreSQL is unreachable (restarting, failing over): the request may be repeated after Retry-After seconds. */
+export class DatabaseUnavailableError extends AppError {
+  readonly retryAfterSeconds: number;
+  constructor(retryAfterSeconds = 5) {
+    super(
+      503,
+      'database_unavailable',
+      `The database is not reachable just now (it may be restarting). Try again in ${retryAfterSeconds} seconds.`,
+    );
+    this.retryAfterSeconds = retryAfterSeconds;
+  }
+}

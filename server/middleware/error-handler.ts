@@ -1,10 +1,19 @@
 import type { ErrorRequestHandler } from 'express';
-import { AppError } from '../lib/errors';
+import { isDatabaseUnavailable } from '../db/client';
+import { AppError, DatabaseUnavailableError } from '../lib/errors';
 import { logger } from '../lib/logger';
 
 /** The one place that maps errors to HTTP: `{ error: { code, message, details? } }`. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (res.headersSent) return;
+  // A database outage is not the client's fault nor a bug: 503 with Retry-After, so clients and load balancers wait and retry.
+  if (err instanceof DatabaseUnavailableError || (!(err instanceof AppError) && isDatabaseUnavailable(err))) {
+    const e = err instanceof DatabaseUnavailableError ? err : new DatabaseUnavailableError();
+    logger.warn({ url: req.originalUrl }, 'database unavailable');
+    res.set('Retry-After', String(e.retryAfterSeconds));
+    res.status(503).json({ error: { code: e.code, message: e.message } });
+    return;
+  }
   if (err instanceof AppError) {
     res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) } });
     return;

@@ -16,6 +16,7 @@ export function registerAccountRoutes(ctx: RouteContext, accounts: AccountsServi
   defineRoute(ctx, {
     method: 'post',
     path: '/account/sign-up',
+    operationId: 'signUp',
     summary: 'Create a grower account',
     tags: ['account'],
     access: { public: true },
@@ -29,6 +30,7 @@ export function registerAccountRoutes(ctx: RouteContext, accounts: AccountsServi
   defineRoute(ctx, {
     method: 'post',
     path: '/account/password-reset',
+    operationId: 'requestPasswordReset',
     summary: 'E-mail a password reset link (same answer whether or not the account exists)',
     tags: ['account'],
     access: { public: true },
@@ -45,6 +47,7 @@ export function registerAccountRoutes(ctx: RouteContext, accounts: AccountsServi
   defineRoute(ctx, {
     method: 'post',
     path: '/account/password-reset/confirm',
+    operationId: 'confirmPasswordReset',
     summary: 'Set a new password with the e-mailed token; ends all existing sessions',
     tags: ['account'],
     access: { public: true },
@@ -59,6 +62,7 @@ export function registerAccountRoutes(ctx: RouteContext, accounts: AccountsServi
   defineRoute(ctx, {
     method: 'get',
     path: '/account/me',
+    operationId: 'getMe',
     summary: 'The signed-in user',
     tags: ['account'],
     access: { roles: 'any' },
@@ -69,9 +73,11 @@ export function registerAccountRoutes(ctx: RouteContext, accounts: AccountsServi
   defineRoute(ctx, {
     method: 'post',
     path: '/account/sign-out-everywhere',
+    operationId: 'signOutEverywhere',
     summary: 'End every session of the signed-in user, on every device',
     tags: ['account'],
     access: { roles: 'any' },
+    response: z.object({ message: z.string() }),
     handler: async ({ user }) => {
       await accounts.signOutEverywhere(user!.id);
       return { message: 'Signed out on every device.' };

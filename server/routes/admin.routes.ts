@@ -59,6 +59,7 @@ export function registerAdminRoutes(ctx: RouteContext, db: Database, accounts: A
     tags: ['admin'],
     access: { roles: ['admin'] },
     params: idParams,
+    response: z.object({ message: z.string() }),
     body: z.strictObject({
       role: z.enum(ROLES, { error: `role must be one of ${ROLES.join(', ')}` }),
       jurisdictionId: z.uuid({ error: 'jurisdictionId must be a UUID' }).nullable().optional(),
@@ -86,6 +87,7 @@ export function registerAdminRoutes(ctx: RouteContext, db: Database, accounts: A
   defineRoute(ctx, {
     method: 'get',
     path: '/admin/outbox',
+    operationId: 'listOutboxMessages',
     summary: 'Messages received by the local e-mail fake (development)',
     tags: ['admin'],
     access: { roles: ['admin'] },
@@ -109,6 +111,7 @@ export function registerAdminRoutes(ctx: RouteContext, db: Database, accounts: A
   defineRoute(ctx, {
     method: 'get',
     path: '/admin/outbox/:id',
+    operationId: 'getOutboxMessage',
     summary: 'One message from the local e-mail fake',
     tags: ['admin'],
     access: { roles: ['admin'] },
@@ -132,10 +135,26 @@ export function registerAdminRoutes(ctx: RouteContext, db: Database, accounts: A
   defineRoute(ctx, {
     method: 'get',
     path: '/admin/audit',
+    operationId: 'listAdminAuditEntries',
     summary: 'The audit log, newest first',
     tags: ['admin'],
     access: { roles: ['admin'] },
     query: paging,
+    response: z.object({
+      items: z.array(
+        z.object({
+          id: z.string(),
+          at: z.string().describe('ISO 8601'),
+          actorId: z.string().nullable(),
+          action: z.string().describe('e.g. river.update, notice.issue'),
+          subjectType: z.string(),
+          subjectId: z.string().nullable(),
+          jurisdictionId: z.string().nullable(),
+          before: z.record(z.string(), z.unknown()).nullable().describe('The changed values before (JSON object), when recorded'),
+          after: z.record(z.string(), z.unknown()).nullable().describe('The changed values after (JSON object), when recorded'),
+        }),
+      ),
+    }),
     handler: async ({ query }) => {
       const rows = await db.select().from(auditEntries).orderBy(desc(auditEntries.at)).limit(query.limit).offset(query.offset);
       return { items: rows.map((r) => ({ ...r, at: r.at.toISOString() })) };

@@ -56,6 +56,7 @@ export function registerAlertRoutes(ctx: RouteContext, alerts: AlertsService): v
     tags: ['alerts'],
     access: { roles: ALERT_ROLES },
     params: idParams,
+    response: null,
     errors: [404],
     handler: async ({ user, params }) => {
       await alerts.deleteRule(user!, params.id);
@@ -66,6 +67,7 @@ export function registerAlertRoutes(ctx: RouteContext, alerts: AlertsService): v
   defineRoute(ctx, {
     method: 'post',
     path: '/alert-rules/:id/forecast',
+    operationId: 'checkAlertRuleForecast',
     summary: 'Check a forecast flow against a rule: alerts now (once per flow) if it reaches the rule’s flow',
     tags: ['alerts'],
     access: { roles: ALERT_ROLES },

@@ -1,6 +1,7 @@
 import express, { type Express } from 'express';
+import { z } from 'zod';
 import { redirectSchema, subscriptionStateSchema, webhookAckSchema } from '#shared/schemas/billing';
-import { defineRoute, type RouteContext } from '../http/route';
+import { defineRoute, documentRoute, type RouteContext } from '../http/route';
 import type { BillingService } from '../services/billing.service';
 
 const PAYING_ROLES = ['grower', 'adviser', 'regulator'] as const;
@@ -9,6 +10,7 @@ export function registerBillingRoutes(ctx: RouteContext, billing: BillingService
   defineRoute(ctx, {
     method: 'get',
     path: '/billing/subscription',
+    operationId: 'getSubscription',
     summary: 'Your plan: Free (screening and reports) or Alerts, and the subscription status',
     tags: ['billing'],
     access: { roles: PAYING_ROLES },
@@ -19,6 +21,7 @@ export function registerBillingRoutes(ctx: RouteContext, billing: BillingService
   defineRoute(ctx, {
     method: 'post',
     path: '/billing/checkout',
+    operationId: 'startCheckout',
     summary: 'Start paying for the Alerts plan: returns the payment page to send the browser to',
     tags: ['billing'],
     access: { roles: PAYING_ROLES },
@@ -30,6 +33,7 @@ export function registerBillingRoutes(ctx: RouteContext, billing: BillingService
   defineRoute(ctx, {
     method: 'post',
     path: '/billing/portal',
+    operationId: 'openBillingPortal',
     summary: 'Manage or cancel the plan: returns the billing page to send the browser to',
     tags: ['billing'],
     access: { roles: PAYING_ROLES },
@@ -45,15 +49,20 @@ export function registerBillingRoutes(ctx: RouteContext, billing: BillingService
  */
 export function mountBillingWebhook(app: Express, ctx: RouteContext, billing: BillingService): void {
   const path = `${ctx.basePath}/billing/webhook`;
-  ctx.registry.registerPath({
+  documentRoute(ctx, {
     method: 'post',
-    path,
+    path: '/billing/webhook',
+    operationId: 'receiveBillingWebhook',
     summary: 'Payment service events (signed with the webhook secret; each event id is processed once)',
     tags: ['billing'],
-    responses: {
-      200: { description: 'Received', content: { 'application/json': { schema: webhookAckSchema } } },
-      400: { description: 'Signature missing, forged, tampered or too old' },
+    // Open: the payment service proves itself with the Stripe-Signature header, checked on the raw body.
+    access: { public: true },
+    requestContent: {
+      'application/json': z
+        .looseObject({ id: z.string(), type: z.string().describe('e.g. checkout.session.completed'), data: z.looseObject({ object: z.looseObject({}) }) })
+        .describe('A payment service event, verified with its Stripe-Signature header before it is read'),
     },
+    response: webhookAckSchema,
   });
   app.post(path, express.raw({ type: '*/*', limit: '1mb' }), async (req, res, next) => {
     try {

@@ -3,27 +3,19 @@ import { z } from 'zod';
 import { annualMaxima } from '#shared/hydrology/annual-maxima';
 import { fitFloodFrequency } from '#shared/hydrology/flood-frequency';
 import { parseFlowRecord } from '#shared/hydrology/parse-flow-record';
-import { floodFrequencyRequestSchema } from '#shared/schemas/flood-frequency';
+import { floodFrequencyRequestSchema, floodFrequencyResultSchema } from '#shared/schemas/flood-frequency';
 import { flowRecordQuerySchema } from '#shared/schemas/flow-record';
+import { annualPeakSchema, flowRecordGapSchema, flowRecordProblemSchema } from '#shared/schemas/river';
 import { defineRoute, type RouteContext } from '../http/route';
 import { UnsupportedMediaTypeError } from '../lib/errors';
 import { engineCall } from './engine-call';
 
-const quantile = z.object({ aep: z.number(), discharge: z.number(), lower: z.number().optional(), upper: z.number().optional() });
-const floodFrequencyResponse = z.looseObject({
-  n: z.number(),
-  gev: z.looseObject({ location: z.number(), scale: z.number(), shape: z.number().describe("Hosking's k"), quantiles: z.array(quantile) }),
-  lp3: z.looseObject({ mean: z.number(), stdDev: z.number(), skew: z.number(), quantiles: z.array(quantile) }),
-  gumbel: z.looseObject({ location: z.number(), scale: z.number(), quantiles: z.array(quantile) }),
-  warnings: z.array(z.string()),
-});
-
 const flowRecordResponse = z.object({
-  rows: z.number(),
-  problems: z.array(z.object({ row: z.number(), value: z.string(), reason: z.string() })),
-  annualPeaks: z.array(z.object({ waterYear: z.number(), discharge: z.number(), date: z.string() })),
-  gaps: z.array(z.unknown()).optional(),
-  interval: z.string().optional(),
+  rows: z.number().int(),
+  problems: z.array(flowRecordProblemSchema),
+  annualPeaks: z.array(annualPeakSchema.pick({ waterYear: true, discharge: true, date: true, complete: true, daysOfData: true })),
+  gaps: z.array(flowRecordGapSchema),
+  interval: z.enum(['daily', 'sub-daily']),
 });
 
 /** Flood-frequency and flow-record calculators (stateless, no sign-in). */
@@ -31,11 +23,12 @@ export function registerHydrologyCalcRoutes(ctx: RouteContext): void {
   defineRoute(ctx, {
     method: 'post',
     path: '/calc/flood-frequency',
+    operationId: 'calculateFloodFrequency',
     summary: 'GEV (L-moments), log-Pearson III and Gumbel fits of annual peaks, with quantiles per annual exceedance probability',
     tags: ['calculator'],
     access: { public: true },
     body: floodFrequencyRequestSchema,
-    response: floodFrequencyResponse,
+    response: floodFrequencyResultSchema,
     errors: [422, 429],
     handler: ({ body }) => engineCall(() => fitFloodFrequency(body)),
   });
@@ -43,6 +36,7 @@ export function registerHydrologyCalcRoutes(ctx: RouteContext): void {
   defineRoute(ctx, {
     method: 'post',
     path: '/calc/flow-record',
+    operationId: 'readFlowRecord',
     summary: 'Read a gauge record (CSV: date or date-time, discharge) and return its row problems and annual peaks',
     tags: ['calculator'],
     access: { public: true },

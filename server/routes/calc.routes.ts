@@ -5,7 +5,7 @@
 import { coriolisParameter } from '#shared/physics/coriolis';
 import { computePlume } from '#shared/physics/compute-plume';
 import { seawaterDensity } from '#shared/physics/eos80';
-import { PlumeRequestSchema, PlumeResponseSchema } from '#shared/schemas/plume';
+import { PlumeRequestSchema, plumeResultSchema } from '#shared/schemas/plume';
 import { WaterRequestSchema, WaterResponseSchema } from '#shared/schemas/water';
 import { defineRoute, type RouteContext } from '../http/route';
 import { registerHydrologyCalcRoutes } from './calc-hydrology.routes';
@@ -15,6 +15,7 @@ export function registerCalcRoutes(ctx: RouteContext): void {
   defineRoute(ctx, {
     method: 'post',
     path: '/calc/water',
+    operationId: 'calculateWater',
     summary: 'Density of water (UNESCO EOS-80) and, with a latitude, the Coriolis parameter',
     tags: ['calculator'],
     access: { public: true },
@@ -30,11 +31,12 @@ export function registerCalcRoutes(ctx: RouteContext): void {
   defineRoute(ctx, {
     method: 'post',
     path: '/calc/plume',
+    operationId: 'calculatePlume',
     summary: 'Rotating river plume for one river and one flow: regime, bulge, coastal current, reach',
     tags: ['calculator'],
     access: { public: true },
     body: PlumeRequestSchema,
-    response: PlumeResponseSchema,
+    response: plumeResultSchema,
     errors: [429],
     handler: ({ body }) => engineCall(() => computePlume(body)),
   });

@@ -32,10 +32,12 @@ export function registerClientRoutes(ctx: RouteContext, clients: ClientsService)
   defineRoute(ctx, {
     method: 'delete',
     path: '/clients/invitations/:id',
+    operationId: 'cancelClientInvitation',
     summary: 'Cancel an invitation that is still waiting (the adviser who sent it)',
     tags: ['clients'],
     access: { roles: ['adviser'] },
     params: idParams,
+    response: null,
     errors: [404, 409],
     handler: async ({ user, params }) => {
       await clients.cancel(user!, params.id);
@@ -56,6 +58,7 @@ export function registerClientRoutes(ctx: RouteContext, clients: ClientsService)
   defineRoute(ctx, {
     method: 'post',
     path: '/advisers/:id/accept',
+    operationId: 'acceptAdviserInvitation',
     summary: 'Accept an adviser’s invitation and share the chosen leases (may be none yet)',
     tags: ['clients'],
     access: { roles: ['grower'] },
@@ -69,10 +72,12 @@ export function registerClientRoutes(ctx: RouteContext, clients: ClientsService)
   defineRoute(ctx, {
     method: 'post',
     path: '/advisers/:id/decline',
+    operationId: 'declineAdviserInvitation',
     summary: 'Decline an adviser’s invitation',
     tags: ['clients'],
     access: { roles: ['grower'] },
     params: idParams,
+    response: null,
     errors: [404, 409],
     handler: async ({ user, params }) => {
       await clients.decline(user!, params.id);
@@ -83,6 +88,7 @@ export function registerClientRoutes(ctx: RouteContext, clients: ClientsService)
   defineRoute(ctx, {
     method: 'put',
     path: '/advisers/:id/leases',
+    operationId: 'setAdviserLeases',
     summary: 'Choose exactly which of your leases this adviser sees (the others stop being shared with them)',
     tags: ['clients'],
     access: { roles: ['grower'] },
@@ -96,10 +102,12 @@ export function registerClientRoutes(ctx: RouteContext, clients: ClientsService)
   defineRoute(ctx, {
     method: 'delete',
     path: '/advisers/:id',
+    operationId: 'endAdviser',
     summary: 'Stop working with an adviser: they stop seeing every lease you shared with them',
     tags: ['clients'],
     access: { roles: ['grower'] },
     params: idParams,
+    response: null,
     errors: [404, 409],
     handler: async ({ user, params }) => {
       await clients.end(user!, params.id);

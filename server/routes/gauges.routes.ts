@@ -1,6 +1,13 @@
 import express from 'express';
 import { z } from 'zod';
-import { gaugeListSchema, gaugeTokenSchema, readingListQuerySchema, readingListSchema, readingsResultSchema } from '#shared/schemas/gauges';
+import {
+  gaugeListSchema,
+  gaugeTokenSchema,
+  readingListQuerySchema,
+  readingListSchema,
+  readingsPostSchema,
+  readingsResultSchema,
+} from '#shared/schemas/gauges';
 import { defineRoute, type RouteContext } from '../http/route';
 import type { GaugesService } from '../services/gauges.service';
 
@@ -33,12 +40,19 @@ export function registerGaugeRoutes(ctx: RouteContext, gauges: GaugesService): v
   defineRoute(ctx, {
     method: 'post',
     path: '/gauges/:id/readings',
+    operationId: 'postGaugeReadings',
     summary:
       "Post readings with the gauge's upload token (Authorization: Bearer <token>): JSON { readings: [{ observedAt, discharge }] } or a CSV (Content-Type: text/csv) with columns observedAt,discharge (m³/s). Repeated times are skipped; each new reading is checked against the alert rules.",
     tags: ['gauges'],
     // Authenticated by the gauge's own token (its uploader has no account), checked in the service.
     access: { public: true },
+    security: [{ gaugeToken: [] }],
     params: idParams,
+    // Validated by the service after the token check, so a caller without the token learns nothing about the body.
+    requestContent: {
+      'application/json': readingsPostSchema,
+      'text/csv': z.string().describe('CSV with a header row observedAt,discharge (ISO 8601 instant, m³/s)'),
+    },
     response: readingsResultSchema,
     successStatus: 201,
     errors: [401, 404],
@@ -49,6 +63,7 @@ export function registerGaugeRoutes(ctx: RouteContext, gauges: GaugesService): v
   defineRoute(ctx, {
     method: 'post',
     path: '/gauges/:id/token',
+    operationId: 'issueGaugeToken',
     summary: 'Issue a new upload token for a gauge (shown once; the previous one stops working)',
     tags: ['gauges'],
     access: { roles: ['admin', 'regulator'] },

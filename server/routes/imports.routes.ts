@@ -3,10 +3,17 @@ import multer from 'multer';
 import { z } from 'zod';
 import { searchCrs } from '#shared/geometry/crs-catalogue';
 import { formatBytes } from '#shared/geometry/upload-limits';
-import { importConfirmBodySchema, importCrsBodySchema, importResponseSchema, uploadKindSchema } from '#shared/schemas/upload';
+import {
+  importConfirmBodySchema,
+  importCrsBodySchema,
+  importLayerBodySchema,
+  importPreviewSchema,
+  importResponseSchema,
+  uploadKindSchema,
+} from '#shared/schemas/upload';
 import { previewImportFeatures } from '../db/repositories/import-features.repo';
 import type { Database } from '../db/client';
-import { defineRoute, type RouteContext } from '../http/route';
+import { defineRoute, type RouteContext, uploadedFile } from '../http/route';
 import { AppError, ValidationError } from '../lib/errors';
 import type { ImportsService } from '../services/imports.service';
 
@@ -53,21 +60,46 @@ export function registerImportRoutes(ctx: RouteContext, db: Database, imports: I
   defineRoute(ctx, {
     method: 'post',
     path: '/imports',
-    summary: 'Upload a zipped shapefile or a GeoJSON FeatureCollection of leases, a coastline or closure zones; returns the preview',
+    operationId: 'uploadImport',
+    summary: 'Upload leases, a coastline or closure zones (zipped shapefile, GeoJSON, KML/KMZ, GPX or GeoPackage); returns the preview',
     tags: ['imports'],
     access: { roles: UPLOADERS },
     middleware: [multipartFile(maxBytes)],
     bodyContentType: 'multipart/form-data',
-    body: z.object({ kind: uploadKindSchema, file: z.any().optional().describe('The file (.zip or .geojson)') }),
+    body: z.object({
+      kind: uploadKindSchema,
+      file: uploadedFile('The file (.zip shapefile, .geojson, .kml, .kmz, .gpx or .gpkg)'),
+      layer: z.string().min(1).max(500).optional().describe('Read only this layer (a KML folder path, GeoPackage table or shapefile basename)'),
+      tracksAsPolygons: z
+        .enum(['true', 'false'], { error: "tracksAsPolygons must be 'true' or 'false'" })
+        .optional()
+        .describe("'true' when the user confirms that each GPX track or route walks round one area (lease and zone uploads)"),
+    }),
     response: importResponseSchema,
     successStatus: 201,
     errors: [413, 415, 422],
-    handler: ({ user, body, req }) => imports.create(user!, body.kind, req.file!),
+    handler: ({ user, body, req }) =>
+      imports.create(user!, body.kind, req.file!, { ...(body.layer ? { layer: body.layer } : {}), tracksAsPolygons: body.tracksAsPolygons === 'true' }),
+  });
+
+  defineRoute(ctx, {
+    method: 'post',
+    path: '/imports/:id/layer',
+    operationId: 'chooseImportLayer',
+    summary: 'Pick one layer of an upload holding several (KML folders, GeoPackage tables, shapefiles in a zip), or null for all; returns the new preview',
+    tags: ['imports'],
+    access: { roles: UPLOADERS },
+    params: idParams,
+    body: importLayerBodySchema,
+    response: importResponseSchema,
+    errors: [404, 409, 422],
+    handler: ({ user, params, body }) => imports.pickLayer(user!, params.id, body.layer),
   });
 
   defineRoute(ctx, {
     method: 'post',
     path: '/imports/:id/crs',
+    operationId: 'setImportCrs',
     summary: "Choose the coordinate system (EPSG code) of an upload whose .prj was missing or unreadable",
     tags: ['imports'],
     access: { roles: UPLOADERS },
@@ -97,6 +129,7 @@ export function registerImportRoutes(ctx: RouteContext, db: Database, imports: I
     tags: ['imports'],
     access: { roles: UPLOADERS },
     params: idParams,
+    response: importPreviewSchema,
     errors: [404],
     handler: async ({ user, params }) => {
       await imports.get(user!, params.id);
@@ -120,6 +153,7 @@ export function registerImportRoutes(ctx: RouteContext, db: Database, imports: I
   defineRoute(ctx, {
     method: 'get',
     path: '/crs',
+    operationId: 'searchCrs',
     summary: 'Search coordinate systems by name or EPSG code (for uploads without a usable .prj)',
     tags: ['imports'],
     access: { roles: 'any' },

@@ -11,6 +11,7 @@ export function registerInboxRoutes(ctx: RouteContext, inbox: InboxService): voi
   defineRoute(ctx, {
     method: 'get',
     path: '/inbox',
+    operationId: 'listInboxMessages',
     summary: 'Your in-app messages (closure notices, alerts, invitations, notes), newest first',
     tags: ['inbox'],
     access: { roles: 'any' },
@@ -36,10 +37,12 @@ export function registerInboxRoutes(ctx: RouteContext, inbox: InboxService): voi
   defineRoute(ctx, {
     method: 'post',
     path: '/inbox/:id/read',
+    operationId: 'markInboxMessageRead',
     summary: 'Mark one of your messages read',
     tags: ['inbox'],
     access: { roles: 'any' },
     params: idParams,
+    response: null,
     errors: [404],
     handler: async ({ user, params }) => {
       if (!(await inbox.markRead(user!.id, params.id)))

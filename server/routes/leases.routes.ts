@@ -1,6 +1,16 @@
 import { z } from 'zod';
-import { leaseExportQuerySchema, leaseListQuerySchema, leaseListSchema, leaseSchema, leaseUpdateSchema } from '#shared/schemas/lease';
+import {
+  LEASE_EXPORT_CSV_COLUMNS,
+  leaseExportCsvSchema,
+  leaseExportGeoJsonSchema,
+  leaseExportQuerySchema,
+  leaseListQuerySchema,
+  leaseListSchema,
+  leaseSchema,
+  leaseUpdateSchema,
+} from '#shared/schemas/lease';
 import { defineRoute, type RouteContext } from '../http/route';
+import { exportResponse, leasesLayer, sendExport } from '../services/exports.service';
 import { type LeasesService, toCsv } from '../services/leases.service';
 
 const LEASE_READERS = ['grower', 'adviser', 'regulator'] as const;
@@ -22,13 +32,20 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
   defineRoute(ctx, {
     method: 'get',
     path: '/leases/export',
-    summary: 'Export the leases you may see as CSV (attributes and areas) or GeoJSON',
+    operationId: 'exportLeases',
+    summary:
+      'Export the leases you may see as CSV (attributes, areas and the yearly rating with its two figures), GeoJSON, GeoPackage (with a readme table) or KML (with the model version and the cautions)',
     tags: ['leases'],
     access: { roles: LEASE_READERS },
     query: leaseExportQuerySchema,
+    response: exportResponse('The leases', leaseExportCsvSchema, leaseExportGeoJsonSchema),
     handler: async ({ user, query, res }) => {
       const rows = await leases.exportRows(user!, query.status);
       const stamp = new Date().toISOString().slice(0, 10);
+      if (query.format === 'gpkg' || query.format === 'kml') {
+        await sendExport(res, leasesLayer(rows), query.format, `brackline-leases-${stamp}`, 'Lease id');
+        return undefined;
+      }
       if (query.format === 'geojson') {
         res.setHeader('Content-Type', 'application/geo+json');
         res.setHeader('Content-Disposition', `attachment; filename="brackline-leases-${stamp}.geojson"`);
@@ -44,8 +61,22 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
       res.setHeader('Content-Disposition', `attachment; filename="brackline-leases-${stamp}.csv"`);
       res.send(
         toCsv(
-          ['id', 'lease_id', 'holder', 'species', 'status', 'area_m2', 'area_ha', 'on_land', 'owner', 'created_at'],
-          rows.map((l) => [l.id, l.leaseId, l.holder, l.species, l.status, Math.round(l.areaM2 * 100) / 100, Math.round(l.areaM2 / 100) / 100, l.onLand, l.ownerName, l.createdAt]),
+          [...LEASE_EXPORT_CSV_COLUMNS],
+          rows.map((l) => [
+            l.id,
+            l.leaseId,
+            l.holder,
+            l.species,
+            l.status,
+            Math.round(l.areaM2 * 100) / 100,
+            Math.round(l.areaM2 / 100) / 100,
+            l.onLand,
+            l.ownerName,
+            l.createdAt,
+            l.annualRating ?? null,
+            l.closureDaysPerYear === null ? null : Math.round(l.closureDaysPerYear * 100) / 100,
+            l.harmfulSalinityChancePerYear === null ? null : Math.round(l.harmfulSalinityChancePerYear * 10_000) / 10_000,
+          ]),
         ),
       );
       return undefined;
@@ -84,6 +115,7 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
     tags: ['leases'],
     access: { roles: ['grower', 'adviser', 'regulator'] },
     params: idParams,
+    response: null,
     errors: [404],
     handler: async ({ user, params }) => {
       await leases.remove(user!, params.id);

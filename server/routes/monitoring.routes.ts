@@ -14,8 +14,10 @@ import {
   stationUploadResultSchema,
 } from '#shared/schemas/monitoring';
 import { formatBytes } from '#shared/geometry/upload-limits';
-import { defineRoute, type RouteContext } from '../http/route';
+import { exportFormatSchema, layerExportCsvSchema, layerExportGeoJsonSchema } from '#shared/schemas/exports';
+import { defineRoute, type RouteContext, uploadedFile } from '../http/route';
 import { AppError, ValidationError } from '../lib/errors';
+import { exportResponse, sendExport, stationsLayer } from '../services/exports.service';
 import type { MonitoringService } from '../services/monitoring.service';
 
 /** Who uploads monitoring data: growers, advisers and regulators (admins manage accounts, not data). */
@@ -73,16 +75,33 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   });
 
   defineRoute(ctx, {
+    method: 'get',
+    path: '/stations/export',
+    operationId: 'exportStations',
+    summary: 'Download the monitoring stations you can see as CSV, GeoJSON, GeoPackage (readme table) or KML (document description)',
+    tags: ['monitoring'],
+    access: { roles: CALIBRATORS },
+    query: z.strictObject({ format: exportFormatSchema }),
+    response: exportResponse('The monitoring stations', layerExportCsvSchema, layerExportGeoJsonSchema),
+    handler: async ({ user, query, res }) => {
+      const items = await monitoring.listStations(user!);
+      await sendExport(res, stationsLayer(items), query.format, `brackline-stations-${new Date().toISOString().slice(0, 10)}`, 'Station');
+      return undefined;
+    },
+  });
+
+  defineRoute(ctx, {
     method: 'post',
     path: '/stations',
+    operationId: 'uploadStations',
     summary:
-      'Upload monitoring stations (points): a zipped shapefile, GeoJSON, or CSV with a code and lon/lat (or x/y with epsg). Same codes are updated.',
+      'Upload monitoring stations (points): a zipped shapefile, GeoJSON, KML/KMZ (pins), GPX (waypoints), GeoPackage, or CSV with a code and lon/lat (or x/y with epsg). Same codes are updated.',
     tags: ['monitoring'],
     access: { roles: UPLOADERS },
     middleware: [oneFile('stations')],
     bodyContentType: 'multipart/form-data',
     body: z.object({
-      file: z.any().optional().describe('The file (.zip, .geojson or .csv)'),
+      file: uploadedFile('The file (.zip, .geojson, .csv, .kml, .kmz, .gpx or .gpkg)'),
       epsg: z.coerce
         .number({ error: 'epsg must be an EPSG code such as 32624' })
         .int({ error: 'epsg must be a whole EPSG code' })
@@ -110,13 +129,14 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'post',
     path: '/samples',
+    operationId: 'uploadSamples',
     summary:
       'Upload samples (CSV: station, date-time, salinity, indicator with unit and method, optional temperature); detection limits such as <2 or >1600 are kept as censored values. Same station and time are updated.',
     tags: ['monitoring'],
     access: { roles: UPLOADERS },
     middleware: [oneFile('samples')],
     bodyContentType: 'multipart/form-data',
-    body: z.object({ file: z.any().optional().describe('The CSV file') }),
+    body: z.object({ file: uploadedFile('The CSV file') }),
     response: sampleUploadResultSchema,
     successStatus: 201,
     errors: [413, 415, 422],
@@ -126,6 +146,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'get',
     path: '/rivers/:id/comparison',
+    operationId: 'getRiverComparison',
     summary:
       "The river's plume against the samples in it: observed and predicted salinity and indicator, residuals, bias, RMSE and skill; samples outside every plume listed apart",
     tags: ['monitoring'],
@@ -152,6 +173,7 @@ export function registerMonitoringRoutes(ctx: RouteContext, monitoring: Monitori
   defineRoute(ctx, {
     method: 'post',
     path: '/rivers/:id/calibrations',
+    operationId: 'fitCalibration',
     summary:
       'Fit the mixing length and T90 (optionally the alongshore share and near-field fraction) to the samples in the plume; the river is not changed until applied',
     tags: ['monitoring'],

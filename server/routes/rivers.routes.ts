@@ -1,12 +1,17 @@
 import express from 'express';
 import { z } from 'zod';
 import {
+  flowRecordSchema,
   flowRecordUploadQuerySchema,
+  flowRecordUploadResultSchema,
+  hydrographSchema,
   riverCreateSchema,
   riverSchema,
   riverUpdateSchema,
   scenarioCreateSchema,
+  scenarioPlumeSchema,
   scenarioSchema,
+  screeningRunStartedSchema,
   scenarioUpdateSchema,
 } from '#shared/schemas/river';
 import { defineRoute, type RouteContext } from '../http/route';
@@ -17,6 +22,9 @@ import type { RiversService } from '../services/rivers.service';
 const READERS = ['grower', 'adviser', 'regulator'] as const;
 const idParams = z.object({ id: z.uuid({ error: 'id must be a river id (UUID)' }) });
 const scenarioParams = z.object({ id: z.uuid({ error: 'id must be a scenario id (UUID)' }) });
+
+/** Media types a gauge record may be sent as. */
+const FLOW_RECORD_TYPES = ['text/csv', 'text/plain', 'text/tab-separated-values', 'application/xml', 'text/xml', 'application/waterml+xml'];
 
 export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jobs: ScreeningJobs): void {
   defineRoute(ctx, {
@@ -69,18 +77,23 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
   defineRoute(ctx, {
     method: 'post',
     path: '/rivers/:id/flow-records',
-    summary: 'Upload the gauge record (CSV: date or date-time, discharge): fits flood frequency and makes the scenarios',
+    operationId: 'uploadFlowRecord',
+    summary:
+      'Upload the gauge record (CSV or tab-separated with # comments and several columns, or WaterML 2.0): fits flood frequency and makes the scenarios',
     tags: ['rivers'],
     access: { roles: READERS },
-    middleware: [express.text({ type: ['text/csv', 'text/plain'], limit: '50mb' })],
+    middleware: [express.text({ type: FLOW_RECORD_TYPES, limit: '50mb' })],
     bodyContentType: 'text/csv',
     params: idParams,
     query: flowRecordUploadQuerySchema,
-    body: z.string({ error: 'Send the record as the request body with Content-Type: text/csv' }),
+    body: z.string({ error: 'Send the record as the request body with Content-Type: text/csv (or application/xml for WaterML 2.0)' }),
+    response: flowRecordUploadResultSchema,
     errors: [404, 415, 422],
     successStatus: 201,
     handler: async ({ user, params, query, body, req }) => {
-      if (!req.is(['text/csv', 'text/plain'])) throw new UnsupportedMediaTypeError('Send the gauge record as CSV text with the header Content-Type: text/csv.');
+      if (!req.is(FLOW_RECORD_TYPES)) {
+        throw new UnsupportedMediaTypeError('Send the gauge record as text with the header Content-Type: text/csv (CSV) or application/xml (WaterML 2.0).');
+      }
       const fileName = typeof req.headers['x-file-name'] === 'string' ? req.headers['x-file-name'] : undefined;
       return rivers.uploadFlowRecord(user!, params.id, body, { ...query, fileName });
     },
@@ -89,10 +102,12 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
   defineRoute(ctx, {
     method: 'get',
     path: '/rivers/:id/flow-records',
+    operationId: 'getFlowRecord',
     summary: "The river's active flow record: row problems, gaps, annual peaks, flood-frequency fit, durations and percentiles",
     tags: ['rivers'],
     access: { roles: READERS },
     params: idParams,
+    response: flowRecordSchema,
     errors: [404],
     handler: ({ user, params }) => rivers.flowRecord(user!, params.id),
   });
@@ -100,10 +115,12 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
   defineRoute(ctx, {
     method: 'get',
     path: '/rivers/:id/flow-records/readings',
+    operationId: 'getHydrograph',
     summary: 'The hydrograph, thinned to at most 5 000 points (each keeps its bucket’s highest flow)',
     tags: ['rivers'],
     access: { roles: READERS },
     params: idParams,
+    response: hydrographSchema,
     errors: [404],
     handler: async ({ user, params }) => ({ points: await rivers.readings(user!, params.id) }),
   });
@@ -154,6 +171,7 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
     tags: ['scenarios'],
     access: { roles: READERS },
     params: scenarioParams,
+    response: null,
     errors: [404],
     handler: async ({ user, params }) => {
       await rivers.deleteScenario(user!, params.id);
@@ -168,6 +186,7 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
     tags: ['scenarios'],
     access: { roles: READERS },
     params: scenarioParams,
+    response: scenarioPlumeSchema,
     errors: [404, 422],
     handler: ({ user, params }) => rivers.scenarioPlume(user!, params.id),
   });
@@ -175,10 +194,12 @@ export function registerRiverRoutes(ctx: RouteContext, rivers: RiversService, jo
   defineRoute(ctx, {
     method: 'post',
     path: '/rivers/:id/screening-runs',
+    operationId: 'startScreeningRun',
     summary: "Re-screen every lease of the river now (normally automatic after a change)",
     tags: ['screenings'],
     access: { roles: ['adviser', 'regulator', 'grower'] },
     params: idParams,
+    response: screeningRunStartedSchema,
     successStatus: 202,
     errors: [404],
     handler: async ({ user, params }) => {

@@ -1,10 +1,19 @@
 import { sql } from 'drizzle-orm';
 import { z } from 'zod';
+import { exportFormatSchema, layerExportCsvSchema, layerExportGeoJsonSchema } from '#shared/schemas/exports';
 import { type AnnualItem, annualListSchema, annualQuerySchema } from '#shared/schemas/annual';
 import { annualRating, compareAnnualWorstFirst } from '#shared/scoring/annual-rating';
 import type { Database } from '../db/client';
-import { defineRoute, type RouteContext } from '../http/route';
+import {
+  footprintSchema,
+  leaseSweepSchema,
+  RATINGS,
+  screeningListSchema,
+  screeningRunListSchema,
+} from '#shared/schemas/screening';
+import { BINARY_BODY, type CurrentUser, defineRoute, type RouteContext } from '../http/route';
 import { NotFoundError, ValidationError } from '../lib/errors';
+import { bandsLayer, exportResponse, sendExport } from '../services/exports.service';
 import { visibleLeases } from '../services/leases.service';
 import type { RiversService } from '../services/rivers.service';
 import type { ScreeningService } from '../services/screening.service';
@@ -12,16 +21,17 @@ import type { SweepService } from '../services/sweep.service';
 import { leaseTile } from '../db/repositories/tiles.repo';
 
 const READERS = ['grower', 'adviser', 'regulator'] as const;
-const RATINGS = ['low', 'moderate', 'high', 'severe'] as const;
 
-const footprintQuery = z
-  .strictObject({
-    riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }),
-    scenarioId: z.uuid({ error: 'scenarioId must be a scenario id (UUID)' }).optional(),
-    discharge: z.coerce.number().positive({ error: 'discharge must be greater than 0 m³/s' }).max(1e6).optional(),
-    durationHours: z.coerce.number().positive({ error: 'durationHours must be greater than 0' }).max(24 * 365).optional(),
-  })
-  .refine((q) => q.scenarioId || q.discharge, { message: 'give scenarioId, or discharge (and optionally durationHours) for a flow of your own', path: ['scenarioId'] });
+const footprintFields = {
+  riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }),
+  scenarioId: z.uuid({ error: 'scenarioId must be a scenario id (UUID)' }).optional(),
+  discharge: z.coerce.number().positive({ error: 'discharge must be greater than 0 m³/s' }).max(1e6).optional(),
+  durationHours: z.coerce.number().positive({ error: 'durationHours must be greater than 0' }).max(24 * 365).optional(),
+};
+const needsFlow = (q: { scenarioId?: string; discharge?: number }) => Boolean(q.scenarioId || q.discharge);
+const needsFlowError = { message: 'give scenarioId, or discharge (and optionally durationHours) for a flow of your own', path: ['scenarioId'] };
+const footprintQuery = z.strictObject(footprintFields).refine(needsFlow, needsFlowError);
+const footprintExportQuery = z.strictObject({ ...footprintFields, format: exportFormatSchema }).refine(needsFlow, needsFlowError);
 
 const screeningQuery = z.strictObject({
   leaseId: z.uuid({ error: 'leaseId must be a lease id (UUID)' }).optional(),
@@ -42,59 +52,85 @@ const SORTS = {
 } as const;
 
 export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers: RiversService, screening: ScreeningService, sweeps: SweepService): void {
+  /** A river's footprint (bands and the coast path) for a scenario or any flow, as a FeatureCollection. */
+  async function footprintCollection(user: CurrentUser, query: z.infer<typeof footprintQuery>) {
+    await rivers.get(user, query.riverId);
+    const river = await screening.riverInputs(query.riverId);
+    let flow: { scenarioId?: string; discharge: number; durationHours: number };
+    let scenarioName: string | null = null;
+    if (query.scenarioId) {
+      const s = await db.execute<{ id: string; name: string; discharge: number; duration_hours: number }>(sql`
+        SELECT id, name, discharge, duration_hours FROM scenarios WHERE id = ${query.scenarioId}::uuid AND river_id = ${query.riverId}::uuid`);
+      if (!s.rows[0]) throw new NotFoundError('No scenario with this id for this river.');
+      flow = { scenarioId: s.rows[0].id, discharge: s.rows[0].discharge, durationHours: s.rows[0].duration_hours };
+      scenarioName = s.rows[0].name;
+    } else {
+      const typical = await db.execute<{ h: number | null }>(sql`SELECT (durations->>'medianHours')::float AS h FROM flow_records WHERE river_id = ${query.riverId}::uuid AND active`);
+      flow = { discharge: query.discharge!, durationHours: query.durationHours ?? Math.max(24, Math.round(typical.rows[0]?.h ?? 72)) };
+    }
+    const fp = await screening.ensureFootprint(river, flow);
+    const bands = await db.execute<{ band_id: string; name: string; kind: string; threshold: number | null; sort_order: number; geometry: string }>(sql`
+      SELECT band_id, name, kind, threshold, sort_order, ST_AsGeoJSON(geom, 6) AS geometry FROM footprint_bands WHERE footprint_id = ${fp.id}::uuid ORDER BY sort_order`);
+    const meta = await db.execute<{ warnings: string[]; path: string | null; created_at: Date; model_version: string }>(sql`
+      SELECT warnings, ST_AsGeoJSON(path, 6) AS path, created_at, model_version FROM footprints WHERE id = ${fp.id}::uuid`);
+    return {
+      type: 'FeatureCollection',
+      properties: {
+        footprintId: fp.id,
+        riverId: query.riverId,
+        riverName: river.name,
+        scenarioId: flow.scenarioId ?? null,
+        scenarioName,
+        discharge: flow.discharge,
+        durationHours: flow.durationHours,
+        modelVersion: meta.rows[0].model_version,
+        plume: fp.plume,
+        warnings: meta.rows[0].warnings,
+        computedAt: new Date(meta.rows[0].created_at).toISOString(),
+      },
+      features: [
+        ...bands.rows.map((b) => ({
+          type: 'Feature',
+          id: b.band_id,
+          properties: { bandId: b.band_id, name: b.name, kind: b.kind, threshold: b.threshold, order: b.sort_order },
+          geometry: JSON.parse(b.geometry),
+        })),
+        ...(meta.rows[0].path ? [{ type: 'Feature', id: 'path', properties: { bandId: 'path', name: 'Coast followed by the plume', kind: 'path' }, geometry: JSON.parse(meta.rows[0].path) }] : []),
+      ],
+    };
+  }
+
   defineRoute(ctx, {
     method: 'get',
     path: '/footprints',
+    operationId: 'getFootprint',
     summary: "A river's plume footprint as GeoJSON (bulge and bands), for a scenario or any flow (built once, then cached)",
     tags: ['footprints'],
     access: { roles: READERS },
     query: footprintQuery,
+    response: footprintSchema,
     errors: [404, 422],
-    handler: async ({ user, query }) => {
-      await rivers.get(user!, query.riverId);
-      const river = await screening.riverInputs(query.riverId);
-      let flow: { scenarioId?: string; discharge: number; durationHours: number };
-      let scenarioName: string | null = null;
-      if (query.scenarioId) {
-        const s = await db.execute<{ id: string; name: string; discharge: number; duration_hours: number }>(sql`
-          SELECT id, name, discharge, duration_hours FROM scenarios WHERE id = ${query.scenarioId}::uuid AND river_id = ${query.riverId}::uuid`);
-        if (!s.rows[0]) throw new NotFoundError('No scenario with this id for this river.');
-        flow = { scenarioId: s.rows[0].id, discharge: s.rows[0].discharge, durationHours: s.rows[0].duration_hours };
-        scenarioName = s.rows[0].name;
-      } else {
-        const typical = await db.execute<{ h: number | null }>(sql`SELECT (durations->>'medianHours')::float AS h FROM flow_records WHERE river_id = ${query.riverId}::uuid AND active`);
-        flow = { discharge: query.discharge!, durationHours: query.durationHours ?? Math.max(24, Math.round(typical.rows[0]?.h ?? 72)) };
-      }
-      const fp = await screening.ensureFootprint(river, flow);
-      const bands = await db.execute<{ band_id: string; name: string; kind: string; threshold: number | null; sort_order: number; geometry: string }>(sql`
-        SELECT band_id, name, kind, threshold, sort_order, ST_AsGeoJSON(geom, 6) AS geometry FROM footprint_bands WHERE footprint_id = ${fp.id}::uuid ORDER BY sort_order`);
-      const meta = await db.execute<{ warnings: string[]; path: string | null; created_at: Date; model_version: string }>(sql`
-        SELECT warnings, ST_AsGeoJSON(path, 6) AS path, created_at, model_version FROM footprints WHERE id = ${fp.id}::uuid`);
-      return {
-        type: 'FeatureCollection',
-        properties: {
-          footprintId: fp.id,
-          riverId: query.riverId,
-          riverName: river.name,
-          scenarioId: flow.scenarioId ?? null,
-          scenarioName,
-          discharge: flow.discharge,
-          durationHours: flow.durationHours,
-          modelVersion: meta.rows[0].model_version,
-          plume: fp.plume,
-          warnings: meta.rows[0].warnings,
-          computedAt: new Date(meta.rows[0].created_at).toISOString(),
-        },
-        features: [
-          ...bands.rows.map((b) => ({
-            type: 'Feature',
-            id: b.band_id,
-            properties: { bandId: b.band_id, name: b.name, kind: b.kind, threshold: b.threshold, order: b.sort_order },
-            geometry: JSON.parse(b.geometry),
-          })),
-          ...(meta.rows[0].path ? [{ type: 'Feature', id: 'path', properties: { bandId: 'path', name: 'Coast followed by the plume', kind: 'path' }, geometry: JSON.parse(meta.rows[0].path) }] : []),
-        ],
-      };
+    handler: ({ user, query }) => footprintCollection(user!, query),
+  });
+
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/footprints/export',
+    operationId: 'exportFootprintBands',
+    summary:
+      "Download a river's exposure bands for a scenario or any flow as CSV, GeoJSON, GeoPackage (readme table) or KML (document description), with the model version and the cautions",
+    tags: ['footprints'],
+    access: { roles: READERS },
+    query: footprintExportQuery,
+    response: exportResponse("The footprint's bands (and the coast the plume follows)", layerExportCsvSchema, layerExportGeoJsonSchema),
+    errors: [404, 422],
+    handler: async ({ user, query, res }) => {
+      const { format, ...flow } = query;
+      const fc = await footprintCollection(user!, flow);
+      const layer = bandsLayer(fc);
+      const slug = `${fc.properties.riverName}-${fc.properties.scenarioName ?? `${fc.properties.discharge}-m3s`}`.replace(/\W+/g, '-').toLowerCase();
+      await sendExport(res, layer, format, `brackline-bands-${slug}`, 'Name');
+      return undefined;
     },
   });
 
@@ -105,6 +141,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     tags: ['screenings'],
     access: { roles: READERS },
     query: screeningQuery,
+    response: screeningListSchema,
     handler: async ({ user, query }) => {
       const where = [visibleLeases(user!)];
       if (query.leaseId) where.push(sql`s.lease_id = ${query.leaseId}::uuid`);
@@ -128,6 +165,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/screenings/annual',
+    operationId: 'listAnnualExposures',
     summary:
       'Yearly figures per lease and river (expected closure days a year, chance a year of a harmful salinity event, days below the salinity tolerance) and the yearly rating set from them, worst first',
     tags: ['screenings'],
@@ -162,6 +200,8 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     tags: ['screenings'],
     access: { roles: READERS },
     query: z.strictObject({ riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }) }),
+    response: screeningRunListSchema,
+    errors: [404],
     handler: async ({ user, query }) => {
       await rivers.get(user!, query.riverId);
       const rows = await db.execute(sql`
@@ -174,11 +214,13 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/leases/:id/sweep',
+    operationId: 'getLeaseSweep',
     summary: 'Flow sweep for one lease: the river flow at which it enters each band, and the field over it against flow',
     tags: ['screenings'],
     access: { roles: READERS },
     params: z.object({ id: z.uuid({ error: 'id must be a lease id (UUID)' }) }),
     query: z.strictObject({ riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }), steps: z.coerce.number().int().min(10).max(400).default(60) }),
+    response: leaseSweepSchema,
     errors: [404, 422],
     handler: async ({ user, params, query }) => {
       await rivers.get(user!, query.riverId);
@@ -201,6 +243,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/tiles/leases/:z/:x/:y',
+    operationId: 'getLeaseTile',
     summary: 'Leases you may see as Mapbox Vector Tiles (layer "leases": id, lease, status, species, rating at a scenario or worst)',
     tags: ['tiles'],
     access: { roles: READERS },
@@ -209,6 +252,7 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
       riverId: z.uuid({ error: 'riverId must be a river id (UUID)' }).optional(),
       scenarioId: z.uuid({ error: 'scenarioId must be a scenario id (UUID)' }).optional().describe('Rate each lease at this flood scenario'),
     }),
+    response: { description: 'A Mapbox Vector Tile (empty when nothing is in the tile)', content: { 'application/vnd.mapbox-vector-tile': BINARY_BODY } },
     handler: async ({ user, params, query, res }) => {
       const { z: tz, x, y } = tileXY(params);
       const mvt = await leaseTile(db, user!, tz, x, y, query.riverId, query.scenarioId);
@@ -222,11 +266,14 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
   defineRoute(ctx, {
     method: 'get',
     path: '/tiles/bands/:z/:x/:y',
+    operationId: 'getBandTile',
     summary: 'The bands of one footprint as Mapbox Vector Tiles (layer "bands")',
     tags: ['tiles'],
     access: { roles: READERS },
     params: tileParams,
     query: z.strictObject({ footprintId: z.uuid({ error: 'footprintId must be a footprint id (UUID)' }) }),
+    response: { description: 'A Mapbox Vector Tile (empty when nothing is in the tile)', content: { 'application/vnd.mapbox-vector-tile': BINARY_BODY } },
+    errors: [404],
     handler: async ({ user, params, query, res }) => {
       const { z: tz, x, y } = tileXY(params);
       const fp = await db.execute<{ river_id: string }>(sql`SELECT river_id FROM footprints WHERE id = ${query.footprintId}::uuid`);

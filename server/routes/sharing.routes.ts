@@ -12,6 +12,7 @@ export function registerSharingRoutes(ctx: RouteContext, sharing: SharingService
   defineRoute(ctx, {
     method: 'post',
     path: '/leases/shares',
+    operationId: 'shareLeases',
     summary: 'Share leases you hold with an adviser or regulator (by e-mail); sharing again changes nothing',
     tags: ['leases', 'sharing'],
     access: { roles: LEASE_HOLDERS },
@@ -36,10 +37,12 @@ export function registerSharingRoutes(ctx: RouteContext, sharing: SharingService
   defineRoute(ctx, {
     method: 'delete',
     path: '/leases/:id/shares/:userId',
+    operationId: 'revokeLeaseShare',
     summary: 'Stop sharing a lease with a user (its holder only)',
     tags: ['leases', 'sharing'],
     access: { roles: LEASE_HOLDERS },
     params: shareParams,
+    response: null,
     errors: [404],
     handler: async ({ user, params }) => {
       await sharing.revoke(user!, params.id, params.userId);

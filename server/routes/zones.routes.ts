@@ -9,6 +9,7 @@ import {
   auditQuerySchema,
   closureCheckResultSchema,
   closureCheckSchema,
+  closureGaugeListSchema,
   noticeCreateSchema,
   noticeListSchema,
   noticeSchema,
@@ -22,7 +23,9 @@ import {
   zoneSchema,
   zoneUpdateSchema,
 } from '#shared/schemas/zones';
+import { exportFormatSchema, layerExportCsvSchema, layerExportGeoJsonSchema } from '#shared/schemas/exports';
 import { defineRoute, type RouteContext } from '../http/route';
+import { exportResponse, sendExport, zonesLayer } from '../services/exports.service';
 import type { ZonesService } from '../services/zones.service';
 
 const REGULATOR = ['regulator'] as const;
@@ -38,6 +41,23 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
     query: z.strictObject({ withGeometry: z.enum(['true', 'false'], { error: 'withGeometry must be true or false' }).default('false') }),
     response: zoneListSchema,
     handler: ({ user, query }) => zones.list(user!, query.withGeometry === 'true'),
+  });
+
+  // Declared before /zones/:id so "export" is not taken for an id.
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/zones/export',
+    operationId: 'exportZones',
+    summary: 'Download the closure zones of your jurisdiction as CSV, GeoJSON, GeoPackage (readme table) or KML (document description)',
+    tags: ['zones'],
+    access: { roles: REGULATOR },
+    query: z.strictObject({ format: exportFormatSchema }),
+    response: exportResponse('The closure zones', layerExportCsvSchema, layerExportGeoJsonSchema),
+    handler: async ({ user, query, res }) => {
+      const { items } = await zones.list(user!, true);
+      await sendExport(res, zonesLayer(items), query.format, `brackline-closure-zones-${new Date().toISOString().slice(0, 10)}`, 'Zone');
+      return undefined;
+    },
   });
 
   defineRoute(ctx, {
@@ -82,6 +102,7 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'get',
     path: '/zones/:id/trigger-sweep',
+    operationId: 'getZoneTriggerSweep',
     summary:
       "Share of the zone where the modelled indicator is above the zone's standard, against river flow; the suggested trigger, its margin to the plan's and the AEP of each",
     tags: ['zones'],
@@ -135,6 +156,7 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'post',
     path: '/closure-checks',
+    operationId: 'runClosureCheck',
     summary: 'Which zones and which held leases a flow (typed, or the latest gauge reading) puts in which bands',
     tags: ['closure-checks'],
     access: { roles: REGULATOR },
@@ -147,9 +169,11 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'get',
     path: '/closure-checks/gauges',
+    operationId: 'listClosureCheckGauges',
     summary: "Your jurisdiction's gauges with their latest reading (read only)",
     tags: ['closure-checks'],
     access: { roles: REGULATOR },
+    response: closureGaugeListSchema,
     handler: ({ user }) => zones.gaugesOf(user!),
   });
 
@@ -166,6 +190,7 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'post',
     path: '/notices',
+    operationId: 'issueNotice',
     summary:
       'Issue a closure or reopening notice for one or more zones: statuses change, every grower with a held lease there gets an e-mail and an in-app message',
     tags: ['notices'],
@@ -180,6 +205,7 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'get',
     path: '/audit',
+    operationId: 'listAuditEntries',
     summary: 'The audit log (append-only): a regulator reads its jurisdiction’s entries, an administrator all',
     tags: ['audit'],
     access: { roles: ['regulator', 'admin'] },
@@ -191,6 +217,7 @@ export function registerZoneRoutes(ctx: RouteContext, zones: ZonesService): void
   defineRoute(ctx, {
     method: 'get',
     path: '/public/status/:jurisdiction',
+    operationId: 'getPublicStatus',
     summary: "A jurisdiction's zone statuses and recent notices, for the public status page (no sign-in)",
     tags: ['public'],
     access: { public: true },

@@ -4,7 +4,7 @@
 import { and, eq, gt, isNull } from 'drizzle-orm';
 import type { Role } from '#shared/schemas/roles';
 import type { Database } from '../db/client';
-import { invitations, organisations, passwordResetTokens, users } from '../db/schema';
+import { invitations, jurisdictions, organisations, passwordResetTokens, users } from '../db/schema';
 import { ConflictError, NotFoundError, ValidationError } from '../lib/errors';
 import type { Mailer } from '../mail/mailer';
 import { forgetUser } from '../auth/current-user';
@@ -17,13 +17,17 @@ const INVITATION_DAYS = 7;
 export function createAccountsService(deps: { db: Database; mailer: Mailer; appUrl: string }) {
   const { db, mailer, appUrl } = deps;
 
-  async function signUp(input: { name: string; email: string; password: string; organisationName?: string }) {
+  async function signUp(input: { name: string; email: string; password: string; organisationName?: string; regionId?: string | null }) {
     const email = input.email.toLowerCase();
     const passwordHash = await hashPassword(input.password);
     return db.transaction(async (tx) => {
       const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, email)).limit(1);
       if (existing) {
         throw new ConflictError('An account with this e-mail already exists. Sign in, or reset your password if you forgot it.');
+      }
+      if (input.regionId) {
+        const [region] = await tx.select({ id: jurisdictions.id }).from(jurisdictions).where(eq(jurisdictions.id, input.regionId)).limit(1);
+        if (!region) throw new ValidationError('regionId: no region has this id. Pick one from the list, or none.');
       }
       let organisationId: string | null = null;
       if (input.organisationName) {
@@ -37,9 +41,9 @@ export function createAccountsService(deps: { db: Database; mailer: Mailer; appU
       }
       const [user] = await tx
         .insert(users)
-        .values({ name: input.name, email, passwordHash, role: 'grower', organisationId })
+        .values({ name: input.name, email, passwordHash, role: 'grower', organisationId, jurisdictionId: input.regionId ?? null })
         .returning({ id: users.id, email: users.email, role: users.role });
-      await recordAudit(tx, { actorId: user.id, action: 'user.sign-up', subjectType: 'user', subjectId: user.id, after: { email, role: 'grower' } });
+      await recordAudit(tx, { actorId: user.id, action: 'user.sign-up', subjectType: 'user', subjectId: user.id, after: { email, role: 'grower', regionId: input.regionId ?? null } });
       return user;
     });
   }

@@ -10,14 +10,16 @@ import { checkCoordinates } from '#shared/geometry/check-coordinates';
 import { type CrsCatalogue, crsDefinition, identifyCrs } from '#shared/geometry/crs-catalogue';
 import { guessAttributeMapping, normaliseStatus } from '#shared/geometry/guess-attribute-mapping';
 import { loadCrsCatalogue } from '#shared/geometry/load-crs-catalogue';
-import { type ParsedUpload, readUpload, type UploadKind, type UploadLimits } from '#shared/geometry/read-upload';
+import { type LayerSummary, type ParsedUpload, readUpload, type UploadKind, type UploadLimits } from '#shared/geometry/read-upload';
 import { reprojectLayer } from '#shared/geometry/reproject';
 import { isUploadError } from '#shared/geometry/upload-error';
 import type { Database } from '../db/client';
 import { findEmptyAfterRepair, flagOnLand, insertImportFeatures, type StagedFeature, summariseImportFeatures } from '../db/repositories/import-features.repo';
 import type { CurrentUser } from '../http/route';
 import { AppError, ConflictError, ForbiddenError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors';
+import { openSqlite } from '../lib/sqlite';
 import { recordAudit } from './audit.service';
+import { assignLeasesToRegions } from './regions.service';
 
 /** Who may upload what: growers and advisers their leases; regulators zones; all three coastlines. */
 export const UPLOAD_ROLES: Record<UploadKind, readonly string[]> = {
@@ -35,7 +37,19 @@ interface ImportRow {
   status: 'needs-crs' | 'ready' | 'confirmed';
   crs: { found: boolean; epsg?: number; wkt?: string; name?: string };
   parsed_source: ParsedUpload | null;
-  summary: { featureCount: number; geometryTypes: string[]; fields: string[]; warnings: string[]; format: string };
+  summary: {
+    featureCount: number;
+    geometryTypes: string[];
+    fields: string[];
+    warnings: string[];
+    format: string;
+    /** Every layer of a file with several, for the user to pick one. */
+    layers?: LayerSummary[];
+    /** The picked layer (null or absent: every usable layer). */
+    layer?: string | null;
+    /** GPX tracks confirmed as areas. */
+    tracksAsPolygons?: boolean;
+  };
   [key: string]: unknown;
 }
 
@@ -108,6 +122,10 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
       kind: row.kind,
       status: row.status,
       fileName: row.file_name,
+      format: row.summary.format,
+      layers: row.summary.layers ?? [],
+      selectedLayer: row.summary.layer ?? null,
+      tracksAsPolygons: row.summary.tracksAsPolygons ?? false,
       crs: row.crs,
       featureCount: row.summary.featureCount,
       geometryTypes: row.summary.geometryTypes,
@@ -126,18 +144,30 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
     };
   }
 
-  async function create(user: CurrentUser, kind: UploadKind, file: { buffer: Buffer; originalname: string }) {
-    if (!UPLOAD_ROLES[kind].includes(user.role)) {
-      throw new ForbiddenError(`Your role (${user.role}) cannot upload ${kind === 'zone' ? 'closure zones' : `${kind}s`}. It is for: ${UPLOAD_ROLES[kind].join(', ')}.`);
-    }
-    let parsed: ParsedUpload;
+  /** Reads an upload's bytes with the user's choices (layer, GPX tracks as areas). */
+  async function read(bytes: Uint8Array, fileName: string, kind: UploadKind, choices: { layer?: string | null; tracksAsPolygons?: boolean }) {
     try {
-      parsed = await readUpload(new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength), file.originalname, kind, deps.limits, {
+      return await readUpload(bytes, fileName, kind, deps.limits, {
         identifyEpsg: (wkt) => identifyCrs(crsCatalogue(), wkt),
+        openSqlite,
+        ...(choices.layer ? { layer: choices.layer } : {}),
+        ...(choices.tracksAsPolygons ? { tracksAsPolygons: true } : {}),
       });
     } catch (err) {
       toAppError(err);
     }
+  }
+
+  async function create(
+    user: CurrentUser,
+    kind: UploadKind,
+    file: { buffer: Buffer; originalname: string },
+    choices: { layer?: string; tracksAsPolygons?: boolean } = {},
+  ) {
+    if (!UPLOAD_ROLES[kind].includes(user.role)) {
+      throw new ForbiddenError(`Your role (${user.role}) cannot upload ${kind === 'zone' ? 'closure zones' : `${kind}s`}. It is for: ${UPLOAD_ROLES[kind].join(', ')}.`);
+    }
+    const parsed = await read(new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength), file.originalname, kind, choices);
     const crsFound = parsed.layers.every((l) => l.crs.found);
     const firstCrs = parsed.layers[0].crs;
     const summary = {
@@ -146,6 +176,9 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
       fields: fieldsOf(parsed),
       warnings: [...parsed.warnings],
       format: parsed.format,
+      layers: parsed.layerSummaries ?? [],
+      layer: parsed.selectedLayer ?? null,
+      tracksAsPolygons: choices.tracksAsPolygons ?? false,
     };
     const sha = createHash('sha256').update(file.buffer).digest('hex');
     const id = await db.transaction(async (tx) => {
@@ -183,11 +216,7 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
     if (!parsed) {
       // Already staged with the file's own CRS: read the kept original again.
       const file = await db.execute<{ file_bytes: Buffer }>(sql`SELECT file_bytes FROM imports WHERE id = ${id}::uuid`);
-      try {
-        parsed = await readUpload(new Uint8Array(file.rows[0].file_bytes), row.file_name, row.kind, deps.limits);
-      } catch (err) {
-        toAppError(err);
-      }
+      parsed = await read(new Uint8Array(file.rows[0].file_bytes), row.file_name, row.kind, { layer: row.summary.layer, tracksAsPolygons: row.summary.tracksAsPolygons });
     }
     const summary = { ...row.summary, warnings: row.summary.warnings.filter((w) => !/coordinate system/.test(w)) };
     await db.transaction(async (tx) => {
@@ -196,6 +225,41 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
       await tx.execute(sql`
         UPDATE imports SET status = 'ready', crs = ${JSON.stringify({ found: true, epsg, name: definition.name })}::jsonb,
                summary = ${JSON.stringify(summary)}::jsonb, parsed_source = ${JSON.stringify(parsed)}::jsonb
+         WHERE id = ${id}::uuid`);
+    });
+    return describe(id);
+  }
+
+  /**
+   * Reads the kept file again with one layer (or, with null, every usable layer) and stages it afresh: the
+   * preview of a KML with folders, a GeoPackage with tables or a zip with several shapefiles.
+   */
+  async function pickLayer(user: CurrentUser, id: string, layer: string | null) {
+    const row = await loadImport(user, id);
+    if (row.status === 'confirmed') throw new ConflictError('This upload is already saved. Upload the file again to pick another layer.');
+    const file = await db.execute<{ file_bytes: Buffer }>(sql`SELECT file_bytes FROM imports WHERE id = ${id}::uuid`);
+    const parsed = await read(new Uint8Array(file.rows[0].file_bytes), row.file_name, row.kind, { layer, tracksAsPolygons: row.summary.tracksAsPolygons });
+    const chosenEpsg = row.status === 'ready' && !parsed.layers.every((l) => l.crs.found) && row.crs.found ? row.crs.epsg : undefined;
+    const crsFound = parsed.layers.every((l) => l.crs.found) || chosenEpsg !== undefined;
+    const summary = {
+      ...row.summary,
+      featureCount: parsed.layers.reduce((n, l) => n + l.features.length, 0),
+      geometryTypes: geometryTypesOf(parsed),
+      fields: fieldsOf(parsed),
+      warnings: [...parsed.warnings],
+      layer,
+    };
+    await db.transaction(async (tx) => {
+      if (crsFound) {
+        summary.warnings.push(...(await stage(tx, row, parsed, chosenEpsg !== undefined ? { epsg: chosenEpsg } : undefined)));
+      } else {
+        await tx.execute(sql`DELETE FROM import_features WHERE import_id = ${id}::uuid`);
+        summary.warnings.push(`“${parsed.layers.find((l) => !l.crs.found)?.name}” does not say its coordinate system. Choose its EPSG code.`);
+      }
+      await tx.execute(sql`
+        UPDATE imports SET summary = ${JSON.stringify(summary)}::jsonb, status = ${crsFound ? 'ready' : 'needs-crs'},
+               crs = ${JSON.stringify(chosenEpsg !== undefined ? row.crs : crsFound ? parsed.layers[0].crs : { ...parsed.layers[0].crs, found: false })}::jsonb,
+               parsed_source = ${crsFound ? null : JSON.stringify(parsed)}::jsonb
          WHERE id = ${id}::uuid`);
     });
     return describe(id);
@@ -220,7 +284,7 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
       }
     }
     const features = await summariseImportFeatures(db, id);
-    const base = row.file_name.replace(/\.(zip|geojson|json)$/i, '');
+    const base = row.file_name.replace(/\.(zip|geojson|json|kml|kmz|gpx|gpkg)$/i, '');
     const text = (props: Record<string, unknown>, field?: string) => {
       if (!field) return null;
       const v = props[field];
@@ -261,6 +325,7 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
             added.push({ idx: f.index, code, holder, species, status });
           }
         }
+
         if (replaced.size) {
           await tx.execute(sql`
             UPDATE leases l SET geom = f.geom, area_m2 = f.area_m2, on_land = f.on_land, import_id = ${id}::uuid,
@@ -282,6 +347,8 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
           for (const r of res.rows) ids.push(r.id);
           created += res.rows.length;
         }
+        // A lease inside a region's area belongs to that region (and brings a grower of no region into it).
+        await assignLeasesToRegions(tx, user, ids);
       } else if (row.kind === 'zone') {
         if (!user.jurisdictionId) throw new ValidationError('Your account has no jurisdiction, so closure zones cannot be saved. Ask an administrator to set it.');
         const named = features.map((f) => ({ idx: f.index, name: text(f.properties, body.mapping.leaseId) ?? `${base} zone ${f.index + 1}` }));
@@ -325,7 +392,7 @@ export function createImportsService(deps: { db: Database; limits?: Partial<Uplo
     return crsCatalogue();
   }
 
-  return { create, setCrs, get, confirm, crsCatalogue: searchCrsCatalogue };
+  return { create, setCrs, pickLayer, get, confirm, crsCatalogue: searchCrsCatalogue };
 }
 
 export type ImportsService = ReturnType<typeof createImportsService>;

@@ -30,7 +30,9 @@ import {
   settingsPatchFor,
 } from '#shared/calibration/river-calibration';
 import { loadCrsCatalogue } from '#shared/geometry/load-crs-catalogue';
-import { detectFormat } from '#shared/geometry/read-upload';
+import { readGeoPackage } from '#shared/geometry/read-geopackage';
+import { readKmlOrGpx } from '#shared/geometry/read-kml-gpx';
+import { detectFormat, isKmz } from '#shared/geometry/read-upload';
 import { readGeoJson } from '#shared/geometry/read-geojson';
 import { readShapefileZip } from '#shared/geometry/read-shapefile-zip';
 import { reprojectLayer, toWgs84 } from '#shared/geometry/reproject';
@@ -49,6 +51,7 @@ import { applyRiverDefaults, DEFAULTABLE_FIELDS, type RiverCreate, type RiverSet
 import type { Database } from '../db/client';
 import type { CurrentUser } from '../http/route';
 import { AppError, ConflictError, ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors';
+import { openSqlite } from '../lib/sqlite';
 import { recordAudit } from './audit.service';
 import { type FrameSettings, footprintCoastFrame, placePoints } from './coast-positions';
 import { visibleRivers } from './rivers.service';
@@ -189,7 +192,8 @@ export function createMonitoringService(deps: { db: Database; onRiverChanged?: (
         ['station_id', 'station', 'station_code', 'code', 'site', 'site_id', 'id'].includes(k.toLowerCase()),
       );
       const nameKey = Object.keys(props).find((k) => ['name', 'station_name', 'site_name'].includes(k.toLowerCase()));
-      const code = key ? String(props[key] ?? '').trim() : '';
+      // A KML placemark or GPX waypoint carries its code as its name when it has no code attribute.
+      const code = key ? String(props[key] ?? '').trim() : nameKey ? String(props[nameKey] ?? '').trim() : '';
       const g = f.geometry;
       const point =
         g?.type === 'Point'
@@ -227,7 +231,7 @@ export function createMonitoringService(deps: { db: Database; onRiverChanged?: (
     let stations: { row: number; code: string; name: string | null; lon: number; lat: number }[] = [];
     let format: StationUploadResult['format'];
     let total = 0;
-    let kind: 'zip' | 'json' | 'csv';
+    let kind: ReturnType<typeof detectFormat> | 'csv';
     try {
       kind = /\.csv$/i.test(file.originalname) ? 'csv' : detectFormat(bytes, file.originalname);
     } catch (err) {
@@ -265,11 +269,26 @@ export function createMonitoringService(deps: { db: Database; onRiverChanged?: (
           stations.push({ row: r.row, code: r.code, name: r.name, lon, lat });
         }
       } else {
-        format = kind === 'zip' ? 'shapefile' : 'geojson';
-        const layers = kind === 'zip' ? readShapefileZip(bytes, limits).layers : [readGeoJson(bytes, file.originalname, limits).layer];
-        const layer = layers.find((l) => l.features.length > 0) ?? layers[0];
+        let layers: { name: string; crs: { found: boolean; wkt?: string; epsg?: number }; features: Feature<Geometry | null>[] }[];
+        if (kind === 'sqlite') {
+          format = 'geopackage';
+          const gpkg = await readGeoPackage(bytes, file.originalname, openSqlite, limits);
+          warnings.push(...gpkg.warnings);
+          layers = gpkg.layers;
+        } else if (kind === 'xml' || (kind === 'zip' && isKmz(bytes, file.originalname))) {
+          // Stations are points: GPX waypoints and KML pins; tracks are not confirmed into areas here.
+          const xml = readKmlOrGpx(bytes, file.originalname, 'coast', limits, kind === 'zip');
+          format = xml.format;
+          warnings.push(...xml.warnings);
+          layers = xml.layers;
+        } else {
+          format = kind === 'zip' ? 'shapefile' : 'geojson';
+          layers = kind === 'zip' ? readShapefileZip(bytes, limits).layers : [readGeoJson(bytes, file.originalname, limits).layer];
+        }
+        const withPoints = layers.filter((l) => l.features.some((f) => f.geometry?.type === 'Point' || f.geometry?.type === 'MultiPoint'));
+        const layer = withPoints[0] ?? layers.find((l) => l.features.length > 0) ?? layers[0];
         if (layers.filter((l) => l.features.length > 0).length > 1)
-          warnings.push(`The zip holds several layers; only “${layer.name}” was read.`);
+          warnings.push(`The file holds several layers; only “${layer.name}” was read.`);
         total = layer.features.length;
         const points = pointsOfFeatures(layer.features as Feature<Geometry>[], problems);
         if (!layer.crs.found && epsg === undefined) {

@@ -9,7 +9,7 @@ import { annualMaxima } from '#shared/hydrology/annual-maxima';
 import { fitFloodFrequency, type FloodFrequencyResult } from '#shared/hydrology/flood-frequency';
 import { durationsForFlows, floodEvents, typicalDurationForPeak } from '#shared/hydrology/flood-duration';
 import { flowPercentiles, seasonalScenarioName } from '#shared/hydrology/flow-percentiles';
-import { parseFlowRecord } from '#shared/hydrology/parse-flow-record';
+import { FlowSourceError, type FlowSourceResult, readFlowSource } from '#shared/hydrology/read-flow-source';
 import { plumeProfiles, riverPlume } from '#shared/physics/river-plume';
 import {
   applyRiverDefaults,
@@ -25,6 +25,7 @@ import type { Database } from '../db/client';
 import type { CurrentUser } from '../http/route';
 import { ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors';
 import { recordAudit } from './audit.service';
+import { checkMouthOnBuiltinCoast, mouthError, uploadedCoastNear } from './builtin-coast.service';
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0];
 
@@ -42,6 +43,7 @@ type RiverRow = {
   created_at: Date;
   updated_at: Date;
   has_record: boolean;
+  coast_source: 'upload' | 'traced' | 'builtin' | null;
 };
 
 function toRiver(r: RiverRow): River {
@@ -50,20 +52,27 @@ function toRiver(r: RiverRow): River {
     name: r.name,
     jurisdictionId: r.jurisdiction_id,
     ownerId: r.owner_id,
-    settings: r.settings as unknown as Record<string, unknown>,
+    settings: r.settings,
     defaultsUsed: r.defaults_used,
     version: r.version,
     hasFlowRecord: r.has_record,
+    coastSource: r.coast_source ?? null,
     createdAt: new Date(r.created_at).toISOString(),
     updatedAt: new Date(r.updated_at).toISOString(),
   };
 }
 
-/** Rivers a user may read: their own and those of their jurisdiction. */
+/**
+ * Rivers a user may read: their own, those of their jurisdiction, those that screen one of their
+ * leases (issue #15: a river of any jurisdiction whose plume reaches the lease), and a grower's
+ * advisers' rivers (an accepted client link shares them).
+ */
 export function visibleRivers(user: CurrentUser, alias = 'r') {
   const a = sql.raw(alias);
   if (user.role === 'admin') return sql`false`;
-  return sql`(${a}.owner_id = ${user.id} OR (${a}.jurisdiction_id IS NOT NULL AND ${a}.jurisdiction_id = ${user.jurisdictionId}::uuid))`;
+  return sql`(${a}.owner_id = ${user.id} OR (${a}.jurisdiction_id IS NOT NULL AND ${a}.jurisdiction_id = ${user.jurisdictionId}::uuid)
+    OR EXISTS (SELECT 1 FROM screenings vs JOIN leases vl ON vl.id = vs.lease_id WHERE vs.river_id = ${a}.id AND vl.owner_id = ${user.id})
+    OR EXISTS (SELECT 1 FROM client_invitations vc WHERE vc.status = 'accepted' AND vc.adviser_id = ${a}.owner_id AND vc.grower_id = ${user.id}))`;
 }
 
 function ordinalAep(aep: number): string {
@@ -79,7 +88,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
 
   async function load(user: CurrentUser, id: string): Promise<RiverRow> {
     const res = await db.execute<RiverRow>(sql`
-      SELECT r.*, EXISTS (SELECT 1 FROM flow_records f WHERE f.river_id = r.id AND f.active) AS has_record
+      SELECT r.*, EXISTS (SELECT 1 FROM flow_records f WHERE f.river_id = r.id AND f.active) AS has_record, (SELECT c.source FROM coasts c WHERE c.id = r.coast_id) AS coast_source
         FROM rivers r WHERE r.id = ${id}::uuid AND ${visibleRivers(user)}`);
     if (!res.rows[0]) throw new NotFoundError('No river with this id that you can see.');
     return res.rows[0];
@@ -95,7 +104,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
 
   async function list(user: CurrentUser): Promise<River[]> {
     const res = await db.execute<RiverRow>(sql`
-      SELECT r.*, EXISTS (SELECT 1 FROM flow_records f WHERE f.river_id = r.id AND f.active) AS has_record
+      SELECT r.*, EXISTS (SELECT 1 FROM flow_records f WHERE f.river_id = r.id AND f.active) AS has_record, (SELECT c.source FROM coasts c WHERE c.id = r.coast_id) AS coast_source
         FROM rivers r WHERE ${visibleRivers(user)} ORDER BY r.name`);
     return res.rows.map(toRiver);
   }
@@ -104,7 +113,21 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
     return toRiver(await load(user, id));
   }
 
-  async function create(user: CurrentUser, body: RiverCreate, tx?: Tx): Promise<River> {
+  /**
+   * The coast a river at this mouth walks when none is chosen: an uploaded coast the user may use near
+   * the mouth (then null: the usual choice in screening), else the built-in world coastline, which
+   * also checks the mouth is on the coast (refusing a mouth on land or far from any coast).
+   */
+  async function builtinCoastFor(user: CurrentUser, lon: number, lat: number, t: Tx | Database): Promise<string | null> {
+    if (await uploadedCoastNear(t, user, lon, lat)) return null;
+    const check = await checkMouthOnBuiltinCoast(db, lon, lat);
+    if (check.problem) throw mouthError(check);
+    return check.coastId;
+  }
+
+  async function create(user: CurrentUser, input: RiverCreate, tx?: Tx): Promise<River> {
+    const builtin = input.coastId ? null : await builtinCoastFor(user, input.mouthLongitude, input.mouthLatitude, tx ?? db);
+    const body = builtin ? { ...input, coastId: builtin } : input;
     const { settings, defaultsUsed } = applyRiverDefaults(body);
     const run = async (t: Tx | Database) => {
       const res = await t.execute<{ id: string }>(sql`
@@ -123,6 +146,13 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
     const river = await load(user, id);
     requireEditor(user, river);
     const merged = { ...river.settings, ...patch } as RiverCreate;
+    const mouthMoved =
+      (patch.mouthLongitude !== undefined && patch.mouthLongitude !== river.settings.mouthLongitude) ||
+      (patch.mouthLatitude !== undefined && patch.mouthLatitude !== river.settings.mouthLatitude);
+    if (mouthMoved && patch.coastId === undefined && (river.coast_source === 'builtin' || !river.settings.coastId)) {
+      // A moved mouth on the built-in coast is checked again (and may need another window of it).
+      merged.coastId = (await builtinCoastFor(user, merged.mouthLongitude, merged.mouthLatitude, db)) ?? undefined;
+    }
     // A field the user sets stops being a default; the rest keep their flag.
     const stillDefault = river.defaults_used.filter((f) => !(f in patch));
     const { settings } = applyRiverDefaults(merged);
@@ -143,12 +173,35 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
     user: CurrentUser,
     id: string,
     csv: string,
-    options: { units: 'm3s' | 'cfs'; waterYearStart: string; acceptProblems: boolean; fileName?: string },
+    options: {
+      units: 'm3s' | 'cfs' | 'auto';
+      waterYearStart: string;
+      acceptProblems: boolean;
+      fileName?: string;
+      dateColumn?: string;
+      dischargeColumn?: string;
+      qualityColumn?: string;
+      dropProvisional?: boolean;
+      daily?: 'max' | 'mean';
+    },
     tx?: Tx,
   ) {
     const river = await load(user, id);
     requireEditor(user, river);
-    const parsed = parseFlowRecord(csv, { units: options.units });
+    let parsed: FlowSourceResult;
+    try {
+      parsed = readFlowSource(csv, {
+        units: options.units,
+        dateColumn: options.dateColumn,
+        dischargeColumn: options.dischargeColumn,
+        qualityColumn: options.qualityColumn,
+        dropProvisional: options.dropProvisional,
+        daily: options.daily,
+      });
+    } catch (err) {
+      if (err instanceof FlowSourceError) throw new UnprocessableError(err.message);
+      throw err;
+    }
     if (parsed.problems.length && !options.acceptProblems) {
       throw new UnprocessableError(
         `${parsed.problems.length} of ${parsed.rows} rows have problems (first: row ${parsed.problems[0].row}, ${parsed.problems[0].reason}). Fix them and upload again, or upload with acceptProblems=true to continue without those rows.`,
@@ -183,7 +236,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
       await t.execute(sql`UPDATE flow_records SET active = false WHERE river_id = ${id}::uuid`);
       const rec = await t.execute<{ id: string }>(sql`
         INSERT INTO flow_records (river_id, file_name, units, water_year_start, uploaded_by, reading_count, first_time, last_time, interval, problems, gaps, annual_peaks, fit, durations, percentiles)
-        VALUES (${id}::uuid, ${options.fileName ?? 'record.csv'}, ${options.units}, ${options.waterYearStart}, ${user.id}, ${parsed.readings.length},
+        VALUES (${id}::uuid, ${options.fileName ?? 'record.csv'}, ${parsed.units}, ${options.waterYearStart}, ${user.id}, ${parsed.readings.length},
                 ${parsed.readings[0].time}::timestamptz, ${parsed.readings.at(-1)!.time}::timestamptz, ${parsed.interval},
                 ${JSON.stringify(parsed.problems.slice(0, 1000))}::jsonb, ${JSON.stringify(parsed.gaps)}::jsonb, ${JSON.stringify(peaks)}::jsonb,
                 ${JSON.stringify(fit)}::jsonb, ${JSON.stringify({ medianHours: typical.medianHours, meanHours: typical.meanHours, fraction: typical.fraction })}::jsonb,
@@ -236,7 +289,14 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
       annualPeaks: peaks,
       fit,
       typicalDurationHours: durationHours,
-      warnings: [...fit.warnings, ...perFlow.warnings],
+      warnings: [parsed.unitsNote, ...parsed.warnings, ...fit.warnings, ...perFlow.warnings],
+      format: parsed.format,
+      units: parsed.units,
+      unitsNote: parsed.unitsNote,
+      columns: parsed.columns,
+      qualityCodes: parsed.qualityCodes,
+      droppedProvisional: parsed.droppedProvisional,
+      aggregated: parsed.aggregated,
     };
   }
 
@@ -261,7 +321,7 @@ export function createRiversService(deps: { db: Database; onRiverChanged?: (rive
 
   async function scenarios(user: CurrentUser, riverId: string): Promise<Scenario[]> {
     await load(user, riverId);
-    const res = await db.execute<{ id: string; river_id: string; name: string; kind: Scenario['kind']; aep: number | null; discharge: number; duration_hours: number; source: unknown }>(sql`
+    const res = await db.execute<{ id: string; river_id: string; name: string; kind: Scenario['kind']; aep: number | null; discharge: number; duration_hours: number; source: Scenario['source'] }>(sql`
       SELECT * FROM scenarios WHERE river_id = ${riverId}::uuid ORDER BY kind, aep DESC NULLS LAST, discharge`);
     return res.rows.map((s) => ({ id: s.id, riverId: s.river_id, name: s.name, kind: s.kind, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, source: s.source }));
   }

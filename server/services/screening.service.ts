@@ -21,6 +21,8 @@ import { salinityBandId, screeningBandSpecs, strictestSpecies } from '#shared/sc
 import { daysBelowTolerance, scoreLease } from '#shared/scoring/score-lease';
 import type { Database } from '../db/client';
 import { NotFoundError, UnprocessableError } from '../lib/errors';
+
+import { BUILTIN_COAST_CAUTION } from './builtin-coast.service';
 import { footprintCoastFrame } from './coast-positions';
 
 const RATING_ORDER = ['low', 'moderate', 'high', 'severe'] as const;
@@ -36,6 +38,7 @@ interface RiverInputs {
   coastId: string;
   coastGeometry: Geometry;
   coastStamp: string;
+  coastSource: string;
 }
 
 /** One scenario of a screening run and the footprint its leases are screened against. */
@@ -51,7 +54,10 @@ export interface FlowSpec {
 }
 
 /** The water and plume inputs of the engine for a river at one flow (shared with the browser's previews). */
-export function plumeFor(settings: RiverSettings, flow: { discharge: number; durationHours: number }): { plume: PlumeResult; params: ExposureParameters } {
+export function plumeFor(
+  settings: RiverSettings,
+  flow: { discharge: number; durationHours: number },
+): { plume: PlumeResult; params: ExposureParameters } {
   return riverPlume(settings, flow);
 }
 
@@ -127,6 +133,27 @@ export async function leaseBandFractions(db: Database, footprintId: string, wher
   return new Map(fractions.rows.map((r) => [r.lease_id, r.fractions]));
 }
 
+/**
+ * Which leases a river screens (issue #15), as SQL over a lease alias:
+ * - leases of the river's jurisdiction and leases of the river's creator (as before), and
+ * - any lease its plume can reach (it meets a stored footprint band of the river) whose holder may use
+ *   the river: a river of any jurisdiction (shared by the authority), or a river created by an adviser the
+ *   holder has an accepted client link with. Another grower's private river (no jurisdiction) never pairs.
+ */
+function riverReachesLeaseSql(riverId: SQL, jurisdictionId: SQL, ownerId: SQL, alias: string): SQL {
+  const a = sql.raw(alias);
+  return sql`((${jurisdictionId} IS NOT NULL AND ${a}.jurisdiction_id = ${jurisdictionId})
+    OR ${a}.owner_id = ${ownerId}
+    OR ((${jurisdictionId} IS NOT NULL
+         OR EXISTS (SELECT 1 FROM client_invitations ci WHERE ci.status = 'accepted' AND ci.adviser_id = ${ownerId} AND ci.grower_id = ${a}.owner_id))
+        AND EXISTS (SELECT 1 FROM footprints rf JOIN footprint_band_pieces rp ON rp.footprint_id = rf.id
+                     WHERE rf.river_id = ${riverId} AND rp.band_id = 'plume-edge' AND ST_Intersects(rp.geom, ${a}.geom))))`;
+}
+
+function riverReachesLease(river: { id: string; jurisdictionId: string | null; ownerId: string | null }, alias: string): SQL {
+  return riverReachesLeaseSql(sql`${river.id}::uuid`, sql`${river.jurisdictionId}::uuid`, sql`${river.ownerId}::text`, alias);
+}
+
 export function createScreeningService(deps: { db: Database }) {
   const { db } = deps;
 
@@ -143,8 +170,8 @@ export function createScreeningService(deps: { db: Database }) {
       SELECT id, name, version, jurisdiction_id, owner_id, settings, coast_id FROM rivers WHERE id = ${riverId}::uuid`);
     const river = res.rows[0];
     if (!river) throw new NotFoundError('No river with this id.');
-    const coast = await db.execute<{ id: string; geometry: string; created_at: Date }>(sql`
-      SELECT id, ST_AsGeoJSON(geom) AS geometry, created_at FROM coasts
+    const coast = await db.execute<{ id: string; geometry: string; created_at: Date; source: string }>(sql`
+      SELECT id, ST_AsGeoJSON(geom) AS geometry, created_at, source FROM coasts
        WHERE (${river.coast_id}::uuid IS NOT NULL AND id = ${river.coast_id}::uuid)
           OR (${river.coast_id}::uuid IS NULL AND ((shared AND jurisdiction_id = ${river.jurisdiction_id}::uuid) OR owner_id = ${river.owner_id}))
        ORDER BY (id = ${river.coast_id}::uuid) DESC NULLS LAST, (form = 'line') DESC, shared DESC, created_at DESC LIMIT 1`);
@@ -163,6 +190,7 @@ export function createScreeningService(deps: { db: Database }) {
       coastId: coast.rows[0].id,
       coastGeometry: JSON.parse(coast.rows[0].geometry),
       coastStamp: `${coast.rows[0].id}@${new Date(coast.rows[0].created_at).toISOString()}`,
+      coastSource: coast.rows[0].source,
     };
   }
 
@@ -226,7 +254,8 @@ export function createScreeningService(deps: { db: Database }) {
       if (err instanceof RangeError || err instanceof TypeError) throw new UnprocessableError(`${river.name}: ${(err as Error).message}`);
       throw err;
     }
-    const warnings = [...plume.warnings, ...footprint.warnings];
+
+    const warnings = [...plume.warnings, ...footprint.warnings, ...(river.coastSource === 'builtin' ? [BUILTIN_COAST_CAUTION] : [])];
     const inserted = await tx.execute<{ id: string }>(sql`
       INSERT INTO footprints (river_id, scenario_id, discharge, duration_hours, model_version, input_hash, plume, warnings, path)
       VALUES (${river.id}::uuid, ${flow.scenarioId ?? null}::uuid, ${flow.discharge}, ${flow.durationHours}, ${MODEL_VERSION}, ${inputHash},
@@ -262,10 +291,24 @@ export function createScreeningService(deps: { db: Database }) {
     return { id, plume, created: true };
   }
 
-  /** Leases a river screens: those of its jurisdiction and those of its owner. */
+  /** Leases a river screens (see riverReachesLease): those of its jurisdiction, its owner's, and any it may reach. */
   function scopedLeases(river: RiverInputs, alias = 'l') {
-    const a = sql.raw(alias);
-    return sql`((${river.jurisdictionId}::uuid IS NOT NULL AND ${a}.jurisdiction_id = ${river.jurisdictionId}::uuid) OR ${a}.owner_id = ${river.ownerId})`;
+    return riverReachesLease({ id: river.id, jurisdictionId: river.jurisdictionId, ownerId: river.ownerId }, alias);
+  }
+
+  /** The same set as scopedLeases, found through the indexes (the footprint pieces first, then the leases they meet). */
+  async function pairedLeaseIds(river: RiverInputs, leaseIds?: string[]): Promise<string[]> {
+    const only = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
+    const res = await db.execute<{ id: string }>(sql`
+      SELECT l.id FROM leases l
+       WHERE ((${river.jurisdictionId}::uuid IS NOT NULL AND l.jurisdiction_id = ${river.jurisdictionId}::uuid) OR l.owner_id = ${river.ownerId}) ${only}
+      UNION
+      SELECT DISTINCT l.id FROM footprints f JOIN footprint_band_pieces p ON p.footprint_id = f.id AND p.band_id = 'plume-edge'
+        JOIN leases l ON ST_Intersects(p.geom, l.geom)
+       WHERE f.river_id = ${river.id}::uuid ${only}
+         AND (${river.jurisdictionId}::uuid IS NOT NULL
+              OR EXISTS (SELECT 1 FROM client_invitations ci WHERE ci.status = 'accepted' AND ci.adviser_id = ${river.ownerId} AND ci.grower_id = l.owner_id))`);
+    return res.rows.map((r) => r.id);
   }
 
   /** Screens every scoped lease under one scenario's footprint, replacing earlier rows. */
@@ -276,7 +319,9 @@ export function createScreeningService(deps: { db: Database }) {
     leaseIds?: string[],
   ) {
     const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
-    const byLease = await leaseBandFractions(db, footprint.id, sql`${scopedLeases(river)} ${leaseFilter}`);
+    // leaseIds (the paired leases, from screenLeases) stand for the river's scope; without them the scope is computed here.
+    const scope = leaseIds ? sql`true` : scopedLeases(river);
+    const byLease = await leaseBandFractions(db, footprint.id, sql`${scope} ${leaseFilter}`);
     // The path's ellipsoidal length and its geography are worked out once (a MATERIALIZED CTE), not once per lease:
     // that repetition was two thirds of this query's time (EXPLAIN ANALYZE in DEVELOPERS.md), for the same values.
     const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null; lon: number; lat: number }>(sql`
@@ -285,7 +330,7 @@ export function createScreeningService(deps: { db: Database }) {
              ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * f.len AS s,
              ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat
         FROM leases l, f
-       WHERE ${scopedLeases(river)} ${leaseFilter}`);
+       WHERE ${scope} ${leaseFilter}`);
     const { params } = plumeFor(river.settings, scenario);
     const days = scenario.durationHours / 24;
     // Each lease in the plume is judged at its own worst point: its outline and centroid placed in
@@ -482,6 +527,7 @@ export function createScreeningService(deps: { db: Database }) {
     const river = await riverInputs(riverId);
     const scenarios = await db.execute<{ id: string; aep: number | null; discharge: number; duration_hours: number; name: string }>(sql`
       SELECT id, aep, discharge, duration_hours, name FROM scenarios WHERE river_id = ${riverId}::uuid ORDER BY discharge`);
+
     const plan: ScreeningPlanItem[] = [];
     for (const [i, s] of scenarios.rows.entries()) {
       await onProgress?.(i, scenarios.rows.length, `Building the plume for ${s.name}`);
@@ -491,6 +537,11 @@ export function createScreeningService(deps: { db: Database }) {
         scenario: { id: s.id, aep: s.aep, discharge: s.discharge, durationHours: s.duration_hours, name: s.name },
       });
     }
+    // A lease the changed river no longer reaches (its footprints moved) loses that river's results.
+    const paired = await pairedLeaseIds(river);
+    const keep = sql`(SELECT jsonb_array_elements_text(${JSON.stringify(paired)}::jsonb)::uuid)`;
+    await db.execute(sql`DELETE FROM screenings WHERE river_id = ${riverId}::uuid AND lease_id NOT IN ${keep}`);
+    await db.execute(sql`DELETE FROM lease_annual_exposure WHERE river_id = ${riverId}::uuid AND lease_id NOT IN ${keep}`);
     // Scenarios deleted since: their screenings went with them (cascade); stale footprints of older versions are dropped.
     await db.execute(
       sql`DELETE FROM footprints f WHERE f.river_id = ${riverId}::uuid AND f.scenario_id IS NULL AND f.created_at < now() - interval '1 day'`,
@@ -505,16 +556,17 @@ export function createScreeningService(deps: { db: Database }) {
     const plumes = new Map(res.rows.map((r) => [r.id, r.plume]));
     return items.map((i) => {
       const plume = plumes.get(i.footprintId);
-      if (!plume) throw new UnprocessableError(`The plume for ${i.scenario.name} was replaced while its leases were being screened; a newer run screens them.`);
+      if (!plume)
+        throw new UnprocessableError(
+          `The plume for ${i.scenario.name} was replaced while its leases were being screened; a newer run screens them.`,
+        );
       return { footprint: { id: i.footprintId, plume }, scenario: i.scenario };
     });
   }
 
   /** Ids of the leases a river screens (all, or those of `leaseIds`), in a stable order for chunking. */
   async function scopedLeaseIds(river: RiverInputs, leaseIds?: string[]): Promise<string[]> {
-    const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
-    const res = await db.execute<{ id: string }>(sql`SELECT l.id FROM leases l WHERE ${scopedLeases(river)} ${leaseFilter} ORDER BY l.id`);
-    return res.rows.map((r) => r.id);
+    return (await pairedLeaseIds(river, leaseIds)).sort();
   }
 
   /**
@@ -523,9 +575,12 @@ export function createScreeningService(deps: { db: Database }) {
    * alone, so screening the leases in chunks gives the same rows as screening them at once.
    */
   async function screenLeases(river: RiverInputs, plan: ScreeningPlanItem[], leaseIds?: string[]) {
+    // Only the leases this river reaches (given ones may lie beyond it); screenFootprint takes them as the scope.
+    const paired = await scopedLeaseIds(river, leaseIds);
     let screened = 0;
-    for (const item of plan) screened += await screenFootprint(river, item.footprint, item.scenario, leaseIds);
-    await annualise(river, leaseIds);
+    for (const item of plan) screened += await screenFootprint(river, item.footprint, item.scenario, paired);
+    await annualise(river, paired);
+
     return screened;
   }
 
@@ -542,10 +597,10 @@ export function createScreeningService(deps: { db: Database }) {
     return { scenarios: plan.length, screenings: screened };
   }
 
-  /** Rivers whose screenings a change to these leases affects. */
+  /** Rivers whose screenings a change to these leases affects: every river that pairs with one of them. */
   async function riversForLeases(leaseIds: string[]): Promise<string[]> {
     const res = await db.execute<{ id: string }>(sql`
-      SELECT DISTINCT r.id FROM rivers r JOIN leases l ON (r.jurisdiction_id IS NOT NULL AND r.jurisdiction_id = l.jurisdiction_id) OR r.owner_id = l.owner_id
+      SELECT DISTINCT r.id FROM rivers r JOIN leases l ON ${riverReachesLeaseSql(sql`r.id`, sql`r.jurisdiction_id`, sql`r.owner_id`, 'l')}
        WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)`);
     return res.rows.map((r) => r.id);
   }

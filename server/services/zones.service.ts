@@ -523,21 +523,21 @@ export function createZonesService(deps: {
       bandFractions: l.fractions ?? {},
     }));
     const map = {
-      type: 'FeatureCollection',
+      type: 'FeatureCollection' as const,
       features: [
         ...bands.rows.map((b) => ({
-          type: 'Feature',
-          properties: { layer: 'band', bandId: b.band_id, name: b.name, order: b.sort_order },
+          type: 'Feature' as const,
+          properties: { layer: 'band' as const, bandId: b.band_id, name: b.name, order: b.sort_order },
           geometry: JSON.parse(b.geometry),
         })),
         ...zoneRows.rows.map((z) => ({
-          type: 'Feature',
-          properties: { layer: 'zone', id: z.id, name: z.name, status: z.status },
+          type: 'Feature' as const,
+          properties: { layer: 'zone' as const, id: z.id, name: z.name, status: z.status },
           geometry: JSON.parse(z.geometry),
         })),
         ...leaseRows.rows.map((l) => ({
-          type: 'Feature',
-          properties: { layer: 'lease', id: l.id, name: l.lease_code, holder: l.holder },
+          type: 'Feature' as const,
+          properties: { layer: 'lease' as const, id: l.id, name: l.lease_code, holder: l.holder },
           geometry: JSON.parse(l.geometry),
         })),
       ],

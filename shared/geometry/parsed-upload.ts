@@ -7,7 +7,7 @@
 import type { Feature, Geometry } from 'geojson';
 
 /** The uploaded file's format, told from its content. */
-export type UploadFormat = 'shapefile' | 'geojson';
+export type UploadFormat = 'shapefile' | 'geojson' | 'kml' | 'kmz' | 'gpx' | 'geopackage';
 
 /** What an upload is for: lease boundaries, a coast (line or land polygons), or closure zones. */
 export type UploadKind = 'lease' | 'coast' | 'zone';
@@ -47,4 +47,16 @@ export interface ParsedUpload {
   layers: ParsedLayer[];
   /** Things the user should know that did not stop the upload (assumed encodings, dropped heights…), one sentence each. */
   warnings: string[];
+  /** Every layer the file holds (shapefiles in a zip, KML folders, GPX tracks and waypoints, GeoPackage tables), when it holds more than one. */
+  layerSummaries?: LayerSummary[];
+  /** The layer the user picked, when one was. */
+  selectedLayer?: string;
+}
+
+/** A layer of a file with several, as listed in the preview for the user to pick one. */
+export interface LayerSummary {
+  name: string;
+  featureCount: number;
+  /** GeoJSON geometry types in the layer ('null' for features without geometry). */
+  geometryTypes: string[];
 }

@@ -8,13 +8,17 @@
  * Pure and isomorphic: Uint8Array in, plain JSON out; no I/O, clock or randomness.
  */
 import { ALLOWED_GEOMETRY_TYPES, checkGeometries } from './check-geometries';
-import type { CrsInfo, ParsedLayer, ParsedUpload, UploadKind } from './parsed-upload';
+import type { CrsInfo, LayerSummary, ParsedLayer, ParsedUpload, UploadFormat, UploadKind } from './parsed-upload';
+import { type OpenSqlite, readGeoPackage } from './read-geopackage';
 import { readGeoJson } from './read-geojson';
+import { readKmlOrGpx } from './read-kml-gpx';
 import { readShapefileZip } from './read-shapefile-zip';
-import { UploadError } from './upload-error';
-import { formatBytes, resolveUploadLimits, type UploadLimits, UPLOAD_LIMIT_SETTINGS } from './upload-limits';
+import { listZipEntries } from './unzip-entries';
+import { isUploadError, UploadError } from './upload-error';
+import { formatBytes, formatCount, resolveUploadLimits, type UploadLimits, UPLOAD_LIMIT_SETTINGS } from './upload-limits';
 
-export type { CrsInfo, ParsedLayer, ParsedUpload, UploadKind } from './parsed-upload';
+export type { CrsInfo, LayerSummary, ParsedLayer, ParsedUpload, UploadFormat, UploadKind } from './parsed-upload';
+export type { OpenSqlite, SqliteDatabase } from './read-geopackage';
 export { DEFAULT_UPLOAD_LIMITS, type UploadLimits } from './upload-limits';
 
 /** Optional helpers for {@link readUpload}. */
@@ -24,6 +28,12 @@ export interface ReadUploadOptions {
    * passes `(wkt) => identifyCrs(loadCrsCatalogue(), wkt)` from crs-catalogue.ts; the browser can omit it.
    */
   identifyEpsg?: (wkt: string) => number | undefined;
+  /** Opens a SQLite database, for GeoPackage uploads (the server passes sql.js). Without it a GeoPackage is refused. */
+  openSqlite?: OpenSqlite;
+  /** Read only this layer (shapefile basename, KML folder path, GeoPackage table); absent = every usable layer. */
+  layer?: string;
+  /** GPX: the user confirmed that each track or route outlines an area (lease and zone uploads). */
+  tracksAsPolygons?: boolean;
 }
 
 /**
@@ -62,39 +72,104 @@ export async function readUpload(
       { bytes: bytes.length, limitBytes: lim.maxCompressedBytes },
     );
   }
-  const format = detectFormat(bytes, fileName);
+  const detected = detectFormat(bytes, fileName);
   const warnings: string[] = [];
   const raw: { name: string; crs: CrsInfo; fields: string[]; features: Parameters<typeof checkGeometries>[0]; encoding?: string }[] = [];
-  if (format === 'zip') {
+  let format: UploadFormat;
+  if (detected === 'zip' && isKmz(bytes, fileName)) {
+    const xml = readKmlOrGpx(bytes, fileName, kind, lim, true, options);
+    format = xml.format;
+    warnings.push(...xml.warnings);
+    raw.push(...xml.layers);
+  } else if (detected === 'zip') {
+    format = 'shapefile';
     const zip = readShapefileZip(bytes, lim);
     warnings.push(...zip.warnings);
     raw.push(...zip.layers);
+  } else if (detected === 'sqlite') {
+    format = 'geopackage';
+    if (!options?.openSqlite) {
+      throw new UploadError('unsupported_format', `${fileName} is a GeoPackage, which this reader cannot open here. Upload it to the server, or export the layer as a zipped shapefile or GeoJSON.`, {
+        fileName,
+        detected: 'GeoPackage',
+      });
+    }
+    const gpkg = await readGeoPackage(bytes, fileName, options.openSqlite, lim);
+    warnings.push(...gpkg.warnings);
+    raw.push(...gpkg.layers);
   } else {
     if (bytes.length > lim.maxUncompressedBytes) {
       throw new UploadError(
         'uncompressed_too_large',
-        `The file is ${formatBytes(bytes.length)}; this server reads at most ${formatBytes(lim.maxUncompressedBytes)} of GeoJSON per upload (setting ${UPLOAD_LIMIT_SETTINGS.maxUncompressedBytes}). ` +
+        `The file is ${formatBytes(bytes.length)}; this server reads at most ${formatBytes(lim.maxUncompressedBytes)} of ${detected === 'xml' ? 'KML or GPX' : 'GeoJSON'} per upload (setting ${UPLOAD_LIMIT_SETTINGS.maxUncompressedBytes}). ` +
           'Split the file, or simplify the boundaries, and upload again.',
         { bytes: bytes.length, limitBytes: lim.maxUncompressedBytes },
       );
     }
-    const json = readGeoJson(bytes, fileName, lim);
-    warnings.push(...json.warnings);
-    raw.push(json.layer);
-    if (/\.zip$/i.test(fileName)) warnings.push(`${fileName} is named .zip but holds GeoJSON text; it was read as GeoJSON.`);
+    if (detected === 'xml') {
+      const xml = readKmlOrGpx(bytes, fileName, kind, lim, false, options);
+      format = xml.format;
+      warnings.push(...xml.warnings);
+      raw.push(...xml.layers);
+    } else {
+      format = 'geojson';
+      const json = readGeoJson(bytes, fileName, lim);
+      warnings.push(...json.warnings);
+      raw.push(json.layer);
+      if (/\.zip$/i.test(fileName)) warnings.push(`${fileName} is named .zip but holds GeoJSON text; it was read as GeoJSON.`);
+    }
   }
 
+  // Shapefile and GeoJSON readers stop at the limit themselves; KML and GPX layers are counted here.
+  const total = raw.reduce((n, l) => n + l.features.length, 0);
+  if (total > lim.maxFeatures) {
+    throw new UploadError(
+      'too_many_features',
+      `The file has ${formatCount(total)} features; this server takes at most ${formatCount(lim.maxFeatures)} per upload (setting ${UPLOAD_LIMIT_SETTINGS.maxFeatures}). Split the file and upload the parts.`,
+      { features: total, limit: lim.maxFeatures },
+    );
+  }
+  const layerSummaries: LayerSummary[] = raw.map((l) => ({
+    name: l.name,
+    featureCount: l.features.length,
+    geometryTypes: [...new Set(l.features.map((f) => f.geometry?.type ?? 'null'))].sort(),
+  }));
+  let candidates = raw;
+  if (options?.layer !== undefined) {
+    const picked = raw.find((l) => l.name === options.layer);
+    if (!picked) {
+      throw new UploadError(
+        'layer_not_found',
+        `${fileName} has no layer “${options.layer}”. Its layers are: ${raw.map((l) => `“${l.name}”`).join(', ')}. Pick one of them.`,
+        { layer: options.layer, layers: raw.map((l) => l.name) },
+      );
+    }
+    candidates = [picked];
+  }
   // An empty layer beside non-empty ones is dropped; an upload with no features at all is refused by checkGeometries.
-  const nonEmpty = raw.filter((l) => l.features.length > 0);
-  const used = nonEmpty.length > 0 ? nonEmpty : raw.slice(0, 1);
-  for (const l of raw) {
+  const nonEmpty = candidates.filter((l) => l.features.length > 0);
+  const used = nonEmpty.length > 0 ? nonEmpty : candidates.slice(0, 1);
+  for (const l of candidates) {
     if (l.features.length === 0 && nonEmpty.length > 0) warnings.push(`Layer “${l.name}” holds no features and was left out.`);
   }
   const multiLayer = used.length > 1;
   const layers: ParsedLayer[] = [];
   let vertices = 0;
+  let firstRefusal: unknown;
   for (const l of used) {
-    const checked = checkGeometries(l.features, kind, { layerName: l.name, multiLayer, verticesBefore: vertices, limits: lim });
+    let checked: ReturnType<typeof checkGeometries>;
+    try {
+      checked = checkGeometries(l.features, kind, { layerName: l.name, multiLayer, verticesBefore: vertices, limits: lim });
+    } catch (err) {
+      // In a file of several layers (KML folders, GeoPackage tables), a layer of pins beside a layer of polygons is
+      // left out with a warning rather than refusing the file; the user can still pick the layer in the preview.
+      if (multiLayer && isUploadError(err) && err.code === 'wrong_geometry_type') {
+        firstRefusal ??= err;
+        warnings.push(`Layer “${l.name}” holds ${layerSummaries.find((s) => s.name === l.name)?.geometryTypes.join(', ')} features, which ${kind === 'coast' ? 'a coast' : kind === 'zone' ? 'a closure zone' : 'a lease'} cannot use; it was left out.`);
+        continue;
+      }
+      throw withFormatHint(err, format, kind);
+    }
     vertices += checked.vertexCount;
     warnings.push(...checked.warnings);
     let crs = l.crs;
@@ -111,22 +186,53 @@ export async function readUpload(
       vertexCount: checked.vertexCount,
     });
   }
-  return { format: format === 'zip' ? 'shapefile' : 'geojson', layers, warnings };
+  if (layers.length === 0) throw withFormatHint(firstRefusal, format, kind);
+  return { format, layers, warnings, ...(raw.length > 1 ? { layerSummaries } : {}), ...(options?.layer !== undefined ? { selectedLayer: options.layer } : {}) };
+}
+
+/** Adds what to do in a globe viewer or GPS app to a geometry-type refusal of a KML/KMZ/GPX upload. */
+function withFormatHint(err: unknown, format: UploadFormat, kind: UploadKind): unknown {
+  if (!isUploadError(err) || err.code !== 'wrong_geometry_type' || kind === 'coast') return err;
+  const hint =
+    format === 'kml' || format === 'kmz'
+      ? ' In a globe viewer, draw each lease with the polygon tool (a pin is a point, a path is a line), then save the places as KML or KMZ again.'
+      : format === 'gpx'
+        ? ' GPX waypoints are points: walk or draw the outline as a track or route instead, and confirm that the tracks are areas.'
+        : '';
+  return hint ? new UploadError(err.code, err.message + hint, err.details) : err;
 }
 
 /**
- * Tells the format from the first bytes: a zip (local file header "PK\x03\x04", APPNOTE.TXT §4.3.7) or
- * JSON (after an optional byte-order mark and whitespace, `{` or `[`). Anything else is refused with 415,
- * naming what the file looks like (an image, a PDF, KML/XML, a bare .shp…) and what to send instead.
+ * A zip is a KMZ when it is named so, or when it holds a .kml and no .shp.
+ *
+ * @example
+ * isKmz(zipBytes, 'leases.kmz') // true
+ */
+export function isKmz(bytes: Uint8Array, fileName: string): boolean {
+  if (/\.kmz$/i.test(fileName)) return true;
+  let paths: string[];
+  try {
+    paths = listZipEntries(bytes).map((e) => e.path.toLowerCase());
+  } catch {
+    return false; // the shapefile reader reports the damage
+  }
+  return paths.some((p) => p.endsWith('.kml')) && !paths.some((p) => p.endsWith('.shp'));
+}
+
+/**
+ * Tells the format from the first bytes: a zip (local file header "PK\x03\x04", APPNOTE.TXT §4.3.7; a
+ * shapefile zip or a KMZ), JSON (after an optional byte-order mark and whitespace, `{` or `[`), XML (`<`:
+ * KML or GPX) or SQLite ("SQLite format 3", a GeoPackage). Anything else is refused with 415, naming what
+ * the file looks like (an image, a PDF, a bare .shp…) and what to send instead.
  *
  * @param bytes - the file (non-empty).
  * @param fileName - for the message.
- * @returns 'zip' or 'json'.
+ * @returns 'zip', 'json', 'xml' or 'sqlite'.
  * @throws UploadError unsupported_format (415); empty_zip (422) for an empty zip archive.
  * @example
  * detectFormat(new TextEncoder().encode(' {"type":"FeatureCollection"}'), 'a.geojson') // 'json'
  */
-export function detectFormat(bytes: Uint8Array, fileName: string): 'zip' | 'json' {
+export function detectFormat(bytes: Uint8Array, fileName: string): 'zip' | 'json' | 'xml' | 'sqlite' {
   const b = (i: number) => bytes[i] ?? -1;
   const starts = (...sig: number[]) => sig.every((v, i) => b(i) === v);
   if (starts(0x50, 0x4b, 0x03, 0x04)) return 'zip';
@@ -139,9 +245,12 @@ export function detectFormat(bytes: Uint8Array, fileName: string): 'zip' | 'json
   let i = starts(0xef, 0xbb, 0xbf) ? 3 : 0;
   while (i < bytes.length && (bytes[i] === 0x20 || bytes[i] === 0x09 || bytes[i] === 0x0a || bytes[i] === 0x0d)) i++;
   if (bytes[i] === 0x7b || bytes[i] === 0x5b) return 'json';
+  // "SQLite format 3\0" (sqlite.org/fileformat.html §1.3): a GeoPackage is a SQLite database.
+  if (starts(0x53, 0x51, 0x4c, 0x69, 0x74, 0x65, 0x20, 0x66, 0x6f, 0x72, 0x6d, 0x61, 0x74, 0x20, 0x33, 0x00)) return 'sqlite';
+  if (bytes[i] === 0x3c) return 'xml';
 
   const accepted =
-    'This server reads a zipped shapefile (a .zip holding the .shp, .shx, .dbf and .prj) or a GeoJSON file (.geojson or .json).';
+    'This server reads a zipped shapefile (a .zip holding the .shp, .shx, .dbf and .prj), GeoJSON (.geojson or .json), KML or KMZ, GPX, or a GeoPackage (.gpkg).';
   let what = 'a kind of file this server does not read';
   let fix = 'Export the layer as a zipped shapefile or as GeoJSON and upload that.';
   if (starts(0x00, 0x00, 0x27, 0x0a)) {
@@ -161,9 +270,8 @@ export function detectFormat(bytes: Uint8Array, fileName: string): 'zip' | 'json
   } else if (starts(0x37, 0x7a, 0xbc, 0xaf)) {
     what = 'a 7z archive';
     fix = 'Pack the shapefile’s files in a .zip instead and upload that.';
-  } else if (starts(0x53, 0x51, 0x4c, 0x69, 0x74, 0x65)) what = 'a SQLite database (a GeoPackage?)';
+  } else if (starts(0x53, 0x51, 0x4c, 0x69, 0x74, 0x65)) what = 'a damaged SQLite header (not a readable GeoPackage)';
   else if (starts(0xd0, 0xcf, 0x11, 0xe0) || starts(0x50, 0x4b, 0x07, 0x08)) what = 'an office document or a split archive';
-  else if (bytes[i] === 0x3c) what = 'XML or HTML (KML, GPX and GML are not read)';
   else if (looksLikeText(bytes)) what = 'plain text that is not JSON (a CSV table?)';
   throw new UploadError('unsupported_format', `${fileName} is ${what}. ${accepted} ${fix}`, { fileName, detected: what });
 }

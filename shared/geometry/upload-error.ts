@@ -43,6 +43,12 @@ export type UploadErrorStatus = 400 | 413 | 415 | 422;
  * | crs_required | 422 | reprojection asked for without a usable CRS |
  * | coordinates_out_of_range | 422 | after reprojection, |lon| > 180 or |lat| > 90 |
  * | coordinates_swapped | 422 | latitude and longitude look swapped |
+ * | invalid_xml | 400 | a KML or GPX file that is not well-formed XML |
+ * | no_kml_in_kmz | 422 | a KMZ without doc.kml or any .kml |
+ * | tracks_need_confirmation | 422 | GPX tracks for a lease/zone, not yet confirmed as areas |
+ * | invalid_geopackage | 422 | SQLite that is not a GeoPackage, a missing table or srs, an unreadable geometry |
+ * | no_geometry_columns | 422 | a GeoPackage of attribute tables only |
+ * | layer_not_found | 422 | the picked layer is not in the file |
  */
 export type UploadErrorCode =
   | 'empty_file'
@@ -74,7 +80,13 @@ export type UploadErrorCode =
   | 'too_many_vertices'
   | 'crs_required'
   | 'coordinates_out_of_range'
-  | 'coordinates_swapped';
+  | 'coordinates_swapped'
+  | 'invalid_xml'
+  | 'no_kml_in_kmz'
+  | 'tracks_need_confirmation'
+  | 'invalid_geopackage'
+  | 'no_geometry_columns'
+  | 'layer_not_found';
 
 /** Status of each code, so a code is never paired with two statuses. */
 const STATUS_OF: Record<UploadErrorCode, UploadErrorStatus> = {
@@ -108,6 +120,12 @@ const STATUS_OF: Record<UploadErrorCode, UploadErrorStatus> = {
   crs_required: 422,
   coordinates_out_of_range: 422,
   coordinates_swapped: 422,
+  invalid_xml: 400,
+  no_kml_in_kmz: 422,
+  tracks_need_confirmation: 422,
+  invalid_geopackage: 422,
+  no_geometry_columns: 422,
+  layer_not_found: 422,
 };
 
 /**

@@ -280,16 +280,26 @@ function headerLayout(fields: string[]): ColumnLayout | null {
   return { count: fields.length, date, time, discharge, names: fields.map((f) => f || '(blank)') };
 }
 
-/** @private Comma unless the line has none and uses tabs or semicolons instead. */
-function pickDelimiter(line: string): string {
+/**
+ * Comma unless the line has none and uses tabs or semicolons instead.
+ *
+ * @example
+ * pickDelimiter('date\tflow') // '\t'
+ */
+export function pickDelimiter(line: string): string {
   if (line.includes(',')) return ',';
   if (line.includes('\t')) return '\t';
   if (line.includes(';')) return ';';
   return ',';
 }
 
-/** @private Splits a CSV line, honouring double quotes ("" inside quotes is a quote); fields trimmed. */
-function splitFields(line: string, delimiter: string): string[] {
+/**
+ * Splits a CSV line, honouring double quotes ("" inside quotes is a quote); fields trimmed.
+ *
+ * @example
+ * splitFields('2021-01-01,"1 200",A', ',') // ['2021-01-01', '1 200', 'A']
+ */
+export function splitFields(line: string, delimiter: string): string[] {
   if (!line.includes('"')) return line.split(delimiter).map((f) => f.trim());
   const fields: string[] = [];
   let current = '';

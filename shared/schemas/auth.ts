@@ -25,6 +25,8 @@ export const signUpSchema = z.strictObject({
   email: emailSchema,
   password: passwordSchema,
   organisationName: z.string().trim().max(160, { error: 'organisationName must be at most 160 characters' }).optional(),
+  /** The region picked at sign-up (GET /regions), or none. */
+  regionId: z.uuid({ error: 'regionId must be a region id (UUID) from the list, or left out for none' }).nullable().optional(),
 });
 export type SignUpInput = z.infer<typeof signUpSchema>;
 

@@ -1,5 +1,6 @@
 /** Closure zones that are closed (or waiting to reopen) near the caller's leases, for the overview. */
 import { z } from 'zod';
+import { areaGeometrySchema } from './geojson';
 
 export const ZONE_STATUSES = ['open', 'closed', 'reopening-pending'] as const;
 export type ZoneStatus = (typeof ZONE_STATUSES)[number];
@@ -35,7 +36,7 @@ export const zoneMapSchema = z.object({
         riverName: z.string().nullable(),
         triggerFlow: z.number().nullable().describe("The management plan's trigger flow, m³/s"),
       }),
-      geometry: z.unknown().describe('GeoJSON MultiPolygon in EPSG:4326'),
+      geometry: areaGeometrySchema.describe('GeoJSON MultiPolygon in EPSG:4326'),
     }),
   ),
 });

@@ -47,3 +47,81 @@ export const floodFrequencyRequestSchema = z.strictObject({
 });
 
 export type FloodFrequencyRequest = z.infer<typeof floodFrequencyRequestSchema>;
+
+/** A flow at an annual exceedance probability, with its confidence limits when computed. */
+export const floodQuantileSchema = z.object({
+  aep: z.number().describe('Annual exceedance probability (0–1)'),
+  returnPeriod: z.number().describe('1 / aep (years)'),
+  discharge: z.number().describe('Flow at this AEP, in the units of the peaks'),
+  lower: z.number().optional().describe('Lower confidence limit'),
+  upper: z.number().optional().describe('Upper confidence limit'),
+});
+
+const lowOutlierSchema = z.object({ index: z.number().int(), value: z.number() });
+
+/** Result of a flood-frequency fit (shared/hydrology/flood-frequency.ts FloodFrequencyResult). */
+export const floodFrequencyResultSchema = z.object({
+  n: z.number().int().describe('Number of annual peaks'),
+  gev: z.object({
+    location: z.number(),
+    scale: z.number(),
+    shape: z.number().describe("Hosking's k"),
+    shapeMethod: z.enum(['approximation', 'exact']),
+    lMoments: z.object({
+      n: z.number(),
+      b0: z.number(),
+      b1: z.number(),
+      b2: z.number(),
+      l1: z.number(),
+      l2: z.number(),
+      l3: z.number(),
+      t3: z.number(),
+    }),
+    quantiles: z.array(floodQuantileSchema),
+  }),
+  lp3: z.object({
+    mean: z.number().describe('Mean of log10 peaks'),
+    stdDev: z.number().describe('Standard deviation of log10 peaks'),
+    skew: z.number().describe('Station skew of log10 peaks'),
+    weightedSkew: z.number().optional().describe('Station skew weighted with the regional skew'),
+    skewUsed: z.number(),
+    quantiles: z.array(floodQuantileSchema),
+  }),
+  gumbel: z.object({ method: z.enum(['moments', 'l-moments']), location: z.number(), scale: z.number(), quantiles: z.array(floodQuantileSchema) }),
+  plottingPositions: z.array(
+    z.object({
+      rank: z.number().int(),
+      value: z.number(),
+      index: z.number().int(),
+      aep: z.number(),
+      nonExceedance: z.number(),
+      returnPeriod: z.number(),
+      waterYear: z.number().int().optional(),
+    }),
+  ),
+  lowOutliers: z.object({
+    grubbsBeck: z.object({
+      n: z.number().int(),
+      applicable: z.boolean(),
+      criticalValue: z.number().nullable(),
+      threshold: z.number().nullable(),
+      lowOutliers: z.array(lowOutlierSchema),
+    }),
+    multipleGrubbsBeck: z.object({
+      n: z.number().int(),
+      applicable: z.boolean(),
+      numberOfLowOutliers: z.number().int(),
+      threshold: z.number().nullable(),
+      lowOutliers: z.array(lowOutlierSchema),
+      pValues: z.array(z.number()),
+    }),
+  }),
+  confidence: z.object({
+    level: z.number(),
+    lp3: z.literal('bulletin-17b'),
+    gevAndGumbel: z.enum(['parametric-bootstrap', 'none']),
+    resamples: z.number().int(),
+    seed: z.number(),
+  }),
+  warnings: z.array(z.string()),
+});

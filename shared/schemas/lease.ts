@@ -1,5 +1,6 @@
 /** Lease contracts shared by the leases table, the lease page and the API. */
 import { z } from 'zod';
+import { areaGeometrySchema, featureCollectionSchema, featureSchema } from './geojson';
 
 export const leaseStatusSchema = z.enum(['held', 'candidate'], { error: 'status must be "held" or "candidate"' });
 export type LeaseStatus = z.infer<typeof leaseStatusSchema>;
@@ -75,7 +76,7 @@ export const leaseSchema = z.object({
     .describe("Chance a year of a salinity event harmful to the lease's species, over every river (rivers taken as independent)"),
   createdAt: z.string(),
   updatedAt: z.string(),
-  geometry: z.unknown().optional().describe('GeoJSON MultiPolygon in EPSG:4326'),
+  geometry: areaGeometrySchema.optional().describe('GeoJSON MultiPolygon in EPSG:4326'),
   scenarioRatings: z
     .record(z.string(), z.enum(['low', 'moderate', 'high', 'severe']))
     .optional()
@@ -100,6 +101,30 @@ export const leaseUpdateSchema = z.strictObject({
 export type LeaseUpdate = z.infer<typeof leaseUpdateSchema>;
 
 export const leaseExportQuerySchema = z.strictObject({
-  format: z.enum(['csv', 'geojson'], { error: 'format must be csv or geojson' }),
+  format: z.enum(['csv', 'geojson', 'gpkg', 'kml'], { error: 'format must be csv, geojson, gpkg (GeoPackage) or kml' }),
   status: leaseStatusSchema.optional(),
 });
+
+/** GET /leases/export?format=geojson: the leases as a GeoJSON download (properties as in leaseSchema). */
+export const leaseExportGeoJsonSchema = featureCollectionSchema(featureSchema(leaseSchema.omit({ geometry: true }), areaGeometrySchema));
+
+/**
+ * GET /leases/export?format=csv: RFC 4180 text with these columns. The yearly rating and its two figures come last
+ * (empty before screening), so readers of the earlier columns are unaffected.
+ */
+export const LEASE_EXPORT_CSV_COLUMNS = [
+  'id',
+  'lease_id',
+  'holder',
+  'species',
+  'status',
+  'area_m2',
+  'area_ha',
+  'on_land',
+  'owner',
+  'created_at',
+  'annual_rating',
+  'closure_days_per_year',
+  'harmful_salinity_chance_per_year',
+] as const;
+export const leaseExportCsvSchema = z.string().describe(`CSV (RFC 4180) with a header row: ${LEASE_EXPORT_CSV_COLUMNS.join(', ')}`);

@@ -21,7 +21,7 @@ export const stationListSchema = z.object({ items: z.array(stationSchema) });
 export const stationUploadResultSchema = z.object({
   created: z.number().int(),
   updated: z.number().int(),
-  format: z.enum(['shapefile', 'geojson', 'csv']),
+  format: z.enum(['shapefile', 'geojson', 'csv', 'kml', 'kmz', 'gpx', 'geopackage']),
   warnings: z.array(z.string()),
   items: z.array(stationSchema),
 });

@@ -114,3 +114,37 @@ export const PlumeResponseSchema = z.looseObject({
 
 /** A plume response. */
 export type PlumeResponse = z.infer<typeof PlumeResponseSchema>;
+
+/**
+ * Every number the plume chain returns (shared/physics/compute-plume.ts PlumeResult): the calculator's
+ * answer and a scenario's plume. A superset of PlumeResponseSchema's contract fields.
+ */
+export const plumeResultSchema = z.object({
+  coriolis: z.number().describe('Coriolis parameter f, negative in the southern hemisphere (s⁻¹)'),
+  reducedGravity: z.number().describe('Reduced gravity g′ (m s⁻²)'),
+  densityDifference: z.number().describe('Δρ = g′ρ0/g (kg m⁻³)'),
+  riverDensity: z.number().optional().describe('River water surface density (kg m⁻³); absent when g′ was given'),
+  seaDensity: z.number().optional().describe('Sea water surface density (kg m⁻³); absent when g′ was given'),
+  regime: PlumeRegimeSchema,
+  depth: z.number().describe('Coastal-current depth at the coast H0 (m)'),
+  width: z.number().describe('Coastal-current width W0 (m)'),
+  meanSpeed: z.number().describe('Mean speed of the coastal current U0 (m s⁻¹)'),
+  noseSpeed: z.number().describe('Advance speed of the current’s nose, c_p on a slope or c_w (m s⁻¹)'),
+  wallNoseSpeed: z.number().optional().describe('Wall-limit nose speed c_w (m s⁻¹)'),
+  slopeSpeed: z.number().optional().describe('c_α = αg′/|f| (m s⁻¹), when a slope is known'),
+  slopeWidth: z.number().optional().describe('Width over the sloping shelf W_p (m)'),
+  bulgeOffshoreExtent: z.number().describe('Offshore distance of the bulge front y_s (m)'),
+  bottomAttachmentDepth: z.number().describe('Bottom-attachment depth h_b (m)'),
+  bottomFrontDistance: z.number().optional().describe('Offshore distance of the h_b isobath (m), when a slope is known'),
+  reach: z.number().optional().describe('Distance along the coast reached by the end of the flood (m)'),
+  turnsTo: TurningSideSchema,
+  deformationRadius: z.number().nullable().describe('Internal deformation radius (m); null on the equator'),
+  kelvinNumber: z.number().describe('Kelvin number of the mouth (–)'),
+  froudeNumber: z.number().describe('Froude number of the mouth (–)'),
+  rossbyNumber: z.number().nullable().describe('Rossby number of the inflow (–); null on the equator'),
+  inflowVelocity: z.number().describe('Mean velocity through the mouth (m s⁻¹)'),
+  alongshoreShare: z.number().describe('Share of the discharge carried on into the coastal current (–)'),
+  alongshoreDischarge: z.number().describe('Discharge of the coastal current (m³/s)'),
+  warnings: z.array(z.string()).describe('Plain-English list of the model assumptions these inputs break'),
+  assumptions: z.array(z.string()).describe('Plain-English list of the assumptions behind every number'),
+});

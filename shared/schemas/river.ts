@@ -4,8 +4,11 @@
  * screens can say which numbers are still defaults.
  */
 import { z } from 'zod';
+
+import { floodFrequencyResultSchema } from './flood-frequency';
 import { MAX_ENTRAINMENT_COEFFICIENT, MIN_ENTRAINMENT_COEFFICIENT } from '../physics/constants';
 import { numberField, strictObjectError } from './physical-fields';
+import { plumeResultSchema } from './plume';
 import { IndicatorSpecSchema, RIVER_PARAMETER_DEFAULTS } from './river-parameters';
 import { latitudeField, salinityField, temperatureField } from './water';
 
@@ -102,22 +105,47 @@ export function applyRiverDefaults(input: RiverCreate): { settings: RiverSetting
   return { settings: filled as RiverSettings, defaultsUsed };
 }
 
+/** A river's stored settings: what was given, with every defaultable field filled in (see defaultsUsed). */
+export const riverSettingsSchema = z
+  .object(settingsShape)
+  .required(Object.fromEntries(DEFAULTABLE_FIELDS.map((f) => [f, true])) as { [K in DefaultableField]: true })
+  .describe('The river settings with every default filled in');
+
 export const riverSchema = z.object({
   id: z.string(),
   name: z.string(),
   jurisdictionId: z.string().nullable(),
   ownerId: z.string().nullable(),
-  settings: z.record(z.string(), z.unknown()),
+  settings: riverSettingsSchema,
   defaultsUsed: z.array(z.string()),
   version: z.number(),
   hasFlowRecord: z.boolean(),
+  /** Where the river's chosen coast comes from ('builtin': the open world coastline; null: the usual choice of uploaded coasts). */
+  coastSource: z.enum(['upload', 'traced', 'builtin']).nullable().optional(),
   createdAt: z.string(),
   updatedAt: z.string(),
 });
 export type River = z.infer<typeof riverSchema>;
 
 export const flowRecordUploadQuerySchema = z.strictObject({
-  units: z.enum(['m3s', 'cfs'], { error: "units must be 'm3s' (cubic metres per second) or 'cfs' (cubic feet per second)" }),
+  units: z
+    .enum(['m3s', 'cfs', 'auto'], {
+      error: "units must be 'm3s' (cubic metres per second), 'cfs' (cubic feet per second) or 'auto' (read from the file)",
+    })
+    .default('auto')
+    .describe("Units of the flows: 'm3s', 'cfs' (converted to m³/s) or 'auto' (WaterML unit of measure, or the CSV column name)"),
+  dateColumn: z.string().min(1).max(200).optional().describe('CSV: the date (or date-time) column; guessed when absent'),
+  dischargeColumn: z.string().min(1).max(200).optional().describe('CSV: the flow column; guessed when absent'),
+  qualityColumn: z.string().max(200).optional().describe("CSV: the quality or approval code column; guessed when absent; '' for none"),
+  dropProvisional: z
+    .enum(['true', 'false'], { error: 'dropProvisional must be true or false' })
+    .default('false')
+    .transform((v) => v === 'true')
+    .describe('Leave out readings whose code says provisional (P, provisional, unchecked)'),
+  daily: z
+    .enum(['max', 'mean'], { error: "daily must be 'max' or 'mean'" })
+    .optional()
+    .describe('Turn a sub-daily record into daily maxima or daily means (per calendar day as written in the file)'),
   waterYearStart: z
     .string()
     .regex(/^(0[1-9]|1[0-2])-(0[1-9]|[12]\d|3[01])$/, { error: 'waterYearStart must be a day of the year written MM-DD, e.g. 10-01' })
@@ -155,6 +183,120 @@ export const scenarioSchema = z.object({
   aep: z.number().nullable(),
   discharge: z.number(),
   durationHours: z.number(),
-  source: z.unknown().nullable(),
+  source: z
+    .union([
+      z
+        .object({
+          distribution: z.enum(['gev', 'lp3', 'gumbel']),
+          lower: z.number().nullable(),
+          upper: z.number().nullable(),
+          durationRule: z.string(),
+          recordId: z.string(),
+        })
+        .describe('A design flood of the flood-frequency fit (kind aep), with its confidence limits'),
+      z.object({ season: z.string(), percentile: z.number(), recordId: z.string() }).describe('A seasonal high flow of the record (kind seasonal)'),
+      z.object({ typedBy: z.string() }).describe('Typed by a user (kind manual)'),
+    ])
+    .nullable()
+    .describe('Where the scenario comes from'),
 });
 export type Scenario = z.infer<typeof scenarioSchema>;
+
+/** A data row of a gauge record that could not be used. */
+export const flowRecordProblemSchema = z.object({
+  row: z.number().int().describe('1-based line number in the file'),
+  value: z.string().describe('The raw text at fault'),
+  reason: z.string().describe('What is wrong and how to fix it'),
+});
+
+/** A run of calendar days with no reading. */
+export const flowRecordGapSchema = z.object({ from: z.string().describe('YYYY-MM-DD'), to: z.string().describe('YYYY-MM-DD'), missingDays: z.number().int() });
+
+/** The annual maximum of one water year (shared/hydrology/annual-maxima.ts). */
+export const annualPeakSchema = z.object({
+  waterYear: z.number().int().describe('Named for the calendar year in which it ends'),
+  discharge: z.number().describe('m³/s'),
+  date: z.string().describe('YYYY-MM-DD of the largest reading'),
+  time: z.string().describe('ISO 8601 instant of the largest reading'),
+  daysOfData: z.number().int(),
+  daysInYear: z.number().int(),
+  complete: z.boolean(),
+});
+
+const percentileGroupSchema = z.object({
+  label: z.string(),
+  months: z.array(z.number().int()),
+  days: z.number().int(),
+  percentiles: z.array(z.object({ p: z.number(), discharge: z.number().nullable() })),
+});
+
+/** GET /rivers/:id/flow-records: the active record as stored (column names as in the database). */
+export const flowRecordSchema = z.object({
+  id: z.string(),
+  file_name: z.string(),
+  units: z.enum(['m3s', 'cfs']),
+  water_year_start: z.string().describe('MM-DD'),
+  uploaded_at: z.string().describe('ISO 8601'),
+  reading_count: z.number().int(),
+  first_time: z.string().describe('ISO 8601'),
+  last_time: z.string().describe('ISO 8601'),
+  interval: z.enum(['daily', 'sub-daily']),
+  problems: z.array(flowRecordProblemSchema),
+  gaps: z.array(flowRecordGapSchema),
+  annual_peaks: z.array(annualPeakSchema),
+  fit: floodFrequencyResultSchema,
+  durations: z.object({
+    medianHours: z.number().nullable().describe('Median time a flood stays above half its annual peak (h)'),
+    meanHours: z.number().nullable(),
+    fraction: z.number().optional(),
+  }),
+  percentiles: z.object({
+    method: z.enum(['hazen', 'type7']),
+    monthly: z.array(percentileGroupSchema),
+    seasonal: z.array(percentileGroupSchema),
+    all: percentileGroupSchema,
+  }),
+});
+export type FlowRecordRow = z.infer<typeof flowRecordSchema>;
+
+/** POST /rivers/:id/flow-records: what was stored. */
+export const flowRecordUploadResultSchema = z.object({
+  recordId: z.string(),
+  rows: z.number().int(),
+  readings: z.number().int(),
+  problems: z.array(flowRecordProblemSchema).describe('Rows left out (at most 1000 listed)'),
+  gaps: z.array(flowRecordGapSchema),
+  annualPeaks: z.array(annualPeakSchema),
+  fit: floodFrequencyResultSchema,
+  typicalDurationHours: z.number().describe('Flood duration given to the scenarios (h)'),
+  warnings: z.array(z.string()),
+  format: z.enum(['csv', 'waterml2']).describe('How the file was read'),
+  units: z.enum(['m3s', 'cfs']).describe('The units the flows were read in (stored in m³/s)'),
+  unitsNote: z.string().describe('Where the units came from and the conversion, in words'),
+  columns: z
+    .object({ names: z.array(z.string()), date: z.string(), discharge: z.string(), quality: z.string().nullable(), guessed: z.boolean() })
+    .nullable(),
+  qualityCodes: z.array(z.object({ code: z.string(), count: z.number().int(), provisional: z.boolean() })),
+  droppedProvisional: z.number().int(),
+  aggregated: z.enum(['max', 'mean']).nullable().describe('How a sub-daily record was turned into daily readings, if it was'),
+});
+
+/** GET /rivers/:id/flow-records/readings: the thinned hydrograph. */
+export const hydrographSchema = z.object({
+  points: z.array(z.object({ t: z.string().describe('ISO 8601 instant'), q: z.number().describe('Discharge (m³/s)') })),
+});
+
+/** GET /scenarios/:id/plume: the plume numbers and profiles of one scenario. */
+export const scenarioPlumeSchema = z.object({
+  scenario: scenarioSchema,
+  riverVersion: z.number().int(),
+  plume: plumeResultSchema,
+  profiles: z.object({
+    sectionAlongKm: z.number().describe('Where along the coast the cross-shore section is taken (km)'),
+    crossShore: z.array(z.object({ offshoreKm: z.number(), thickness: z.number().nullable().describe('m'), salinity: z.number() })),
+    alongshore: z.array(z.object({ alongKm: z.number(), salinity: z.number(), indicator: z.number().describe('per 100 mL') })),
+  }),
+});
+
+/** POST /rivers/:id/screening-runs: the queued run. */
+export const screeningRunStartedSchema = z.object({ runId: z.string() });

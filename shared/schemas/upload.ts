@@ -5,6 +5,7 @@
  * none, and the confirmation that maps attributes to lease fields.
  */
 import { z } from 'zod';
+import { featureCollectionSchema, featureSchema, geometrySchema } from './geojson';
 
 /** What an upload is for. */
 export const uploadKindSchema = z
@@ -27,6 +28,28 @@ export const importFeatureSchema = z.object({
   repaired: z.boolean().describe('True when the geometry was invalid (e.g. a self-intersecting ring) and the database repaired it'),
 });
 
+/** One layer of a multi-layer file, for the preview's layer picker. */
+export const layerSummarySchema = z.object({
+  name: z.string().describe('Shapefile basename, KML folder path, GPX part or GeoPackage table'),
+  featureCount: z.number().int().min(0),
+  geometryTypes: z.array(z.string()).describe("GeoJSON geometry types in the layer ('null' for features without geometry)"),
+});
+
+/**
+ * The layer a user picks in a file holding several.
+ *
+ * @example
+ * importLayerBodySchema.parse({ layer: 'Leases/Held' })
+ */
+export const importLayerBodySchema = z.strictObject({
+  layer: z
+    .string({ error: 'layer must be the name of one of the file’s layers, or null for all of them' })
+    .min(1, { error: 'layer must not be empty: send null for all layers' })
+    .max(500)
+    .nullable()
+    .describe('The layer to read, as listed in the preview; null = every usable layer'),
+});
+
 /**
  * The server's answer to an upload: what was read, in EPSG:4326, before the user confirms it.
  *
@@ -45,6 +68,14 @@ export const importResponseSchema = z.object({
       wkt: z.string().optional().describe('The .prj text as uploaded'),
     })
     .describe('The coordinate system of the uploaded file'),
+  fileName: z.string().optional().describe('The uploaded file’s name'),
+  format: z.enum(['shapefile', 'geojson', 'kml', 'kmz', 'gpx', 'geopackage']).optional().describe('The format read from the content'),
+  layers: z
+    .array(layerSummarySchema)
+    .optional()
+    .describe('Every layer of a file holding several (shapefiles in a zip, KML folders, GPX tracks and waypoints, GeoPackage tables); empty for one'),
+  selectedLayer: z.string().nullable().optional().describe('The layer picked by the user; null = every usable layer'),
+  tracksAsPolygons: z.boolean().optional().describe('GPX tracks and routes were turned into areas at the user’s request'),
   featureCount: z.number().int().min(0),
   geometryTypes: z.array(z.string()).describe("GeoJSON geometry types found, e.g. ['Polygon', 'MultiPolygon']"),
   fields: z.array(z.string()).describe('Attribute names, in file order'),
@@ -109,3 +140,31 @@ export const importConfirmBodySchema = z.strictObject({
 
 /** `{ mapping, onDuplicate? }` confirming an import. */
 export type ImportConfirmBody = z.infer<typeof importConfirmBodySchema>;
+
+/** GET /imports/:id/preview: the staged features (simplified), with their index and what PostGIS found. */
+export const importPreviewSchema = featureCollectionSchema(
+  featureSchema(
+    z
+      .looseObject({
+        _index: z.number().int().describe('Position of the feature in the upload'),
+        _repaired: z.boolean().describe('PostGIS repaired its geometry (ST_MakeValid)'),
+        _onLand: z.boolean().describe('It lies on land polygons'),
+      })
+      .describe("The feature's own attributes as uploaded, plus _index, _repaired and _onLand"),
+    geometrySchema,
+  ),
+);
+
+/** GET /coasts: coastlines (lines or land polygons) as GeoJSON, simplified to about 10 m. */
+export const coastCollectionSchema = featureCollectionSchema(
+  featureSchema(
+    z.object({
+      id: z.string(),
+      name: z.string(),
+      form: z.enum(['line', 'land']),
+      shared: z.boolean(),
+      source: z.string().describe('Where the coast came from: an upload, a trace on the map, or the built-in world coastline'),
+    }),
+    geometrySchema,
+  ),
+);

@@ -4,6 +4,7 @@
  * Contracts shared by the forms and the routes.
  */
 import { z } from 'zod';
+import { areaGeometrySchema, featureCollectionSchema, featureSchema } from './geojson';
 
 export const ZONE_STATUSES = ['open', 'closed', 'reopening-pending'] as const;
 export type ZoneStatus = (typeof ZONE_STATUSES)[number];
@@ -73,7 +74,7 @@ export const zoneSchema = z.object({
   earliestReopening: z.string().nullable(),
   areaM2: z.number(),
   heldLeases: z.number().int().describe('Held leases that touch the zone'),
-  geometry: z.unknown().optional(),
+  geometry: areaGeometrySchema.optional().describe('GeoJSON MultiPolygon in EPSG:4326 (with withGeometry=true, and for one zone)'),
 });
 export type Zone = z.infer<typeof zoneSchema>;
 export const zoneListSchema = z.object({ items: z.array(zoneSchema) });
@@ -192,7 +193,13 @@ export const closureCheckResultSchema = z.object({
       bandFractions: z.record(z.string(), z.number()),
     }),
   ),
-  map: z.unknown(),
+  map: featureCollectionSchema(
+    z.union([
+      featureSchema(z.object({ layer: z.literal('band'), bandId: z.string(), name: z.string(), order: z.number().int() }), areaGeometrySchema),
+      featureSchema(z.object({ layer: z.literal('zone'), id: z.string(), name: z.string(), status: z.enum(ZONE_STATUSES) }), areaGeometrySchema),
+      featureSchema(z.object({ layer: z.literal('lease'), id: z.string(), name: z.string(), holder: z.string().nullable() }), areaGeometrySchema),
+    ]),
+  ).describe('The bands at this flow, the zones and the held leases touched, for the map'),
   note: z.string(),
 });
 export type ClosureCheckResult = z.infer<typeof closureCheckResultSchema>;
@@ -238,8 +245,8 @@ export const auditEntrySchema = z.object({
   subjectId: z.string().nullable(),
   /** The zone's, river's or notice's name, or the user's e-mail, when it still exists. */
   subjectName: z.string().nullable(),
-  before: z.unknown(),
-  after: z.unknown(),
+  before: z.unknown().describe('The changed values before, as recorded (a JSON snapshot; its shape depends on the action)'),
+  after: z.unknown().describe('The changed values after, as recorded (a JSON snapshot; its shape depends on the action)'),
 });
 export type AuditEntry = z.infer<typeof auditEntrySchema>;
 export const auditListSchema = z.object({ items: z.array(auditEntrySchema), total: z.number().int() });
@@ -261,3 +268,17 @@ export const publicStatusSchema = z.object({
   ),
 });
 export type PublicStatus = z.infer<typeof publicStatusSchema>;
+
+/** GET /closure-checks/gauges: the jurisdiction's gauges and their latest reading. */
+export const closureGaugeListSchema = z.object({
+  items: z.array(
+    z.object({
+      id: z.string(),
+      riverId: z.string(),
+      code: z.string(),
+      name: z.string(),
+      latestDischarge: z.number().nullable().describe('m³/s'),
+      latestAt: z.string().nullable().describe('ISO 8601'),
+    }),
+  ),
+});

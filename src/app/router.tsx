@@ -37,6 +37,7 @@ export function createRouter() {
         { path: '/map', lazy: () => import('../features/exposure-map/components/exposure-map-page').then((m) => ({ Component: m.ExposureMapPage })), errorElement: <RouteError /> },
         { path: '/compare', lazy: () => import('../features/compare/components/compare-page').then((m) => ({ Component: m.ComparePage })), errorElement: <RouteError /> },
         { path: '/plume-calculator', lazy: () => import('../features/calculator/components/plume-calculator-page').then((m) => ({ Component: m.PlumeCalculatorPage })), errorElement: <RouteError /> },
+        { path: '/account', lazy: () => import('./routes/account-route').then((m) => ({ Component: m.AccountRoute })), errorElement: <RouteError /> },
         { path: '/inbox', lazy: () => import('../features/inbox/components/inbox-page').then((m) => ({ Component: m.InboxPage })), errorElement: <RouteError /> },
         { path: '/monitoring', lazy: () => import('../features/calibration/components/monitoring-page').then((m) => ({ Component: m.MonitoringPage })), errorElement: <RouteError /> },
         { path: '/admin/people', lazy: () => import('../features/admin/components/people-page').then((m) => ({ Component: m.PeoplePage })), errorElement: <RouteError /> },

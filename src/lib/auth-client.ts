@@ -16,7 +16,7 @@ async function postForm(path: string, fields: Record<string, string>): Promise<{
     headers: { 'Content-Type': 'application/x-www-form-urlencoded', 'X-Auth-Return-Redirect': '1' },
     body,
   });
-  if (res.status === 429) {
+  if (res.status === 429 || res.status === 503) {
     const json = await res.json().catch(() => null);
     throw new Error(json?.error?.message ?? 'Too many attempts. Wait a few minutes, then try again.');
   }
@@ -40,8 +40,9 @@ export async function signInWithPassword(email: string, password: string): Promi
   }
 }
 
-export async function requestSignInLink(email: string): Promise<void> {
-  const { url } = await postForm('/auth/signin/nodemailer', { email, callbackUrl: '/' });
+/** `callbackUrl` is where the link lands after signing in (the deep link the visitor started from). */
+export async function requestSignInLink(email: string, callbackUrl = '/'): Promise<void> {
+  const { url } = await postForm('/auth/signin/nodemailer', { email, callbackUrl });
   const parsed = new URL(url, window.location.origin);
   if (parsed.searchParams.get('error')) throw new Error('The sign-in link could not be sent. Check the address and try again.');
 }

@@ -1,11 +1,11 @@
 /**
- * Checks the generated Fennick Bay demo files (demo-data/): they exist and parse, the flow records
+ * Checks the generated Fennick coast demo files (demo-data/): they exist and parse, the flow records
  * are complete, every lease lies in the sea, attributes and river settings are sensible, and the
  * zipped shapefiles hold what the GeoJSON holds.
  */
 import { existsSync, readFileSync } from 'node:fs';
 import path from 'node:path';
-import { area, booleanDisjoint, booleanPointInPolygon, destination, featureCollection, intersect } from '@turf/turf';
+import { area, booleanDisjoint, booleanPointInPolygon, destination, distance, featureCollection, intersect, length, lineString } from '@turf/turf';
 import { unzipSync } from 'fflate';
 import type { FeatureCollection, MultiLineString, MultiPolygon, Point, Polygon } from 'geojson';
 import { describe, expect, it } from 'vitest';
@@ -50,12 +50,16 @@ describe('demo-data files', () => {
     expect(shore.features[0].geometry.coordinates[0].length).toBeGreaterThan(300);
   });
 
+  it('has a mainland shore of at least 80 km (haversine length by @turf/turf)', () => {
+    expect(length(lineString(shore.features[0].geometry.coordinates[0]))).toBeGreaterThanOrEqual(80);
+  });
+
   it('places the region in open ocean near 41.2° N, 38.6° W', () => {
     for (const [lon, lat] of shore.features[0].geometry.coordinates[0]) {
       expect(lon).toBeGreaterThan(-39);
       expect(lon).toBeLessThan(-38.3);
-      expect(lat).toBeGreaterThan(40.9);
-      expect(lat).toBeLessThan(41.5);
+      expect(lat).toBeGreaterThan(40.6);
+      expect(lat).toBeLessThan(41.8);
     }
   });
 });
@@ -84,6 +88,24 @@ describe('flow records', () => {
     const [amberlin, tolley] = rivers;
     expect(amberlin.name).toBe('Amberlin River');
     expect(mean(amberlin.flowRecordFile)).toBeGreaterThan(5 * mean(tolley.flowRecordFile));
+  });
+
+  it('each river’s flows fit its catchment: mean runoff 300–1500 mm a year, median annual flood 0.1–0.6 m³/s per km²', () => {
+    // From memory (b), humid temperate catchments of 100–5 000 km²: mean annual runoff of a few hundred mm to
+    // about 1.5 m, and a median annual flood of roughly 0.1–0.6 m³/s per km² (higher for the smaller, flashier ones).
+    for (const r of rivers) {
+      const readings = parseFlowRecord(readFileSync(file(r.flowRecordFile), 'utf8'), { units: 'm3s' }).readings;
+      const mean = readings.reduce((s, x) => s + x.discharge, 0) / readings.length;
+      const runoffMm = (mean * 365.25 * 86_400) / (r.catchmentAreaKm2 * 1e6) * 1000;
+      expect(runoffMm, r.name).toBeGreaterThan(300);
+      expect(runoffMm, r.name).toBeLessThan(1500);
+      const peaks = annualMaxima(readings).map((m) => m.discharge).sort((a, b) => a - b);
+      const median = (peaks[(peaks.length - 1) >> 1] + peaks[peaks.length >> 1]) / 2;
+      expect(median / r.catchmentAreaKm2, r.name).toBeGreaterThan(0.1);
+      expect(median / r.catchmentAreaKm2, r.name).toBeLessThan(0.6);
+    }
+    expect(rivers[0].catchmentAreaKm2).toBeGreaterThanOrEqual(1500);
+    expect(rivers[1].catchmentAreaKm2).toBeLessThanOrEqual(300);
   });
 });
 
@@ -154,13 +176,22 @@ describe('closure zones', () => {
     expect(existsSync(file('zones/fennick-zones.zip'))).toBe(true);
   });
 
-  it('each zone lies off its river: the water just seaward of the mouth (or north of it for Tolley) is inside', () => {
+  it('each zone is a growing area down-coast of its river, not against the mouth', () => {
     const [amberlin, tolley] = rivers;
     const inner = zones.features[0];
     const tolleyZone = zones.features[1];
-    expect(booleanPointInPolygon(destination(amberlin.mouth, 0.3, -90).geometry.coordinates, inner)).toBe(true);
-    expect(booleanPointInPolygon(destination(destination(tolley.mouth, 2, 0), 0.8, -90).geometry.coordinates, tolleyZone)).toBe(true);
-    expect(booleanPointInPolygon(destination(destination(tolley.mouth, 2, 180), 0.8, -90).geometry.coordinates, tolleyZone)).toBe(false);
+    // Nothing within 5 km of either mouth (@turf/turf distance, haversine on the WGS 84 sphere).
+    for (const [zone, river] of [
+      [inner, amberlin],
+      [tolleyZone, tolley],
+    ] as const) {
+      const nearest = Math.min(...zone.geometry.coordinates[0].map((p) => distance(river.mouth, p)));
+      expect(nearest, String(props(zone).ZONE_NAME)).toBeGreaterThan(5);
+    }
+    // Fennick Bay lies 10–22 km north of (down-coast of) the Amberlin; the Tolley zone 5–11 km north of the brook.
+    expect(booleanPointInPolygon(destination(destination(amberlin.mouth, 16, 0), 1, 90).geometry.coordinates, inner)).toBe(true);
+    expect(booleanPointInPolygon(destination(destination(tolley.mouth, 8, 0), 1, -90).geometry.coordinates, tolleyZone)).toBe(true);
+    expect(booleanPointInPolygon(destination(destination(tolley.mouth, 8, 180), 1, -90).geometry.coordinates, tolleyZone)).toBe(false);
   });
 
   it('zones do not overlap the land', () => {
@@ -201,7 +232,7 @@ describe('rivers.json', () => {
   it('passes the engine’s own schemas (river parameters and a plume request at a flood flow)', () => {
     for (const r of rivers) {
       const params = RiverParametersSchema.safeParse({
-        entrainmentCoefficient: (r as { entrainmentCoefficient?: number }).entrainmentCoefficient ?? 3e-5,
+        entrainmentCoefficient: r.entrainmentCoefficient,
         t90DayHours: r.t90DayHours,
         t90NightHours: r.t90NightHours,
         daylightFraction: r.daylightFraction,

@@ -62,7 +62,7 @@ export default async function setup(project: TestProject) {
   const mailer = createMailer(env.SMTP_URL, env.MAIL_FROM);
   // Alerts run in real pg-boss workers; the gauge feed is polled every 2 s.
   const alertJobs = await createPgBossAlertJobs(url, db.pool, { retryDelaySeconds: 1, retryLimit: 10, feedPollSeconds: 2, work: true, pollFeed: true });
-  const app = createApp({ env, db, mailer, authRateLimit: { limit: 10_000, windowMs: 60_000 }, alertJobs });
+  const app = createApp({ env, db, mailer, authRateLimit: { limit: 10_000, windowMs: 60_000 }, accountRateLimit: { limit: 10_000, windowMs: 60_000 }, alertJobs });
   await app.locals.alertsReady;
   server.on('request', app);
   project.provide('baseUrl', `http://127.0.0.1:${port}`);

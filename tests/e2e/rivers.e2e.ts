@@ -62,7 +62,7 @@ describe('an adviser sets up a river from a gauge record', () => {
     await page.getByText('No flow record yet').waitFor();
 
     // A record with three bad rows: the rows are shown, nothing is saved until the user continues.
-    await page.getByLabel('Gauge record (CSV)').setInputFiles({ name: 'wren-water-daily.csv', mimeType: 'text/csv', buffer: messyRecord() });
+    await page.getByLabel('Gauge record (CSV or WaterML 2.0)').setInputFiles({ name: 'wren-water-daily.csv', mimeType: 'text/csv', buffer: messyRecord() });
     await page.getByRole('button', { name: 'Upload record' }).click();
     await page.getByText(/3 of [\d,]+ rows cannot be used/).waitFor();
     const problems = page.getByTestId('row-problems');

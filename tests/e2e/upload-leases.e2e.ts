@@ -57,4 +57,44 @@ describe('uploading leases through the browser', () => {
     expect(errors).toEqual([]);
     await page.close();
   });
+
+  it('a grower uploads a KMZ from a globe viewer, picks one of its folders and saves those leases', async () => {
+    const page = await browser().newPage();
+    const errors = watchErrors(page);
+    await browser().clearCookies();
+    await page.goto(`${baseUrl}/sign-up`);
+    await page.getByLabel('Your name').fill('Ossian Marl');
+    await page.getByLabel('E-mail').fill(`ossian.${Date.now()}@brackline.test`);
+    await page.getByLabel('Password').fill('a-good-long-password');
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByRole('heading', { name: 'Overview', exact: true, level: 1 }).waitFor();
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Leases' }).click();
+    await page.getByRole('heading', { name: 'Leases', exact: true, level: 1 }).waitFor();
+    await page.getByRole('button', { name: 'Upload lease boundaries' }).click();
+    // The corpus KMZ: doc.kml with folders "Held" and "Candidates", two placemarks each, attributes in ExtendedData.
+    await page.getByLabel('File').setInputFiles(path.resolve(import.meta.dirname, '../fixtures/uploads/good/fennick-leases.kmz'));
+    await page.getByRole('button', { name: 'Upload and check' }).click();
+    await page.getByRole('heading', { name: '3. Check what was read' }).waitFor();
+    expect(await page.getByTestId('feature-count').textContent()).toBe('4');
+    const picker = page.getByTestId('layer-picker');
+    expect(await picker.locator('option').allTextContents()).toEqual([
+      'Every layer that fits',
+      'Held — 2 features (Polygon)',
+      'Candidates — 2 features (MultiPolygon, Polygon)',
+    ]);
+    await picker.selectOption('Candidates');
+    await page.getByRole('button', { name: 'Read this layer' }).click();
+    await page.waitForFunction(() => document.querySelector('[data-testid="feature-count"]')?.textContent === '2');
+    expect(await page.getByRole('combobox', { name: 'Lease id' }).inputValue()).toBe('LEASE_ID');
+    await screenshot(page, 'upload-kmz-layer');
+    await page.getByRole('button', { name: /Save 2 leases/ }).click();
+    await page.getByText('2 leases added').waitFor();
+    await page.waitForFunction(() => document.querySelectorAll('table[aria-label="Leases"] tbody tr').length === 2);
+    const ids = await page.getByRole('table', { name: 'Leases' }).locator('tbody tr a').allTextContents();
+    expect(ids.sort()).toEqual(['FB-016', 'FB-021']);
+    expect(await page.getByRole('link', { name: 'Export GeoPackage' }).getAttribute('href')).toBe('/api/v1/leases/export?format=gpkg');
+    expect(await page.getByRole('link', { name: 'Export KML' }).getAttribute('href')).toBe('/api/v1/leases/export?format=kml');
+    expect(errors).toEqual([]);
+    await page.close();
+  });
 });

@@ -12,6 +12,7 @@ import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
 import { type Env, loadEnv } from '../../server/env';
 import { type SmtpFake, startSmtpFake } from '../../server/fakes/smtp-fake';
 import { type PaymentFake, startPaymentFake } from '../../server/fakes/payment-fake';
+import { randomUUID } from 'node:crypto';
 import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { createMailer, type Mailer } from '../../server/mail/mailer';
@@ -65,6 +66,9 @@ export async function createTestApp(overrides: Partial<Omit<AppDeps, 'env' | 'db
     db,
     mailer,
     authRateLimit: { limit: 10_000, windowMs: 60_000 },
+    accountRateLimit: { limit: 10_000, windowMs: 60_000 },
+    // Each test app counts on its own (the counters are in the shared test database).
+    rateLimitPrefix: `test-${randomUUID()}`,
     ...deps,
   });
   let server: Server | undefined;

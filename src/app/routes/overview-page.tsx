@@ -11,6 +11,7 @@ import { useMe } from '../../features/account/api/get-me';
 import { type AnnualRow, exposureKeys } from '../../lib/exposure-api';
 import { fmtDateTime, fmtNumber } from '../../lib/format';
 import { inboxKeys } from '../../lib/inbox-api';
+import { regionKeys } from '../../lib/regions-api';
 
 const QUESTION = {
   grower: 'How exposed are my leases to river flood water?',
@@ -59,7 +60,8 @@ function summariseAnnual(rows: AnnualRow[]): LeaseSummary[] {
 }
 
 function LeasesByRating() {
-  const annual = useQuery(exposureKeys.annual());
+  // Leases uploaded or rivers screened since the last visit change this list: read it again on every visit.
+  const annual = useQuery({ ...exposureKeys.annual(), refetchOnMount: 'always' });
   if (annual.isPending) return <Loading what="Loading your leases’ ratings…" />;
   if (annual.isError) return <LoadError error={annual.error} retry={() => annual.refetch()} />;
   const rows = summariseAnnual(annual.data.items);
@@ -70,7 +72,7 @@ function LeasesByRating() {
         <Link className="font-semibold text-deep-700 underline" to="/leases">
           Leases
         </Link>{' '}
-        page; they are screened against every river of your area.
+        page; they are screened against every river whose plume can reach them.
       </Empty>
     );
   }
@@ -105,6 +107,80 @@ function LeasesByRating() {
         </tbody>
       </table>
     </div>
+  );
+}
+
+/** A new grower's steps to an answer, each ticked when done; hidden once every step is done. */
+function FirstRunPath() {
+  const q = useQuery({ ...regionKeys.firstRun(), refetchOnMount: 'always' });
+  if (q.isPending) return <Loading what="Checking your first steps…" />;
+  if (q.isError) return <LoadError error={q.error} retry={() => q.refetch()} />;
+  const d = q.data;
+  const region = d.region?.name;
+  const steps = [
+    {
+      done: d.leases > 0,
+      title: 'Upload your lease boundaries',
+      detail: d.leases > 0 ? `${d.leases} lease${d.leases === 1 ? '' : 's'} saved.` : 'A zipped shapefile or a GeoJSON file of your leases.',
+      to: '/leases',
+      link: 'Leases',
+    },
+    {
+      done: d.rivers > 0,
+      title: region ? `A river (${region} has its rivers)` : 'Set up a river',
+      detail:
+        d.rivers > 0
+          ? `${d.rivers} river${d.rivers === 1 ? '' : 's'} can screen your leases.`
+          : 'Place its mouth on the map; a region’s rivers count too (choose a region in your account settings).',
+      to: '/rivers',
+      link: 'Rivers',
+    },
+    {
+      done: d.riversWithRecord > 0,
+      title: region ? 'A flow record (or the region’s)' : 'Upload a flow record',
+      detail: d.riversWithRecord > 0 ? `${d.riversWithRecord} river${d.riversWithRecord === 1 ? ' has' : 's have'} a flow record and flood scenarios.` : 'A CSV of dates and discharges from the river’s gauge.',
+      to: '/rivers',
+      link: 'Rivers',
+    },
+    {
+      done: d.leasesRated > 0,
+      title: 'Read your ratings',
+      detail: d.leasesRated > 0 ? `${d.leasesRated} of your leases rated; see them below.` : 'They appear once a river with a flow record reaches a lease.',
+      to: '/leases',
+      link: 'Leases',
+    },
+  ];
+  if (steps.every((s) => s.done)) return null;
+  return (
+    <section aria-labelledby="first-steps" className="space-y-2 rounded-lg border border-deep-300 bg-deep-50 p-4">
+      <h2 id="first-steps" className="text-lg font-semibold text-deep-900">
+        Your steps to an answer
+      </h2>
+      <p className="text-sm text-shell-700">
+        {region ? `Region: ${region}.` : 'No region chosen: set up your own rivers, or choose a region.'}{' '}
+        <Link className="font-semibold text-deep-700 underline" to="/account">
+          Account settings
+        </Link>
+      </p>
+      <ol className="space-y-1" aria-label="Steps to an answer">
+        {steps.map((s, i) => (
+          <li key={s.title} className="flex gap-2 text-sm" data-done={s.done ? 'yes' : 'no'}>
+            <span aria-hidden className={`font-bold ${s.done ? 'text-estuary-700' : 'text-shell-500'}`}>
+              {s.done ? '✓' : `${i + 1}.`}
+            </span>
+            <span>
+              <span className="font-semibold">{s.title}</span>
+              <span className="sr-only">{s.done ? ' (done)' : ' (to do)'}</span> — {s.detail}{' '}
+              {!s.done && (
+                <Link className="font-semibold text-deep-700 underline" to={s.to}>
+                  {s.link}
+                </Link>
+              )}
+            </span>
+          </li>
+        ))}
+      </ol>
+    </section>
   );
 }
 
@@ -196,6 +272,7 @@ export function OverviewPage() {
         </Empty>
       ) : (
         <>
+          {role === 'grower' && <FirstRunPath />}
           <section aria-labelledby="by-rating" className="space-y-2">
             <div className="flex flex-wrap items-end justify-between gap-2">
               <h2 id="by-rating" className="text-lg font-semibold text-deep-900">

@@ -64,7 +64,9 @@ export function AppShell() {
           <BrandMark />
           <div className="flex items-center gap-3 text-sm">
             <span>
-              <span className="font-semibold">{user.name ?? user.email}</span>
+              <Link to="/account" className="font-semibold underline" title="Account settings">
+                {user.name ?? user.email}
+              </Link>
               <span className="ml-2 rounded bg-estuary-700 px-2 py-0.5 text-xs" data-testid="role-badge">
                 {ROLE_LABEL[user.role]}
               </span>

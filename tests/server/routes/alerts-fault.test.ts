@@ -36,7 +36,7 @@ async function startApp(): Promise<{ app: ReturnType<typeof createApp>; jobs: Al
     work: true,
     pollFeed: false,
   });
-  const app = createApp({ env: t.env, db: t.db, mailer: t.mailer, authRateLimit: { limit: 10_000, windowMs: 60_000 }, alertJobs: jobs });
+  const app = createApp({ env: t.env, db: t.db, mailer: t.mailer, authRateLimit: { limit: 10_000, windowMs: 60_000 }, accountRateLimit: { limit: 10_000, windowMs: 60_000 }, alertJobs: jobs });
   await app.locals.alertsReady;
   return { app, jobs };
 }

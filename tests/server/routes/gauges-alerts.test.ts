@@ -132,6 +132,8 @@ describe('alerts', () => {
         .set('Authorization', `Bearer ${token}`)
         .send({ readings: [{ observedAt: time, discharge }] })
         .expect(201);
+    // The river first runs below the lease's flow (the readings above may already be over it), then crosses it.
+    await post('2030-01-01T23:00:00Z', rule.thresholdFlow / 2);
     await post('2030-01-02T00:00:00Z', q);
     // Still above: the same event, no new alert. The same reading again: nothing.
     await post('2030-01-02T01:00:00Z', q + 5);

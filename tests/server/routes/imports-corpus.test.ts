@@ -14,6 +14,7 @@ interface Entry {
   file: string;
   kind: 'lease' | 'coast' | 'zone';
   limits?: Record<string, number>;
+  options?: { layer?: string; tracksAsPolygons?: boolean };
   expectStatus: number;
   expectCode: string | null;
   expectMessage: string | null;
@@ -45,7 +46,10 @@ async function post(entry: Entry, folder: string) {
   const role = entry.kind === 'zone' ? 'regulator' : 'grower';
   const { agent } = await signIn(t.app, `${role}@brackline.test`);
   const before = await counts(t);
-  const res = await agent.post('/api/v1/imports').field('kind', entry.kind).attach('file', readFileSync(path.join(DIR, folder, entry.file)), entry.file);
+  let request = agent.post('/api/v1/imports').field('kind', entry.kind);
+  if (entry.options?.layer) request = request.field('layer', entry.options.layer);
+  if (entry.options?.tracksAsPolygons) request = request.field('tracksAsPolygons', 'true');
+  const res = await request.attach('file', readFileSync(path.join(DIR, folder, entry.file)), entry.file);
   return { t, agent, before, res };
 }
 

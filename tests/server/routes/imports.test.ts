@@ -63,15 +63,27 @@ describe('uploading leases as GeoJSON', () => {
   it('asks what to do with duplicate lease ids, then replaces or keeps both', async () => {
     const fc = leaseCollection('DUP', 2);
     const first = await upload(grower, geojsonBuffer(fc), 'dup.geojson').expect(201);
-    await grower.post(`/api/v1/imports/${first.body.id}/confirm`).send({ mapping: { leaseId: 'LEASE_ID' } }).expect(200);
+    await grower
+      .post(`/api/v1/imports/${first.body.id}/confirm`)
+      .send({ mapping: { leaseId: 'LEASE_ID' } })
+      .expect(200);
     const again = await upload(grower, geojsonBuffer(fc), 'dup.geojson').expect(201);
-    const conflict = await grower.post(`/api/v1/imports/${again.body.id}/confirm`).send({ mapping: { leaseId: 'LEASE_ID' } }).expect(409);
+    const conflict = await grower
+      .post(`/api/v1/imports/${again.body.id}/confirm`)
+      .send({ mapping: { leaseId: 'LEASE_ID' } })
+      .expect(409);
     expect(conflict.body.error.details.duplicates.sort()).toEqual(['DUP-001', 'DUP-002']);
     expect(conflict.body.error.message).toMatch(/replace.*keep/);
-    const replaced = await grower.post(`/api/v1/imports/${again.body.id}/confirm`).send({ mapping: { leaseId: 'LEASE_ID' }, onDuplicate: 'replace' }).expect(200);
+    const replaced = await grower
+      .post(`/api/v1/imports/${again.body.id}/confirm`)
+      .send({ mapping: { leaseId: 'LEASE_ID' }, onDuplicate: 'replace' })
+      .expect(200);
     expect(replaced.body).toMatchObject({ created: 0, updated: 2 });
     const third = await upload(grower, geojsonBuffer(fc), 'dup.geojson').expect(201);
-    const kept = await grower.post(`/api/v1/imports/${third.body.id}/confirm`).send({ mapping: { leaseId: 'LEASE_ID' }, onDuplicate: 'keep' }).expect(200);
+    const kept = await grower
+      .post(`/api/v1/imports/${third.body.id}/confirm`)
+      .send({ mapping: { leaseId: 'LEASE_ID' }, onDuplicate: 'keep' })
+      .expect(200);
     expect(kept.body).toMatchObject({ created: 2, updated: 0 });
     const list = await grower.get('/api/v1/leases?q=DUP-').expect(200);
     expect(list.body.total).toBe(4);
@@ -84,7 +96,18 @@ describe('uploading leases as GeoJSON', () => {
         {
           type: 'Feature',
           properties: { LEASE_ID: 'BOW-1' },
-          geometry: { type: 'Polygon', coordinates: [[[-38.7, 41.1], [-38.69, 41.11], [-38.69, 41.1], [-38.7, 41.11], [-38.7, 41.1]]] },
+          geometry: {
+            type: 'Polygon',
+            coordinates: [
+              [
+                [-38.7, 41.1],
+                [-38.69, 41.11],
+                [-38.69, 41.1],
+                [-38.7, 41.11],
+                [-38.7, 41.1],
+              ],
+            ],
+          },
         },
       ],
     };
@@ -95,7 +118,10 @@ describe('uploading leases as GeoJSON', () => {
 
   it('refuses a mapping field the file does not have', async () => {
     const res = await upload(grower, geojsonBuffer(leaseCollection('MAP', 1)), 'map.geojson').expect(201);
-    const bad = await grower.post(`/api/v1/imports/${res.body.id}/confirm`).send({ mapping: { leaseId: 'NOPE' } }).expect(400);
+    const bad = await grower
+      .post(`/api/v1/imports/${res.body.id}/confirm`)
+      .send({ mapping: { leaseId: 'NOPE' } })
+      .expect(400);
     expect(bad.body.error.message).toMatch(/no field "NOPE"/);
   });
 });
@@ -105,7 +131,15 @@ describe('bad input leaves nothing behind', () => {
     ['an empty file', Buffer.alloc(0), 'empty.geojson', 400],
     ['text that is neither zip nor JSON', Buffer.from('hello'), 'notes.txt', 415],
     ['a Feature instead of a FeatureCollection', geojsonBuffer(rectangle(-38.7, 41.1, 100, {})), 'one.geojson', 422],
-    ['points where polygons are needed', geojsonBuffer({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: { type: 'Point', coordinates: [-38.7, 41.1] } }] }), 'pts.geojson', 422],
+    [
+      'points where polygons are needed',
+      geojsonBuffer({
+        type: 'FeatureCollection',
+        features: [{ type: 'Feature', properties: {}, geometry: { type: 'Point', coordinates: [-38.7, 41.1] } }],
+      }),
+      'pts.geojson',
+      422,
+    ],
     ['invalid JSON', Buffer.from('{"type": "FeatureCollection", '), 'broken.geojson', 400],
   ])('%s is refused with a message', async (_what, buffer, name, status) => {
     const before = await counts();
@@ -129,7 +163,11 @@ describe('bad input leaves nothing behind', () => {
     const small = await createTestApp({ uploadLimits: { maxCompressedBytes: 1000 } });
     try {
       const agent = (await signIn(small.app, 'grower@brackline.test')).agent;
-      const res = await agent.post('/api/v1/imports').field('kind', 'lease').attach('file', geojsonBuffer(leaseCollection('BIG', 20)), 'big.geojson').expect(413);
+      const res = await agent
+        .post('/api/v1/imports')
+        .field('kind', 'lease')
+        .attach('file', geojsonBuffer(leaseCollection('BIG', 20)), 'big.geojson')
+        .expect(413);
       expect(res.body.error.message).toMatch(/UPLOAD_MAX_BYTES/);
     } finally {
       await small.close();
@@ -138,7 +176,26 @@ describe('bad input leaves nothing behind', () => {
 
   it('refuses out-of-range coordinates (projected metres in a GeoJSON) with 422', async () => {
     const before = await counts();
-    const metres = { type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [[[500000, 4500000], [500100, 4500000], [500100, 4500100], [500000, 4500000]]] } }] };
+    const metres = {
+      type: 'FeatureCollection',
+      features: [
+        {
+          type: 'Feature',
+          properties: {},
+          geometry: {
+            type: 'Polygon',
+            coordinates: [
+              [
+                [500000, 4500000],
+                [500100, 4500000],
+                [500100, 4500100],
+                [500000, 4500000],
+              ],
+            ],
+          },
+        },
+      ],
+    };
     const res = await upload(grower, geojsonBuffer(metres), 'metres.geojson').expect(422);
     expect(res.body.error.message).toMatch(/projected|range|degrees/i);
     expect(await counts()).toEqual(before);
@@ -150,7 +207,10 @@ describe('who may see and change leases', () => {
   let growerCandidate: string;
   beforeAll(async () => {
     const res = await upload(grower, geojsonBuffer(leaseCollection('PRIV', 2)), 'priv.geojson').expect(201);
-    const saved = await grower.post(`/api/v1/imports/${res.body.id}/confirm`).send({ mapping: { leaseId: 'LEASE_ID', status: 'STATUS' } }).expect(200);
+    const saved = await grower
+      .post(`/api/v1/imports/${res.body.id}/confirm`)
+      .send({ mapping: { leaseId: 'LEASE_ID', status: 'STATUS' } })
+      .expect(200);
     [growerCandidate, growerHeld] = saved.body.ids;
   });
 
@@ -204,7 +264,7 @@ describe('export', () => {
     const csv = await grower.get('/api/v1/leases/export?format=csv').expect(200);
     expect(csv.headers['content-type']).toMatch(/text\/csv/);
     const lines = csv.text.trim().split('\r\n');
-    expect(lines[0]).toBe('id,lease_id,holder,species,status,area_m2,area_ha,on_land,owner,created_at');
+    expect(lines[0]).toBe('id,lease_id,holder,species,status,area_m2,area_ha,on_land,owner,created_at,annual_rating,closure_days_per_year,harmful_salinity_chance_per_year');
     expect(lines.length).toBeGreaterThan(3);
     const gj = await grower.get('/api/v1/leases/export?format=geojson').expect(200);
     const fc = JSON.parse(gj.text);
@@ -215,12 +275,14 @@ describe('export', () => {
 
 describe('coastlines and on-land leases', () => {
   it('flags a lease that lies wholly on a land-polygon coast', async () => {
+    const before = (await t.db.pool.query('select clock_timestamp() as t')).rows[0].t;
     const land = { type: 'FeatureCollection', features: [rectangle(-38.0, 41.0, 20_000, { NAME: 'test land' })] };
     const coast = await upload(grower, geojsonBuffer(land), 'test-land.geojson', 'coast').expect(201);
     await grower.post(`/api/v1/imports/${coast.body.id}/confirm`).send({ mapping: {} }).expect(200);
     const onLand = { type: 'FeatureCollection', features: [rectangle(-38.0, 41.0, 300, { LEASE_ID: 'LAND-1' })] };
     const res = await upload(grower, geojsonBuffer(onLand), 'land-lease.geojson').expect(201);
     expect(res.body.warnings.join(' ')).toMatch(/on land/);
-    await t.db.pool.query('delete from coasts');
+    // Only this test's coast: the demo coasts stay for the files after this one (a river there needs its coast).
+    await t.db.pool.query('delete from coasts where created_at >= $1', [before]);
   });
 });

@@ -147,16 +147,19 @@ describe('screening the demo region', () => {
   });
 
   it('loads the demo monitoring stations and samples, keeping detection limits as censored values', async () => {
-    // Only the demo stations (FB-S01…FB-S08): other test files add stations of their own to the same database.
+    // Only the demo stations (FB-S01…FB-S09): other test files add stations of their own to the same database.
     const r = await t.db.pool.query(
       `select (select count(*) from stations where code like 'FB-S%')::int as stations,
               (select count(*) from samples s join stations st on st.id = s.station_id where st.code like 'FB-S%')::int as samples,
               (select count(*) from samples s join stations st on st.id = s.station_id
                 where st.code like 'FB-S%' and s.indicator_censored is not null)::int as censored`,
     );
-    expect(r.rows[0].stations).toBe(8);
-    expect(r.rows[0].samples).toBe(309);
-    expect(r.rows[0].censored).toBe(22);
+    // The counts of demo-data/monitoring/: its stations, its sample rows and those written as <2 or >1600.
+    const demo = path.resolve(import.meta.dirname, '../../../demo-data/monitoring');
+    const rows = readFileSync(path.join(demo, 'samples.csv'), 'utf8').trim().split('\n').slice(1);
+    expect(r.rows[0].stations).toBe(JSON.parse(readFileSync(path.join(demo, 'stations.geojson'), 'utf8')).features.length);
+    expect(r.rows[0].samples).toBe(rows.length);
+    expect(r.rows[0].censored).toBe(rows.filter((row) => /,[<>]\d/.test(row)).length);
   });
 
   it('gives every rating its reasons, and never calls a site safe', async () => {

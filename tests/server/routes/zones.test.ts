@@ -3,6 +3,8 @@
  * values, the trigger sweep, closure checks, notices (statuses, e-mails through the SMTP fake,
  * in-app messages), reopening rules, the public status page, the audit log and privacy.
  */
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoRegion } from '../../../server/db/seed-demo-region';
@@ -10,6 +12,12 @@ import { geojsonBuffer, rectangle } from '../../helpers/lease-fixtures';
 import { createTestApp, signIn, type TestApp, waitForMail } from '../../helpers/test-app';
 
 type Agent = Awaited<ReturnType<typeof signIn>>['agent'];
+/** The demo zones' plan triggers (demo-data/README.md: each river's 2-year flood, rounded down to two significant figures). */
+const DEMO_ZONES = JSON.parse(readFileSync(path.resolve(import.meta.dirname, '../../../demo-data/zones/fennick-zones.geojson'), 'utf8')).features as {
+  properties: { ZONE_NAME: string; TRIGGER_M3S: number };
+}[];
+const INNER_TRIGGER = DEMO_ZONES.find((z) => z.properties.ZONE_NAME === 'Fennick Bay inner zone')!.properties.TRIGGER_M3S;
+const TOLLEY_TRIGGER = DEMO_ZONES.find((z) => z.properties.ZONE_NAME === 'Tolley shore zone')!.properties.TRIGGER_M3S;
 let t: TestApp;
 let regulator: Agent;
 let grower: Agent;
@@ -63,7 +71,7 @@ describe('zones', () => {
     const res = await regulator.get('/api/v1/zones').expect(200);
     expect(res.body.items.map((z: { name: string }) => z.name)).toEqual(['Fennick Bay inner zone', 'Tolley shore zone']);
     expect(inner).toMatchObject({
-      triggerFlow: 960,
+      triggerFlow: INNER_TRIGGER,
       minClosureDays: 5,
       indicatorStandard: 14,
       status: 'open',
@@ -158,14 +166,14 @@ describe('trigger sweep', () => {
     const s = res.body;
     expect(s.curve).toHaveLength(60);
     expect(s.indicatorStandard).toBe(14);
-    expect(s.planTrigger).toBe(960);
+    expect(s.planTrigger).toBe(INNER_TRIGGER);
     expect(s.suggestedTrigger).toBeGreaterThan(0);
     // The step just below the suggestion has none of the zone over the standard; the first at or above it has some.
     const below = s.curve.filter((p: { discharge: number }) => p.discharge < s.suggestedTrigger);
     expect(below.length).toBeGreaterThan(0);
     expect(below.at(-1).fraction).toBe(0);
     expect(s.curve.find((p: { discharge: number }) => p.discharge >= s.suggestedTrigger).fraction).toBeGreaterThan(0);
-    expect(s.marginM3s).toBeCloseTo(960 - s.suggestedTrigger, 6);
+    expect(s.marginM3s).toBeCloseTo(INNER_TRIGGER - s.suggestedTrigger, 6);
     // Fractions are shares of the zone.
     for (const p of s.curve) {
       expect(p.fraction).toBeGreaterThanOrEqual(0);
@@ -175,12 +183,12 @@ describe('trigger sweep', () => {
     const withAep = s.curve.filter((p: { aep: number | null }) => p.aep != null);
     expect(withAep.length).toBeGreaterThan(3);
     for (let i = 1; i < withAep.length; i++) expect(withAep[i].aep).toBeLessThanOrEqual(withAep[i - 1].aep);
-    // 960 m³/s lies just below the fitted 2-year flood, so its AEP comes from the annual peaks by the
+    // The plan trigger lies just below the fitted 2-year flood, so its AEP comes from the annual peaks by the
     // Weibull plotting position m/(n+1) (common practice): m years of n reached it.
     const peaks = await t.db.pool.query(
-      `select count(*) filter (where (p->>'discharge')::float8 >= 960)::int as m, count(*)::int as n
+      `select count(*) filter (where (p->>'discharge')::float8 >= $2)::int as m, count(*)::int as n
          from flow_records f, jsonb_array_elements(f.annual_peaks) p where f.river_id = $1 and f.active and (p->>'complete')::boolean`,
-      [inner.riverId],
+      [inner.riverId, INNER_TRIGGER],
     );
     expect(s.planAep).toBeCloseTo(peaks.rows[0].m / (peaks.rows[0].n + 1), 12);
     expect(s.modelVersion).toMatch(/^brackline-model-/);
@@ -212,10 +220,10 @@ describe('trigger sweep', () => {
 
 describe('closure checks', () => {
   it('at a flood flow lists the zones over their trigger and the held leases in each band, with inputs and model version', async () => {
-    const res = await regulator.post('/api/v1/closure-checks').send({ riverId: inner.riverId, flow: 2000 }).expect(200);
+    const res = await regulator.post('/api/v1/closure-checks').send({ riverId: inner.riverId, flow: 1200 }).expect(200);
     const c = res.body;
     expect(c.flowSource.kind).toBe('typed');
-    expect(c.flow).toBe(2000);
+    expect(c.flow).toBe(1200);
     expect(c.aep).toBeGreaterThan(0);
     expect(c.aep).toBeLessThan(0.2);
     const zone = c.zones.find((z: { id: string }) => z.id === inner.id);
@@ -231,7 +239,7 @@ describe('closure checks', () => {
   });
 
   it('a flow below the trigger says so', async () => {
-    const c = (await regulator.post('/api/v1/closure-checks').send({ riverId: inner.riverId, flow: 500 }).expect(200)).body;
+    const c = (await regulator.post('/api/v1/closure-checks').send({ riverId: inner.riverId, flow: 300 }).expect(200)).body;
     expect(c.zones.find((z: { id: string }) => z.id === inner.id).atOrAboveTrigger).toBe(false);
   });
 
@@ -395,7 +403,7 @@ describe('audit log', () => {
       (a: { action: string; subjectId: string }) => a.action === 'zone.trigger-change' && a.subjectId === tolley.id,
     );
     expect(change).toMatchObject({
-      before: { triggerFlow: 94 },
+      before: { triggerFlow: TOLLEY_TRIGGER },
       after: { triggerFlow: 90 },
       actorEmail: 'regulator@brackline.test',
       subjectName: 'Tolley shore zone',
@@ -460,7 +468,7 @@ describe('privacy, route by route', () => {
       ['get', `/api/v1/zones/${inner.id}/samples`],
       ['post', `/api/v1/zones/${inner.id}/samples`, { sampledAt: new Date().toISOString(), indicator: 1 }],
       ['get', `/api/v1/zones/${inner.id}/notices`],
-      ['post', '/api/v1/closure-checks', { riverId: inner.riverId, flow: 2000 }],
+      ['post', '/api/v1/closure-checks', { riverId: inner.riverId, flow: 1200 }],
       ['get', '/api/v1/closure-checks/gauges'],
       ['get', '/api/v1/notices'],
       ['post', '/api/v1/notices', { kind: 'closure', zoneIds: [inner.id] }],
@@ -481,7 +489,7 @@ describe('privacy, route by route', () => {
     await outsider.patch(`/api/v1/zones/${inner.id}`).send({ triggerFlow: 1 }).expect(404);
     await outsider.get(`/api/v1/zones/${inner.id}/trigger-sweep`).expect(404);
     await outsider.post(`/api/v1/zones/${inner.id}/samples`).send({ sampledAt: new Date().toISOString(), indicator: 1 }).expect(404);
-    await outsider.post('/api/v1/closure-checks').send({ riverId: inner.riverId, flow: 2000 }).expect(404);
+    await outsider.post('/api/v1/closure-checks').send({ riverId: inner.riverId, flow: 1200 }).expect(404);
     await outsider
       .post('/api/v1/notices')
       .send({ kind: 'closure', zoneIds: [tolley.id] })
@@ -501,7 +509,7 @@ describe('privacy, route by route', () => {
       .expect(200);
     // Shared, the regulator may read the lease itself…
     await regulator.get(`/api/v1/leases/${fb004.rows[0].id}`).expect(200);
-    const c = (await regulator.post('/api/v1/closure-checks').send({ riverId: inner.riverId, flow: 2000 }).expect(200)).body;
+    const c = (await regulator.post('/api/v1/closure-checks').send({ riverId: inner.riverId, flow: 1200 }).expect(200)).body;
     // …but it is no held lease: not in the check, not counted in the zone.
     expect(c.leases.map((l: { id: string }) => l.id)).not.toContain(fb004.rows[0].id);
     expect((await regulator.get(`/api/v1/zones/${inner.id}`).expect(200)).body.heldLeases).toBe(6);

@@ -14,6 +14,7 @@ interface ManifestEntry {
   file: string;
   kind: 'lease' | 'coast' | 'zone';
   limits?: Record<string, number>;
+  options?: { layer?: string; tracksAsPolygons?: boolean };
   expectedBbox?: [number, number, number, number];
   expectStatus: number;
   expectCode: string | null;
@@ -42,7 +43,7 @@ describe.each(['bad', 'needs-crs', 'repairable', 'warnings', 'good'])('upload co
 
   it.each(manifest.map((m) => [m.file, m] as const))('%s', async (_file, entry) => {
     const bytes = new Uint8Array(readFileSync(path.join(root, folder, entry.file)));
-    const result = await runUploadPipeline(bytes, entry.file, entry.kind, entry.limits, entry.expectedBbox);
+    const result = await runUploadPipeline(bytes, entry.file, entry.kind, entry.limits, entry.expectedBbox, entry.options);
     if (entry.expectStatus !== 200) {
       expect(result.error, `${entry.file} should fail: ${entry.why}`).toBeDefined();
       expect(result.error!.status).toBe(entry.expectStatus);
@@ -71,6 +72,11 @@ describe.each(['bad', 'needs-crs', 'repairable', 'warnings', 'good'])('upload co
 });
 
 describe('upload corpus: size', () => {
+  it('has at least 10 bad files of each open format (KML, KMZ, GPX, GeoPackage)', () => {
+    const files = load('bad').map((m) => m.file);
+    for (const ext of ['.kml', '.kmz', '.gpx', '.gpkg']) expect(files.filter((f) => f.endsWith(ext)).length, ext).toBeGreaterThanOrEqual(10);
+  });
+
   it('has at least 25 bad files, and a needs-crs, repairable, warnings and good folder', () => {
     expect(load('bad').length).toBeGreaterThanOrEqual(25);
     for (const folder of ['needs-crs', 'repairable', 'warnings', 'good']) expect(load(folder).length).toBeGreaterThan(0);

@@ -133,10 +133,11 @@ describe('detectFormat (zip local header "PK\\x03\\x04", APPNOTE 4.3.7; JSON tex
     expect(detectFormat(enc('  ['), 'a.json')).toBe('json');
     expect(detectFormat(Uint8Array.from([0x50, 0x4b, 0x03, 0x04]), 'a.bin')).toBe('zip');
   });
-  it('names XML, gzip and GeoPackage files', () => {
-    expect(() => detectFormat(enc('<?xml version="1.0"?><kml/>'), 'bay.kml')).toThrow(/XML or HTML \(KML, GPX and GML are not read\)/);
+  it('tells XML (KML, GPX) and SQLite (GeoPackage, "SQLite format 3\\0" per sqlite.org/fileformat.html) apart, and names gzip', () => {
+    expect(detectFormat(enc('<?xml version="1.0"?><kml/>'), 'bay.kml')).toBe('xml');
+    expect(detectFormat(enc('SQLite format 3\0'), 'leases.gpkg')).toBe('sqlite');
     expect(() => detectFormat(Uint8Array.from([0x1f, 0x8b, 8, 0]), 'leases.tar.gz')).toThrow(/gzip archive/);
-    expect(() => detectFormat(enc('SQLite format 3\0'), 'leases.gpkg')).toThrow(/SQLite database/);
+    expect(() => detectFormat(enc('SQLite form'), 'leases.gpkg')).toThrow(/damaged SQLite header/);
   });
 });
 

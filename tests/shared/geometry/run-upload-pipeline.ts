@@ -4,13 +4,17 @@
  * UploadError thrown at any step.
  */
 import type { Feature, Geometry } from 'geojson';
+import initSqlJs from 'sql.js';
 import { checkCoordinates } from '../../../shared/geometry/check-coordinates';
 import { identifyCrs } from '../../../shared/geometry/crs-catalogue';
 import { loadCrsCatalogue } from '../../../shared/geometry/load-crs-catalogue';
 import type { ParsedUpload, UploadKind } from '../../../shared/geometry/parsed-upload';
-import { readUpload, type UploadLimits } from '../../../shared/geometry/read-upload';
+import { type OpenSqlite, readUpload, type UploadLimits } from '../../../shared/geometry/read-upload';
 import { reprojectLayer } from '../../../shared/geometry/reproject';
 import { isUploadError, type UploadError } from '../../../shared/geometry/upload-error';
+
+/** GeoPackages are opened with sql.js, as the server does (server/lib/sqlite.ts). */
+const openSqlite: OpenSqlite = async (bytes) => new (await initSqlJs()).Database(bytes);
 
 export interface PipelineResult {
   parsed?: ParsedUpload;
@@ -26,10 +30,11 @@ export async function runUploadPipeline(
   kind: UploadKind,
   limits?: Partial<UploadLimits>,
   expectedBbox?: [number, number, number, number],
+  choices: { layer?: string; tracksAsPolygons?: boolean } = {},
 ): Promise<PipelineResult> {
   const catalogue = loadCrsCatalogue();
   try {
-    const parsed = await readUpload(bytes, fileName, kind, limits, { identifyEpsg: (wkt) => identifyCrs(catalogue, wkt) });
+    const parsed = await readUpload(bytes, fileName, kind, limits, { identifyEpsg: (wkt) => identifyCrs(catalogue, wkt), openSqlite, ...choices });
     const warnings = [...parsed.warnings];
     const reprojected = parsed.layers.map((layer) => {
       if (!layer.crs.found) return null;

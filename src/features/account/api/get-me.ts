@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { type QueryClient, queryOptions, useQuery } from '@tanstack/react-query';
 import type { Me } from '#shared/schemas/auth';
 import { ApiError } from '../../../lib/api-client';
 
@@ -15,4 +15,13 @@ export const meQueryOptions = () => queryOptions({ queryKey: ['account', 'me'] a
 
 export function useMe() {
   return useQuery(meQueryOptions());
+}
+
+/**
+ * Fetches the account afresh and stores it before the caller navigates. After sign-in the cached
+ * answer is still "nobody" (null); marking it stale is not enough, because the shell would read
+ * that cached null on its first render and send the visitor straight back to the sign-in form.
+ */
+export async function refreshMe(queryClient: QueryClient): Promise<Me | null> {
+  return queryClient.fetchQuery({ ...meQueryOptions(), staleTime: 0 });
 }

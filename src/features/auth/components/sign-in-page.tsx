@@ -8,7 +8,12 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { TextField } from '../../../components/ui/text-field';
 import { requestSignInLink, SIGN_IN_MESSAGES, signInWithPassword } from '../../../lib/auth-client';
-import { meQueryOptions } from '../../account/api/get-me';
+import { refreshMe } from '../../account/api/get-me';
+
+/** Only a path on this site (never `//other.host`), else the overview. */
+function nextPath(next: string | null): string {
+  return next?.startsWith('/') && !next.startsWith('//') ? next : '/';
+}
 
 export function SignInPage() {
   const [params] = useSearchParams();
@@ -25,9 +30,11 @@ export function SignInPage() {
     setProblem(null);
     try {
       await signInWithPassword(values.email, values.password);
-      await queryClient.invalidateQueries({ queryKey: meQueryOptions().queryKey });
-      const next = params.get('next');
-      navigate(next?.startsWith('/') ? next : '/', { replace: true });
+      if (!(await refreshMe(queryClient))) {
+        setProblem('You were signed in, but this browser did not keep the session. Allow cookies for this site, then try again.');
+        return;
+      }
+      navigate(nextPath(params.get('next')), { replace: true });
     } catch (err) {
       setProblem((err as Error).message);
     }
@@ -41,7 +48,7 @@ export function SignInPage() {
       return;
     }
     try {
-      await requestSignInLink(email.data);
+      await requestSignInLink(email.data, nextPath(params.get('next')));
       setLinkSent(true);
     } catch (err) {
       setProblem((err as Error).message);

@@ -1,26 +1,29 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link, useNavigate } from 'react-router-dom';
 import { type SignUpInput, signUpSchema } from '#shared/schemas/auth';
+import { RegionPicker } from '../../../components/region-picker';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { TextField } from '../../../components/ui/text-field';
 import { api } from '../../../lib/api-client';
 import { signInWithPassword } from '../../../lib/auth-client';
-import { meQueryOptions } from '../../account/api/get-me';
+import { refreshMe } from '../../account/api/get-me';
 
 export function SignUpPage() {
   const navigate = useNavigate();
   const queryClient = useQueryClient();
   const form = useForm<SignUpInput>({ resolver: zodResolver(signUpSchema), mode: 'onTouched' });
+  const [regionId, setRegionId] = useState<string | null>(null);
   const signUp = useMutation({
     mutationFn: async (values: SignUpInput) => {
-      await api('/account/sign-up', { method: 'POST', json: { ...values, organisationName: values.organisationName || undefined } });
+      await api('/account/sign-up', { method: 'POST', json: { ...values, organisationName: values.organisationName || undefined, regionId } });
       await signInWithPassword(values.email, values.password);
     },
     onSuccess: async () => {
-      await queryClient.invalidateQueries({ queryKey: meQueryOptions().queryKey });
+      await refreshMe(queryClient);
       navigate('/', { replace: true });
     },
   });
@@ -41,6 +44,7 @@ export function SignUpPage() {
           {...form.register('password')}
           error={form.formState.errors.password?.message}
         />
+        <RegionPicker value={regionId} onChange={setRegionId} />
         <Button type="submit" disabled={signUp.isPending}>
           {signUp.isPending ? 'Creating your account…' : 'Create account'}
         </Button>

@@ -15,6 +15,7 @@ import { CalibrationHistory } from './calibration-panel';
 import { IndicatorScatter, ResidualChart, SalinityScatter } from './comparison-charts';
 import { SkillTable } from './skill-table';
 import { UploadPanel } from './upload-panel';
+import { DownloadLinks } from '../../../components/ui/download-links';
 
 function StationsSummary() {
   const stations = useQuery(monitoringKeys.stations());
@@ -49,6 +50,9 @@ function StationsSummary() {
           ))}
         </tbody>
       </table>
+      <div className="mt-2">
+        <DownloadLinks label="monitoring stations" href={(f) => `/api/v1/stations/export?format=${f}`} />
+      </div>
     </details>
   );
 }

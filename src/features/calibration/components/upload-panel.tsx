@@ -82,7 +82,7 @@ export function UploadPanel() {
         <form onSubmit={submitStations} className="space-y-3 rounded-lg border border-sand-200 bg-white p-4" aria-label="Upload stations">
           <h3 className="font-semibold">Stations</h3>
           <p className="text-sm text-shell-700">
-            Points, as a zipped shapefile, GeoJSON, or CSV with a station code and longitude/latitude (or x/y with the EPSG code). A station
+            Points, as a zipped shapefile, GeoJSON, KML or KMZ pins, GPX waypoints, a GeoPackage, or CSV with a station code and longitude/latitude (or x/y with the EPSG code). A station
             uploaded again under the same code is updated.
           </p>
           <div>
@@ -92,7 +92,7 @@ export function UploadPanel() {
             <input
               id={ids.stations}
               type="file"
-              accept=".zip,.geojson,.json,.csv"
+              accept=".zip,.geojson,.json,.csv,.kml,.kmz,.gpx,.gpkg"
               onChange={(e) => setStationFile(e.target.files?.[0] ?? null)}
               className="mt-1 text-sm"
             />

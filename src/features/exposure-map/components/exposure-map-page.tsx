@@ -1,3 +1,4 @@
+import { BUILTIN_COAST_ATTRIBUTION } from '#shared/cautions';
 import { useQuery } from '@tanstack/react-query';
 import type { FeatureCollection, Geometry } from 'geojson';
 import { useMemo, useState } from 'react';
@@ -11,6 +12,7 @@ import { bandsToDraw } from '../../../lib/bands';
 import { exposureKeys, type ScreeningRow } from '../../../lib/exposure-api';
 import { fmtDays, fmtFlow, fmtIndicator, fmtNumber, fmtPercent, fmtSalinity } from '../../../lib/format';
 import { FlowSlider } from './flow-slider';
+import { DownloadLinks } from '../../../components/ui/download-links';
 
 function rgba(hex: string, alpha: number): string {
   const n = Number.parseInt(hex.slice(1), 16);
@@ -334,6 +336,19 @@ export function ExposureMapPage() {
                     </p>
                   )}
                   <p className="mt-1 text-xs text-shell-700">Model {fp.modelVersion}</p>
+                  <div className="mt-2">
+                    <DownloadLinks
+                      verb="Download bands"
+                      label={`of ${fp.riverName} at ${fmtFlow(fp.discharge)}`}
+                      href={(f) =>
+                        `/api/v1/footprints/export?${new URLSearchParams({
+                          riverId,
+                          ...(flow !== null ? { discharge: String(flow) } : { scenarioId: scenario?.id ?? '' }),
+                          format: f,
+                        })}`
+                      }
+                    />
+                  </div>
                 </section>
               )}
               <section className="space-y-2">
@@ -348,6 +363,11 @@ export function ExposureMapPage() {
                   White leases are not screened against this river. Click a lease for its numbers.
                 </p>
               </section>
+              {rivers.data.items.find((r) => r.id === riverId)?.coastSource === 'builtin' && (
+                <p className="text-xs text-shell-700" data-testid="coast-attribution">
+                  {BUILTIN_COAST_ATTRIBUTION}
+                </p>
+              )}
               {fp?.warnings.length ? (
                 <section className="space-y-1">
                   <h2 className="font-semibold text-deep-900">What the model warns about</h2>

@@ -265,6 +265,20 @@ export function LeasesTable({ canEdit, showAccount = true }: { canEdit: boolean;
         >
           Export GeoJSON
         </a>
+        <a
+          className="rounded-md border border-deep-300 bg-white px-3 py-2 text-sm font-semibold text-deep-700"
+          href="/api/v1/leases/export?format=gpkg"
+          download
+        >
+          Export GeoPackage
+        </a>
+        <a
+          className="rounded-md border border-deep-300 bg-white px-3 py-2 text-sm font-semibold text-deep-700"
+          href="/api/v1/leases/export?format=kml"
+          download
+        >
+          Export KML
+        </a>
       </div>
 
       {canEdit && selectedIds.length > 0 && (

@@ -2,6 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { type ReactNode, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { Button } from '../../../components/ui/button';
+import { DownloadLinks } from '../../../components/ui/download-links';
 import { PageHeader } from '../../../components/ui/page-header';
 import { Empty, LoadError, Loading } from '../../../components/ui/states';
 import { fmtArea, fmtFlow, fmtDays } from '../../../lib/format';
@@ -50,8 +51,10 @@ export function ZonesPage({ renderUpload }: { renderUpload?: (onDone: () => void
       ) : zones.isError ? (
         <LoadError error={zones.error} retry={() => zones.refetch()} />
       ) : zones.data.items.length === 0 ? (
-        <Empty title="No closure zones yet">Upload your zones (zipped shapefile or GeoJSON) or draw one on the map.</Empty>
+        <Empty title="No closure zones yet">Upload your zones (zipped shapefile, GeoJSON, KML/KMZ, GPX or GeoPackage) or draw one on the map.</Empty>
       ) : (
+        <>
+        <DownloadLinks label="closure zones" href={(f) => `/api/v1/zones/export?format=${f}`} />
         <table aria-label="Closure zones" className="w-full border-collapse bg-white text-sm">
           <thead>
             <tr className="border-b border-sand-200 text-left">
@@ -89,6 +92,7 @@ export function ZonesPage({ renderUpload }: { renderUpload?: (onDone: () => void
             ))}
           </tbody>
         </table>
+        </>
       )}
     </div>
   );

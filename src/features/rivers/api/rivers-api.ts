@@ -64,6 +64,21 @@ export interface UploadResult {
   readings: number;
   problems: FlowRecordProblem[];
   warnings: string[];
+  format?: 'csv' | 'waterml2';
+  unitsNote?: string;
+  qualityCodes?: { code: string; count: number; provisional: boolean }[];
+  droppedProvisional?: number;
+  aggregated?: 'max' | 'mean' | null;
+}
+
+/** How to read a record: units, chosen columns, provisional values, daily aggregation. */
+export interface FlowRecordReadOptions {
+  units: 'm3s' | 'cfs' | 'auto';
+  dateColumn?: string;
+  dischargeColumn?: string;
+  qualityColumn?: string;
+  dropProvisional?: boolean;
+  daily?: 'max' | 'mean';
 }
 
 /** The problems of a refused upload (422 with row problems). */
@@ -80,14 +95,19 @@ export interface UploadProblems {
 export function uploadFlowRecord(
   riverId: string,
   file: File,
-  options: { units: 'm3s' | 'cfs'; waterYearStart: string; acceptProblems: boolean },
+  options: FlowRecordReadOptions & { waterYearStart: string; acceptProblems: boolean; xml?: boolean },
   onProgress: (fraction: number) => void,
 ): Promise<UploadResult> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     const query = new URLSearchParams({ units: options.units, waterYearStart: options.waterYearStart, acceptProblems: String(options.acceptProblems) });
+    if (options.dateColumn) query.set('dateColumn', options.dateColumn);
+    if (options.dischargeColumn) query.set('dischargeColumn', options.dischargeColumn);
+    if (options.qualityColumn !== undefined) query.set('qualityColumn', options.qualityColumn);
+    if (options.dropProvisional) query.set('dropProvisional', 'true');
+    if (options.daily) query.set('daily', options.daily);
     xhr.open('POST', `/api/v1/rivers/${riverId}/flow-records?${query}`);
-    xhr.setRequestHeader('Content-Type', 'text/csv');
+    xhr.setRequestHeader('Content-Type', options.xml ? 'application/xml' : 'text/csv');
     xhr.setRequestHeader('Accept', 'application/json');
     xhr.setRequestHeader('X-File-Name', file.name.replace(/[^\x20-\x7e]/g, '_'));
     xhr.upload.onprogress = (e) => {
@@ -107,3 +127,17 @@ export function uploadFlowRecord(
     xhr.send(file);
   });
 }
+
+/** The built-in world coastline around a point (loaded on the server on first use) and whether a mouth may go there. */
+export interface BuiltinCoast {
+  coastId: string;
+  attribution: string;
+  caution: string;
+  distanceM: number | null;
+  onLand: boolean;
+  maxMouthDistanceM: number;
+  problem: string | null;
+  line: import('geojson').Geometry;
+  window: import('geojson').Geometry;
+}
+export const getBuiltinCoast = (lon: number, lat: number) => api<BuiltinCoast>(`/coasts/builtin?lon=${lon}&lat=${lat}`);

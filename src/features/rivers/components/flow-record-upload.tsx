@@ -1,11 +1,12 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { useId, useState } from 'react';
+import { useEffect, useId, useState } from 'react';
 import type { FlowRecordProblem } from '#shared/hydrology/parse-flow-record';
+import type { FlowSourceResult } from '#shared/hydrology/read-flow-source';
 import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
 import { fmtNumber } from '../../../lib/format';
-import { riverKeys, type UploadProblems, type UploadResult, uploadFlowRecord } from '../api/rivers-api';
+import { type FlowRecordReadOptions, riverKeys, type UploadProblems, type UploadResult, uploadFlowRecord } from '../api/rivers-api';
 
 type State =
   | { step: 'idle' }
@@ -49,15 +50,43 @@ export function FlowRecordUpload({ riverId }: { riverId: string }) {
   const qc = useQueryClient();
   const id = useId();
   const [file, setFile] = useState<File | null>(null);
-  const [units, setUnits] = useState<'m3s' | 'cfs'>('m3s');
+  const [units, setUnits] = useState<'m3s' | 'cfs' | 'auto'>('auto');
   const [waterYearStart, setWaterYearStart] = useState('10-01');
   const [state, setState] = useState<State>({ step: 'idle' });
+  const [text, setText] = useState<string | null>(null);
+  const [choice, setChoice] = useState<Omit<FlowRecordReadOptions, 'units'>>({});
+  const [preview, setPreview] = useState<{ result?: FlowSourceResult; error?: string } | null>(null);
+
+  // The preview reads the file in the browser with the same reader as the server (loaded only on this page).
+  useEffect(() => {
+    if (text === null) {
+      setPreview(null);
+      return;
+    }
+    let live = true;
+    void import('#shared/hydrology/read-flow-source').then(({ readFlowSource }) => {
+      if (!live) return;
+      try {
+        setPreview({ result: readFlowSource(text, { units, ...choice }) });
+      } catch (err) {
+        setPreview({ error: err instanceof Error ? err.message : String(err) });
+      }
+    });
+    return () => {
+      live = false;
+    };
+  }, [text, units, choice]);
 
   async function send(acceptProblems: boolean) {
     if (!file) return;
     setState({ step: 'uploading', fraction: 0 });
     try {
-      const result = await uploadFlowRecord(riverId, file, { units, waterYearStart, acceptProblems }, (fraction) => setState({ step: 'uploading', fraction }));
+      const result = await uploadFlowRecord(
+        riverId,
+        file,
+        { units, waterYearStart, acceptProblems, ...choice, xml: preview?.result?.format === 'waterml2' || /\.xml$/i.test(file.name) },
+        (fraction) => setState({ step: 'uploading', fraction }),
+      );
       setState({ step: 'done', result });
       await qc.invalidateQueries({ queryKey: riverKeys.all });
     } catch (err) {
@@ -82,27 +111,33 @@ export function FlowRecordUpload({ riverId }: { riverId: string }) {
       >
         <div className="flex flex-col gap-1">
           <label htmlFor={`${id}-file`} className="text-sm font-semibold">
-            Gauge record (CSV)
+            Gauge record (CSV or WaterML 2.0)
           </label>
           <input
             id={`${id}-file`}
             type="file"
-            accept=".csv,text/csv,text/plain"
+            accept=".csv,.tsv,.txt,.xml,.wml,text/csv,text/plain,text/tab-separated-values,application/xml,text/xml"
             onChange={(e) => {
-              setFile(e.target.files?.[0] ?? null);
+              const f = e.target.files?.[0] ?? null;
+              setFile(f);
+              setChoice({});
+              setText(null);
               setState({ step: 'idle' });
+              if (f) void f.text().then(setText);
             }}
             aria-describedby={`${id}-file-hint`}
           />
           <p id={`${id}-file-hint`} className="text-xs text-shell-700">
-            Two columns: date (or date and time) and flow. Daily or finer; ten years or more for a trustworthy fit.
+            An agency export as it comes: CSV or tab-separated (comment lines starting with #, several columns, quality codes), or a WaterML 2.0
+            time series. Daily or finer; ten years or more for a trustworthy fit.
           </p>
         </div>
         <div className="flex flex-col gap-1">
           <label htmlFor={`${id}-units`} className="text-sm font-semibold">
             Flow units
           </label>
-          <select id={`${id}-units`} value={units} onChange={(e) => setUnits(e.target.value as 'm3s' | 'cfs')} className="rounded-md border border-shell-300 bg-white px-3 py-2">
+          <select id={`${id}-units`} value={units} onChange={(e) => setUnits(e.target.value as 'm3s' | 'cfs' | 'auto')} className="rounded-md border border-shell-300 bg-white px-3 py-2">
+            <option value="auto">as the file says</option>
             <option value="m3s">cubic metres per second (m³/s)</option>
             <option value="cfs">cubic feet per second (cfs)</option>
           </select>
@@ -117,6 +152,13 @@ export function FlowRecordUpload({ riverId }: { riverId: string }) {
           Upload record
         </Button>
       </form>
+
+      {preview?.error && (
+        <Notice tone="problem" title="This file cannot be read yet">
+          {preview.error}
+        </Notice>
+      )}
+      {preview?.result && <RecordPreview result={preview.result} choice={choice} onChoice={setChoice} />}
 
       {state.step === 'uploading' && (
         <div role="status" aria-live="polite" className="space-y-1">
@@ -146,9 +188,99 @@ export function FlowRecordUpload({ riverId }: { riverId: string }) {
       {state.step === 'done' && (
         <Notice tone="done" title="Record saved">
           {fmtNumber(state.result.readings)} readings kept
-          {state.result.problems.length ? `, ${fmtNumber(state.result.problems.length)} rows left out` : ''}. The flood-frequency fit and the scenarios below are new.
+          {state.result.problems.length ? `, ${fmtNumber(state.result.problems.length)} rows left out` : ''}
+          {state.result.droppedProvisional ? `, ${fmtNumber(state.result.droppedProvisional)} provisional values left out` : ''}. The flood-frequency fit and the
+          scenarios below are new.
+          {state.result.unitsNote && <span className="block">{state.result.unitsNote}</span>}
         </Notice>
       )}
     </div>
+  );
+}
+
+/** What the reader makes of the file before it is sent: columns (changeable), units, quality codes, sub-daily days. */
+function RecordPreview({
+  result,
+  choice,
+  onChoice,
+}: {
+  result: FlowSourceResult;
+  choice: Omit<FlowRecordReadOptions, 'units'>;
+  onChoice: (c: Omit<FlowRecordReadOptions, 'units'>) => void;
+}) {
+  const id = useId();
+  const provisional = result.qualityCodes.filter((c) => c.provisional).reduce((n, c) => n + c.count, 0);
+  const cols = result.columns;
+  const select = (key: 'dateColumn' | 'dischargeColumn' | 'qualityColumn', label: string, value: string | null, allowNone = false) => (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={`${id}-${key}`} className="text-sm font-semibold">
+        {label}
+      </label>
+      <select
+        id={`${id}-${key}`}
+        value={value ?? ''}
+        onChange={(e) => onChoice({ ...choice, [key]: e.target.value })}
+        className="rounded-md border border-shell-300 bg-white px-3 py-2 text-sm"
+      >
+        {allowNone && <option value="">none</option>}
+        {cols?.names.map((n) => (
+          <option key={n} value={n}>
+            {n}
+          </option>
+        ))}
+      </select>
+    </div>
+  );
+  return (
+    <section className="space-y-3 rounded-md border border-shell-200 p-3 text-sm" aria-label="What the file holds" data-testid="record-preview">
+      <p>
+        {result.format === 'waterml2' ? 'A WaterML 2.0 time series' : 'A table'}: {fmtNumber(result.readings.length)} readings
+        {result.problems.length ? `, ${fmtNumber(result.problems.length)} rows with problems` : ''}, {result.interval === 'daily' ? 'daily' : 'several readings a day'}.{' '}
+        {result.unitsNote}
+      </p>
+      {cols && (
+        <div className="grid gap-3 sm:grid-cols-3">
+          {select('dateColumn', cols.guessed ? 'Date column (guessed)' : 'Date column', cols.date)}
+          {select('dischargeColumn', cols.guessed ? 'Flow column (guessed)' : 'Flow column', cols.discharge)}
+          {select('qualityColumn', 'Quality or approval codes', cols.quality, true)}
+        </div>
+      )}
+      {result.qualityCodes.length > 0 && (
+        <div>
+          <p className="font-semibold">Quality and approval codes (kept with each reading)</p>
+          <ul className="flex flex-wrap gap-3" data-testid="quality-codes">
+            {result.qualityCodes.map((c) => (
+              <li key={c.code}>
+                <span className="font-mono">{c.code}</span>: {fmtNumber(c.count)}
+                {c.provisional ? ' (provisional)' : ''}
+              </li>
+            ))}
+          </ul>
+          {(provisional > 0 || choice.dropProvisional) && (
+            <label className="mt-1 flex items-center gap-2">
+              <input type="checkbox" checked={choice.dropProvisional ?? false} onChange={(e) => onChoice({ ...choice, dropProvisional: e.target.checked })} />
+              Leave out the provisional values ({fmtNumber(provisional || result.droppedProvisional)})
+            </label>
+          )}
+        </div>
+      )}
+      {result.daily && (
+        <fieldset>
+          <legend className="font-semibold">Several readings a day ({fmtNumber(result.daily.length)} days, times converted from their zones to UTC)</legend>
+          {(['max', 'mean', undefined] as const).map((d) => (
+            <label key={d ?? 'all'} className="mr-4 inline-flex items-center gap-2">
+              <input type="radio" name={`${id}-daily`} checked={choice.daily === d} onChange={() => onChoice({ ...choice, daily: d })} />
+              {d === 'max' ? 'Daily maxima' : d === 'mean' ? 'Daily means' : 'Every reading'}
+            </label>
+          ))}
+        </fieldset>
+      )}
+      {result.aggregated && <p>Stored as daily {result.aggregated === 'max' ? 'maxima' : 'means'}, one reading a day as written in the file.</p>}
+      {result.warnings.map((w) => (
+        <p key={w} className="text-shell-900">
+          {w}
+        </p>
+      ))}
+    </section>
   );
 }

@@ -1,3 +1,4 @@
+import { BUILTIN_COAST_ATTRIBUTION, BUILTIN_COAST_CAUTION } from '#shared/cautions';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useMemo, useState } from 'react';
@@ -10,6 +11,7 @@ import { PageHeader } from '../../../components/ui/page-header';
 import { Empty, LoadError, Loading } from '../../../components/ui/states';
 import { fmtNumber } from '../../../lib/format';
 import { useMe } from '../../account/api/get-me';
+import { CoastChoice } from './coast-choice';
 import { riverKeys, updateRiver } from '../api/rivers-api';
 import { DesignFlowTable } from './design-flow-table';
 import { type DistributionId, FloodFrequencyChart } from './flood-frequency-chart';
@@ -139,6 +141,17 @@ function RiverView({ river }: { river: River }) {
         <a href="#scenarios" className="text-deep-700 underline">Scenarios</a>
         <a href="#plume" className="text-deep-700 underline">Settings and plume numbers</a>
       </nav>
+      {river.coastSource === 'builtin' && (
+        <Notice tone="info" title="On the built-in world coastline">
+          <p>{BUILTIN_COAST_CAUTION}</p>
+          <p className="mt-1 text-xs">{BUILTIN_COAST_ATTRIBUTION}</p>
+          {canEdit && (
+            <div className="mt-2">
+              <CoastChoice river={river} />
+            </div>
+          )}
+        </Notice>
+      )}
       {river.defaultsUsed.length > 0 && (
         <Notice tone="info" title={`${river.defaultsUsed.length} settings still use regional defaults`}>
           <p>

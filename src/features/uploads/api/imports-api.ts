@@ -19,6 +19,11 @@ export interface ImportResult {
   kind: UploadKind;
   status: 'needs-crs' | 'ready' | 'confirmed';
   fileName: string;
+  format?: 'shapefile' | 'geojson' | 'kml' | 'kmz' | 'gpx' | 'geopackage';
+  /** Every layer of a file holding several (KML folders, GeoPackage tables, shapefiles in a zip). */
+  layers?: { name: string; featureCount: number; geometryTypes: string[] }[];
+  selectedLayer?: string | null;
+  tracksAsPolygons?: boolean;
   crs: { found: boolean; epsg?: number; wkt?: string; name?: string };
   featureCount: number;
   geometryTypes: string[];
@@ -37,7 +42,12 @@ export interface ConfirmBody {
  * Uploads with XMLHttpRequest because fetch cannot report upload progress.
  * `onProgress` gets 0..1 while the bytes go up; parsing on the server follows.
  */
-export function uploadImport(file: File, kind: UploadKind, onProgress: (fraction: number) => void): Promise<ImportResult> {
+export function uploadImport(
+  file: File,
+  kind: UploadKind,
+  onProgress: (fraction: number) => void,
+  choices: { tracksAsPolygons?: boolean } = {},
+): Promise<ImportResult> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open('POST', '/api/v1/imports');
@@ -54,6 +64,7 @@ export function uploadImport(file: File, kind: UploadKind, onProgress: (fraction
     xhr.onerror = () => reject(new ApiError(0, 'network', 'The upload did not reach the server. Check your connection and try again.'));
     const form = new FormData();
     form.append('kind', kind);
+    if (choices.tracksAsPolygons) form.append('tracksAsPolygons', 'true');
     form.append('file', file);
     xhr.send(form);
   });
@@ -80,3 +91,12 @@ export function setImportCrs(id: string, epsg: number) {
 export function confirmImport(id: string, body: ConfirmBody) {
   return api<{ created: number; updated: number; ids: string[] }>(`/imports/${id}/confirm`, { method: 'POST', json: body });
 }
+
+/** Reads only one layer of the upload (null: every usable layer); answers the new preview. */
+export function pickImportLayer(id: string, layer: string | null) {
+  return api<ImportResult>(`/imports/${id}/layer`, { method: 'POST', json: { layer } });
+}
+
+/** File types the upload takes (the server tells the format from the content). */
+export const UPLOAD_ACCEPT =
+  '.zip,.geojson,.json,.kml,.kmz,.gpx,.gpkg,application/zip,application/geo+json,application/vnd.google-earth.kml+xml,application/vnd.google-earth.kmz,application/gpx+xml,application/geopackage+sqlite3';

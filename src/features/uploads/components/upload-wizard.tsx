@@ -6,7 +6,17 @@ import { Button } from '../../../components/ui/button';
 import { Notice } from '../../../components/ui/notice';
 import { Loading } from '../../../components/ui/states';
 import { ApiError } from '../../../lib/api-client';
-import { type ConfirmBody, confirmImport, type ImportResult, importKeys, setImportCrs, type UploadKind, uploadImport } from '../api/imports-api';
+import {
+  type ConfirmBody,
+  confirmImport,
+  type ImportResult,
+  importKeys,
+  pickImportLayer,
+  setImportCrs,
+  UPLOAD_ACCEPT,
+  type UploadKind,
+  uploadImport,
+} from '../api/imports-api';
 
 const KIND_WORDS: Record<UploadKind, { noun: string; plural: string }> = {
   lease: { noun: 'lease', plural: 'leases' },
@@ -25,16 +35,18 @@ export function UploadWizard({ kinds, onDone }: { kinds: UploadKind[]; onDone?: 
   const [file, setFile] = useState<File | null>(null);
   const [progress, setProgress] = useState(0);
   const [result, setResult] = useState<ImportResult | null>(null);
+  const [tracksAsPolygons, setTracksAsPolygons] = useState(false);
   const fileInputId = useId();
 
   const upload = useMutation({
-    mutationFn: () => {
+    mutationFn: (confirmTracks?: boolean) => {
       if (!file) throw new Error('Choose a file first.');
       setProgress(0);
-      return uploadImport(file, kind, setProgress);
+      return uploadImport(file, kind, setProgress, { tracksAsPolygons: confirmTracks ?? tracksAsPolygons });
     },
     onSuccess: setResult,
   });
+  const needsTracks = upload.error instanceof ApiError && upload.error.code === 'tracks_need_confirmation';
 
   if (result?.status === 'needs-crs') return <ChooseCrs result={result} onChosen={setResult} />;
   if (result) return <PreviewAndConfirm result={result} onChangeCrs={(r) => setResult(r)} onRestart={() => setResult(null)} onDone={onDone} />;
@@ -44,12 +56,13 @@ export function UploadWizard({ kinds, onDone }: { kinds: UploadKind[]; onDone?: 
       className="space-y-4 rounded-lg border border-sand-200 bg-white p-4"
       onSubmit={(e) => {
         e.preventDefault();
-        upload.mutate();
+        upload.mutate(undefined);
       }}
     >
       <h2 className="text-lg font-semibold text-deep-900">1. Choose a file</h2>
       <p className="text-sm text-shell-700">
-        A zipped shapefile (.shp, .shx, .dbf and .prj together in one .zip) or a GeoJSON FeatureCollection. Any coordinate system: Brackline reprojects it.
+        A zipped shapefile (.shp, .shx, .dbf and .prj together in one .zip), GeoJSON, KML or KMZ from a globe viewer, GPX from a GPS app (a track walked
+        round each lease), or a GeoPackage. Any coordinate system: Brackline reprojects it.
       </p>
       {kinds.length > 1 && (
         <fieldset className="flex flex-wrap gap-4">
@@ -66,7 +79,15 @@ export function UploadWizard({ kinds, onDone }: { kinds: UploadKind[]; onDone?: 
         <label htmlFor={fileInputId} className="text-sm font-semibold">
           File
         </label>
-        <input id={fileInputId} type="file" accept=".zip,.geojson,.json,application/zip,application/geo+json" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
+        <input
+          id={fileInputId}
+          type="file"
+          accept={UPLOAD_ACCEPT}
+          onChange={(e) => {
+            setFile(e.target.files?.[0] ?? null);
+            setTracksAsPolygons(false);
+          }}
+        />
       </div>
       {upload.isPending && (
         <div role="status" aria-live="polite" className="text-sm">
@@ -74,7 +95,23 @@ export function UploadWizard({ kinds, onDone }: { kinds: UploadKind[]; onDone?: 
           <progress className="mt-1 block w-full" max={1} value={progress < 1 ? progress : undefined} />
         </div>
       )}
-      {upload.isError && <Notice tone="problem" title="The file was not accepted">{(upload.error as Error).message}</Notice>}
+      {upload.isError && !needsTracks && <Notice tone="problem" title="The file was not accepted">{(upload.error as Error).message}</Notice>}
+      {needsTracks && (
+        <Notice tone="info" title="Are these tracks the outlines of areas?">
+          <p>{(upload.error as Error).message.replace(/ If each track.*$/, '')}</p>
+          <p className="mt-2">If each track walks round one {KIND_WORDS[kind].noun}, Brackline can turn it into an area, closing any gap with a straight line. Check the outlines in the preview.</p>
+          <Button
+            type="button"
+            className="mt-2"
+            onClick={() => {
+              setTracksAsPolygons(true);
+              upload.mutate(true);
+            }}
+          >
+            Turn tracks into areas
+          </Button>
+        </Notice>
+      )}
       <Button type="submit" disabled={!file || upload.isPending}>
         Upload and check
       </Button>
@@ -143,7 +180,7 @@ function PreviewAndConfirm({
   onDone?: () => void;
 }) {
   const queryClient = useQueryClient();
-  const preview = useQuery(importKeys.preview(result.id, `${result.status}-${result.crs.epsg}`));
+  const preview = useQuery(importKeys.preview(result.id, `${result.status}-${result.crs.epsg}-${result.selectedLayer ?? ''}`));
   const [mapping, setMapping] = useState<ConfirmBody['mapping']>(result.suggestedMapping ?? {});
   const [duplicates, setDuplicates] = useState<string[] | null>(null);
   const [pickCrs, setPickCrs] = useState(false);
@@ -183,7 +220,7 @@ function PreviewAndConfirm({
     return (
       <Notice tone="done" title="Saved">
         <p>
-          {confirm.data.created} {words.plural} added{confirm.data.updated ? `, ${confirm.data.updated} replaced` : ''}.{' '}
+          {confirm.data.created} {confirm.data.created === 1 ? words.noun : words.plural} added{confirm.data.updated ? `, ${confirm.data.updated} replaced` : ''}.{' '}
           {result.kind === 'lease' && (
             <Link className="font-semibold underline" to="/leases">
               See them in the leases table
@@ -219,6 +256,7 @@ function PreviewAndConfirm({
         <dt className="font-semibold">Area</dt>
         <dd>{areas.length ? `${formatArea(Math.min(...areas))} to ${formatArea(Math.max(...areas))}` : '—'}</dd>
       </dl>
+      {(result.layers?.length ?? 0) > 1 && <LayerPicker result={result} onPicked={onChangeCrs} />}
       {result.warnings.length > 0 && <Warnings warnings={result.warnings} />}
       {repaired.length > 0 && (
         <Notice tone="info" title={`${repaired.length} feature${repaired.length > 1 ? 's were' : ' was'} repaired`}>
@@ -336,5 +374,40 @@ function MappingForm({ result, mapping, onChange }: { result: ImportResult; mapp
         ))}
       </div>
     </fieldset>
+  );
+}
+
+/** A file with several layers (KML folders, GeoPackage tables, shapefiles in a zip): list them and read one, or all. */
+function LayerPicker({ result, onPicked }: { result: ImportResult; onPicked: (r: ImportResult) => void }) {
+  const id = useId();
+  const [choice, setChoice] = useState(result.selectedLayer ?? '');
+  const pick = useMutation({ mutationFn: (layer: string | null) => pickImportLayer(result.id, layer), onSuccess: onPicked });
+  return (
+    <form
+      className="space-y-2 rounded-md border border-shell-200 p-3"
+      aria-label="Layers in the file"
+      onSubmit={(e) => {
+        e.preventDefault();
+        pick.mutate(choice === '' ? null : choice);
+      }}
+    >
+      <label htmlFor={id} className="block text-sm font-semibold">
+        The file holds {result.layers!.length} layers. Read:
+      </label>
+      <div className="flex flex-wrap items-center gap-2">
+        <select id={id} value={choice} onChange={(e) => setChoice(e.target.value)} className="rounded-md border border-shell-300 bg-white px-3 py-2 text-sm" data-testid="layer-picker">
+          <option value="">Every layer that fits</option>
+          {result.layers!.map((l) => (
+            <option key={l.name} value={l.name}>
+              {l.name} — {l.featureCount} feature{l.featureCount === 1 ? '' : 's'} ({l.geometryTypes.join(', ')})
+            </option>
+          ))}
+        </select>
+        <Button type="submit" variant="secondary" disabled={pick.isPending || choice === (result.selectedLayer ?? '')}>
+          Read this layer
+        </Button>
+      </div>
+      {pick.isError && <Notice tone="problem" title="That layer cannot be used">{(pick.error as Error).message}</Notice>}
+    </form>
   );
 }
