@@ -12,6 +12,8 @@ export interface BenchResult {
   runs: number;
   ratioToBaseline: number;
   targetMs?: number;
+  /** The figure compared with targetMs when it is not the median (e.g. a p99 under load); defaults to medianMs. */
+  judgedMs?: number;
   note?: string;
 }
 
@@ -68,7 +70,7 @@ export function report(results: BenchResult[]): void {
     'median ms': Number.isNaN(r.medianMs) ? '' : r.medianMs.toFixed(2),
     'p90 ms': Number.isNaN(r.p90Ms) ? '' : r.p90Ms.toFixed(2),
     '× baseline': Number.isNaN(r.ratioToBaseline) ? '' : r.ratioToBaseline.toFixed(3),
-    target: r.targetMs !== undefined ? `≤ ${r.targetMs} ms ${r.medianMs <= r.targetMs ? '(met)' : '(missed)'}` : '',
+    target: r.targetMs !== undefined ? `≤ ${r.targetMs} ms ${(r.judgedMs ?? r.medianMs) <= r.targetMs ? '(met)' : '(missed)'}` : '',
     note: r.note ?? '',
   }));
   console.table(rows);

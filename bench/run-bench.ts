@@ -8,6 +8,8 @@ import { scienceBenchmarks } from './science-bench';
 import { clientBenchmarks } from './client-bench';
 import { screeningBenchmarks } from './screening-bench';
 import { uploadBenchmarks } from './upload-bench';
+import { apiBenchmarks } from './api-bench';
+import { overlayLibraryBenchmarks } from './overlay-library-bench';
 import { workersBenchmarks } from './workers-bench';
 
 async function main() {
@@ -15,10 +17,12 @@ async function main() {
   const results: BenchResult[] = [];
   const only = process.argv[2];
   if (!only || only === 'science') results.push(...(await scienceBenchmarks()));
+  if (!only || only === 'overlay') results.push(...(await overlayLibraryBenchmarks()));
   const databaseUrl = process.env.DATABASE_URL;
   if (databaseUrl && (!only || only === 'upload')) results.push(...(await uploadBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'screening')) results.push(...(await screeningBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'workers')) results.push(...(await workersBenchmarks(databaseUrl)));
+  if (databaseUrl && (!only || only === 'api')) results.push(...(await apiBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'client')) results.push(...(await clientBenchmarks(databaseUrl)));
   report(results);
   const mem = process.memoryUsage();

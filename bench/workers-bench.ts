@@ -133,6 +133,9 @@ export async function workersBenchmarks(databaseUrl: string): Promise<BenchResul
     await db.execute(sql`DELETE FROM leases WHERE lease_code LIKE 'BENCHW-%'`);
     await handle.pool.end();
   }
-  if (results.length === 3) results[2].note += `; ${(results[1].medianMs / results[2].medianMs).toFixed(2)}× the one-worker speed`;
+  if (results.length === 3) {
+    const ratio = results[2].medianMs / results[1].medianMs;
+    results[2].note += `; ${(results[1].medianMs / results[2].medianMs).toFixed(2)}× the one-worker speed; two workers take ${ratio.toFixed(2)}× the one-worker time (goal ≤ 0.6×, ${ratio <= 0.6 ? 'met' : 'missed'})`;
+  }
   return results;
 }

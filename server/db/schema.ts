@@ -252,6 +252,14 @@ export const leases = pgTable(
     index('leases_owner_idx').on(t.ownerId),
     index('leases_jurisdiction_status_idx').on(t.jurisdictionId, t.status),
     index('leases_code_idx').on(t.ownerId, t.leaseCode),
+    // One per sort the leases table offers, so a long visible list (a regulator's) is read in order and stops at the page.
+    index('leases_lease_code_idx').on(t.leaseCode),
+    index('leases_holder_idx').on(t.holder),
+    index('leases_species_idx').on(t.species),
+    index('leases_area_idx').on(t.areaM2),
+    index('leases_created_idx').on(t.createdAt),
+    index('leases_status_idx').on(t.status),
+    index('leases_import_idx').on(t.importId),
   ],
 );
 

@@ -7,6 +7,7 @@ import type { Database } from '../db/client';
 import { invitations, jurisdictions, organisations, passwordResetTokens, users } from '../db/schema';
 import { ConflictError, NotFoundError, ValidationError } from '../lib/errors';
 import type { Mailer } from '../mail/mailer';
+import { forgetUser } from '../auth/current-user';
 import { hashPassword, hashToken, newToken } from '../auth/passwords';
 import { recordAudit } from './audit.service';
 
@@ -64,7 +65,7 @@ export function createAccountsService(deps: { db: Database; mailer: Mailer; appU
   async function confirmPasswordReset(token: string, password: string) {
     const tokenHash = hashToken(token);
     const passwordHash = await hashPassword(password);
-    await db.transaction(async (tx) => {
+    const userId = await db.transaction(async (tx) => {
       const [row] = await tx
         .select()
         .from(passwordResetTokens)
@@ -76,7 +77,10 @@ export function createAccountsService(deps: { db: Database; mailer: Mailer; appU
       // A new password ends every existing session.
       await tx.update(users).set({ passwordHash, sessionVersion: user.sv + 1 }).where(eq(users.id, row.userId));
       await recordAudit(tx, { actorId: row.userId, action: 'user.password-reset', subjectType: 'user', subjectId: row.userId });
+      return row.userId;
     });
+    // After the commit, so no request can re-read the old row in between.
+    forgetUser(userId);
   }
 
   async function invite(actorId: string, input: { email: string; role: Role; jurisdictionId?: string }) {
@@ -137,7 +141,7 @@ export function createAccountsService(deps: { db: Database; mailer: Mailer; appU
   }
 
   async function changeRole(actorId: string, userId: string, role: Role, jurisdictionId?: string | null) {
-    return db.transaction(async (tx) => {
+    await db.transaction(async (tx) => {
       const [before] = await tx.select().from(users).where(eq(users.id, userId)).limit(1);
       if (!before) throw new NotFoundError('No user with this id. Reload the Users page.');
       if (role === 'regulator' && !(jurisdictionId ?? before.jurisdictionId)) {
@@ -157,11 +161,13 @@ export function createAccountsService(deps: { db: Database; mailer: Mailer; appU
         after: { role, jurisdictionId: jurisdictionId ?? before.jurisdictionId },
       });
     });
+    forgetUser(userId);
   }
 
   async function signOutEverywhere(userId: string) {
     const [row] = await db.select({ sv: users.sessionVersion }).from(users).where(eq(users.id, userId));
     await db.update(users).set({ sessionVersion: row.sv + 1 }).where(eq(users.id, userId));
+    forgetUser(userId);
   }
 
   return { signUp, requestPasswordReset, confirmPasswordReset, invite, findInvitation, acceptInvitation, changeRole, signOutEverywhere };

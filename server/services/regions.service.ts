@@ -10,6 +10,7 @@ import type { CurrentUser } from '../http/route';
 import { ConflictError, ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors';
 import { recordAudit } from './audit.service';
 import { deliverToInbox } from './inbox.service';
+import { forgetUser } from '../auth/current-user';
 
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0];
 
@@ -29,7 +30,11 @@ export async function assignLeasesToRegions(tx: Tx | Database, user: CurrentUser
      RETURNING best.lease_id, best.jurisdiction_id, best.name`);
   if (user.role !== 'grower' || user.jurisdictionId || placed.rows.length === 0) return { joined: null };
   const region = placed.rows[0];
-  await tx.execute(sql`UPDATE users SET jurisdiction_id = ${region.jurisdiction_id}::uuid WHERE id = ${user.id} AND jurisdiction_id IS NULL`);
+  await tx.execute(
+    sql`UPDATE users SET jurisdiction_id = ${region.jurisdiction_id}::uuid WHERE id = ${user.id} AND jurisdiction_id IS NULL`,
+  );
+  // The cached users row (server/auth/current-user.ts) must not hide the new region from the next request.
+  forgetUser(user.id);
   await recordAudit(tx, {
     actorId: user.id,
     action: 'user.region-join',
@@ -67,10 +72,12 @@ export function createRegionsService(db: Database) {
   /** Sets a jurisdiction's area: an admin, or a regulator of that jurisdiction. Nothing changes on refusal. */
   async function setArea(user: CurrentUser, id: string, area: { type: 'MultiPolygon'; coordinates: number[][][][] }): Promise<Region> {
     if (!(user.role === 'admin' || (user.role === 'regulator' && user.jurisdictionId === id))) {
-      throw new ForbiddenError("Only an administrator or a regulator of this jurisdiction can set its area.");
+      throw new ForbiddenError('Only an administrator or a regulator of this jurisdiction can set its area.');
     }
     await db.transaction(async (tx) => {
-      const exists = await tx.execute<{ id: string; area: string | null }>(sql`SELECT id, ST_AsGeoJSON(area) AS area FROM jurisdictions WHERE id = ${id}::uuid FOR UPDATE`);
+      const exists = await tx.execute<{ id: string; area: string | null }>(
+        sql`SELECT id, ST_AsGeoJSON(area) AS area FROM jurisdictions WHERE id = ${id}::uuid FOR UPDATE`,
+      );
       if (!exists.rows[0]) throw new NotFoundError('No region with this id. Pick one from GET /regions.');
       const geom = sql`ST_SetSRID(ST_GeomFromGeoJSON(${JSON.stringify(area)}), 4326)`;
       const check = await tx.execute<{ valid: boolean; reason: string; area_km2: number | null }>(sql`
@@ -81,7 +88,8 @@ export function createRegionsService(db: Database) {
           `area: the polygon is not valid (${check.rows[0].reason}). Its edges must not cross themselves; draw or export it again.`,
         );
       }
-      if (!check.rows[0].area_km2 || check.rows[0].area_km2 <= 0) throw new UnprocessableError('area: the polygon encloses no area. Give at least three distinct corners.');
+      if (!check.rows[0].area_km2 || check.rows[0].area_km2 <= 0)
+        throw new UnprocessableError('area: the polygon encloses no area. Give at least three distinct corners.');
       const overlaps = await tx.execute<{ name: string; km2: number }>(sql`
         SELECT j.name, ST_Area(ST_Intersection(j.area, ${geom})::geography) / 1e6 AS km2 FROM jurisdictions j
          WHERE j.id <> ${id}::uuid AND j.area IS NOT NULL AND ST_Intersects(j.area, ${geom})
@@ -108,13 +116,15 @@ export function createRegionsService(db: Database) {
 
   /** A grower picks a region (or none, with null). Their existing leases keep their jurisdiction. */
   async function setGrowerRegion(user: CurrentUser, regionId: string | null) {
-    if (user.role !== 'grower') throw new ForbiddenError('Only growers choose their region; advisers and regulators are placed by an administrator.');
+    if (user.role !== 'grower')
+      throw new ForbiddenError('Only growers choose their region; advisers and regulators are placed by an administrator.');
     await db.transaction(async (tx) => {
       if (regionId) {
         const found = await tx.execute(sql`SELECT 1 FROM jurisdictions WHERE id = ${regionId}::uuid`);
         if (!found.rows[0]) throw new NotFoundError('No region with this id. Pick one from GET /regions.');
       }
       await tx.execute(sql`UPDATE users SET jurisdiction_id = ${regionId}::uuid WHERE id = ${user.id}`);
+      forgetUser(user.id);
       await recordAudit(tx, {
         actorId: user.id,
         action: 'user.region',

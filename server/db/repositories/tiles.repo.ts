@@ -21,17 +21,18 @@ export async function leaseTile(
   const shape = z < 12 ? sql`ST_PointOnSurface(l.geom)` : sql`l.geom`;
   const tile = await db.execute<{ mvt: Buffer }>(sql`
     WITH bounds AS (SELECT ST_TileEnvelope(${z}, ${x}, ${y}) AS env),
-    worst AS (${
-      scenarioId
-        ? sql`SELECT s.lease_id, s.rating AS worst_rating FROM screenings s WHERE s.scenario_id = ${scenarioId}::uuid`
-        : sql`SELECT DISTINCT ON (a.lease_id) a.lease_id, a.worst_rating
-        FROM lease_annual_exposure a ${riverId ? sql`WHERE a.river_id = ${riverId}::uuid` : sql``}
-       ORDER BY a.lease_id, array_position(ARRAY['low','moderate','high','severe'], a.worst_rating) DESC`
-    }),
     rows AS (
       SELECT l.id, l.lease_code AS lease, l.status, l.species, COALESCE(w.worst_rating, 'none') AS rating,
              ST_AsMVTGeom(ST_Transform(${shape}, 3857), bounds.env, 4096, 64, true) AS geom
-        FROM leases l CROSS JOIN bounds LEFT JOIN worst w ON w.lease_id = l.id
+        FROM leases l CROSS JOIN bounds
+        -- Per lease in the tile (primary-key lookups), not a pass over every lease's figures: the cost follows the tile.
+        LEFT JOIN LATERAL (${
+          scenarioId
+            ? sql`SELECT s.rating AS worst_rating FROM screenings s WHERE s.lease_id = l.id AND s.scenario_id = ${scenarioId}::uuid`
+            : sql`SELECT a.worst_rating FROM lease_annual_exposure a
+                   WHERE a.lease_id = l.id ${riverId ? sql`AND a.river_id = ${riverId}::uuid` : sql``}
+                   ORDER BY array_position(ARRAY['low','moderate','high','severe'], a.worst_rating) DESC LIMIT 1`
+        }) w ON true
        WHERE l.geom && ST_Transform(bounds.env, 4326) AND ${visibleLeases(user)})
     SELECT ST_AsMVT(rows, 'leases', 4096, 'geom') AS mvt FROM rows WHERE geom IS NOT NULL`);
   return tile.rows[0]?.mvt ?? Buffer.alloc(0);

@@ -2,6 +2,7 @@ import { encode } from '@auth/core/jwt';
 import { eq, sql } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { USER_ROW_TTL_MS } from '../../../server/auth/current-user';
 import { users } from '../../../server/db/schema';
 import { clearMail, createTestApp, DEMO_PASSWORD, signIn, type TestApp, waitForMail } from '../../helpers/test-app';
 
@@ -93,9 +94,23 @@ describe('sessions', () => {
     await request(t.app).post('/api/v1/account/sign-up').send({ name: 'Two Devices', email, password: 'a-long-password-2' }).expect(201);
     const phone = await signIn(t.app, email, 'a-long-password-2');
     const laptop = await signIn(t.app, email, 'a-long-password-2');
+    // Both sessions have just been checked, so the user's row is in the resolver's cache: the bump must still be seen.
+    await laptop.agent.get('/api/v1/account/me').expect(200);
+    await phone.agent.get('/api/v1/account/me').expect(200);
     await phone.agent.post('/api/v1/account/sign-out-everywhere').expect(200);
     await phone.agent.get('/api/v1/account/me').expect(401);
     await laptop.agent.get('/api/v1/account/me').expect(401);
+  });
+
+  it('refuses a session within USER_ROW_TTL_MS when another process bumps the session version in the database', async () => {
+    const email = 'other-process@brackline.test';
+    await request(t.app).post('/api/v1/account/sign-up').send({ name: 'Other Process', email, password: 'a-long-password-3' }).expect(201);
+    const device = await signIn(t.app, email, 'a-long-password-3');
+    await device.agent.get('/api/v1/account/me').expect(200);
+    // What another web server does on sign-out-everywhere; this process is not told.
+    await t.db.db.execute(sql`UPDATE users SET session_version = session_version + 1 WHERE email = ${email}`);
+    await new Promise((r) => setTimeout(r, USER_ROW_TTL_MS + 100));
+    await device.agent.get('/api/v1/account/me').expect(401);
   });
 });
 
@@ -193,6 +208,7 @@ describe('invitations', () => {
     const email = 'role-change@brackline.test';
     await request(t.app).post('/api/v1/account/sign-up').send({ name: 'Role Change', email, password: 'role-password-1' }).expect(201);
     const user = await signIn(t.app, email, 'role-password-1');
+    await user.agent.get('/api/v1/account/me').expect(200);
     const [row] = await t.db.db.select().from(users).where(eq(users.email, email));
     const admin = await signIn(t.app, 'admin@brackline.test');
     await admin.agent.patch(`/api/v1/admin/users/${row.id}`).send({ role: 'adviser' }).expect(200);

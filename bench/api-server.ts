@@ -1,0 +1,21 @@
+/**
+ * The app for bench/api-bench.ts, in its own process so the load generator does not share its event loop:
+ * started on 127.0.0.1 with the production pool size; prints its port on stdout, then serves until killed.
+ */
+import type { AddressInfo } from 'node:net';
+import { createApp } from '../server/app';
+import { createDb } from '../server/db/client';
+import { loadEnv } from '../server/env';
+import { createMailer } from '../server/mail/mailer';
+
+const env = loadEnv({
+  NODE_ENV: 'test',
+  DATABASE_URL: process.env.DATABASE_URL!,
+  AUTH_SECRET: process.env.BENCH_AUTH_SECRET!,
+  SMTP_URL: 'smtp://127.0.0.1:9',
+});
+const mailer = createMailer(env.SMTP_URL, env.MAIL_FROM);
+const app = createApp({ env, db: createDb(env.DATABASE_URL), mailer });
+const server = app.listen(0, '127.0.0.1', () => {
+  console.log(`port ${(server.address() as AddressInfo).port}`);
+});
