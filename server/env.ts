@@ -126,3 +126,13 @@ export function uploadLimitsFromEnv(source: Record<string, string | undefined> =
     maxVertices: read('UPLOAD_MAX_VERTICES'),
   };
 }
+
+/** loadEnv for an entry point (app or worker): a bad setting ends the process with its message, exit code 2. */
+export function loadEnvOrExit(): Env {
+  try {
+    return loadEnv();
+  } catch (err) {
+    console.error(`[brackline] ${(err as Error).message}`);
+    process.exit(2);
+  }
+}

@@ -5,7 +5,7 @@
 import type { Server } from 'node:http';
 import { createApp } from './app';
 import { createDb } from './db/client';
-import { loadEnv, uploadLimitsFromEnv } from './env';
+import { loadEnvOrExit, uploadLimitsFromEnv } from './env';
 import { startSmtpFake, type SmtpFake } from './fakes/smtp-fake';
 import { logger } from './lib/logger';
 import { createMailer } from './mail/mailer';
@@ -16,13 +16,7 @@ import { type PaymentFake, startPaymentFake } from './fakes/payment-fake';
 import { upgradeStoredModel } from './services/model-upgrade.service';
 
 async function main() {
-  let env: ReturnType<typeof loadEnv>;
-  try {
-    env = loadEnv();
-  } catch (err) {
-    console.error(`[brackline] ${(err as Error).message}`);
-    process.exit(2);
-  }
+  const env = loadEnvOrExit();
   const dbHandle = createDb(env.DATABASE_URL);
   const mailer = createMailer(env.SMTP_URL, env.MAIL_FROM);
   let smtp: SmtpFake | undefined;
@@ -76,7 +70,8 @@ async function main() {
   const { jobs, alertJobs } = await startJobs(env, dbHandle, { work: env.WORKERS });
   // Stored results of an older model version are re-screened (and legacy river settings carried over) at start-up.
   const upgraded = await upgradeStoredModel(dbHandle.db, jobs);
-  if (upgraded.queued.length) logger.info({ rivers: upgraded.queued.length, carried: upgraded.carried.length }, 're-screening results of an older model');
+  if (upgraded.queued.length)
+    logger.info({ rivers: upgraded.queued.length, carried: upgraded.carried.length }, 're-screening results of an older model');
   const app = createApp({ env, db: dbHandle, mailer, uploadLimits: uploadLimitsFromEnv(), jobs, alertJobs });
   await app.locals.alertsReady;
   const server: Server = app.listen(env.PORT, env.HOST);

@@ -5,19 +5,13 @@
  */
 import { createApp } from './app';
 import { createDb } from './db/client';
-import { loadEnv, uploadLimitsFromEnv } from './env';
+import { loadEnvOrExit, uploadLimitsFromEnv } from './env';
 import { startJobs } from './jobs/start-jobs';
 import { logger } from './lib/logger';
 import { createMailer } from './mail/mailer';
 
 async function main() {
-  let env: ReturnType<typeof loadEnv>;
-  try {
-    env = loadEnv();
-  } catch (err) {
-    console.error(`[brackline] ${(err as Error).message}`);
-    process.exit(2);
-  }
+  const env = loadEnvOrExit();
   const dbHandle = createDb(env.DATABASE_URL);
   const mailer = createMailer(env.SMTP_URL, env.MAIL_FROM);
   let started: Awaited<ReturnType<typeof startJobs>>;

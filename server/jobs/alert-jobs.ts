@@ -10,6 +10,7 @@
 import type pg from 'pg';
 import PgBoss from 'pg-boss';
 import { logger } from '../lib/logger';
+import { inTransaction } from './in-transaction';
 
 export type AlertJob = { name: 'evaluate'; readingIds: string[] } | { name: 'email'; alertId: string };
 export type Enqueue = (job: AlertJob) => Promise<void>;
@@ -44,21 +45,6 @@ export interface AlertJobOptions {
 const Q_EVALUATE = 'alerts-evaluate';
 const Q_EMAIL = 'alerts-email';
 const Q_FEED = 'gauge-feed-poll';
-
-async function inTransaction<T>(pool: pg.Pool, fn: (client: pg.PoolClient) => Promise<T>): Promise<T> {
-  const client = await pool.connect();
-  try {
-    await client.query('BEGIN');
-    const result = await fn(client);
-    await client.query('COMMIT');
-    return result;
-  } catch (err) {
-    await client.query('ROLLBACK').catch(() => undefined);
-    throw err;
-  } finally {
-    client.release();
-  }
-}
 
 /** Does the work at once after each commit; an e-mail that fails stays pending (tried once). */
 export function createInlineAlertJobs(pool: pg.Pool): AlertJobs {

@@ -14,6 +14,7 @@ import type { DbHandle, Database } from '../db/client';
 import { NotFoundError, UnprocessableError } from '../lib/errors';
 import { logger } from '../lib/logger';
 import type { ScreeningPlanItem, ScreeningService } from '../services/screening.service';
+import { inTransaction } from './in-transaction';
 
 export interface ScreeningJobs {
   /** Re-screens every lease of a river (after its settings, record, scenarios or coast changed). */
@@ -102,21 +103,6 @@ export function createInlineScreeningJobs(db: Database, screening: ScreeningServ
     },
     async stop() {},
   };
-}
-
-async function inTransaction<T>(pool: pg.Pool, fn: (client: pg.PoolClient) => Promise<T>): Promise<T> {
-  const client = await pool.connect();
-  try {
-    await client.query('BEGIN');
-    const result = await fn(client);
-    await client.query('COMMIT');
-    return result;
-  } catch (err) {
-    await client.query('ROLLBACK').catch(() => undefined);
-    throw err;
-  } finally {
-    client.release();
-  }
 }
 
 /**

@@ -126,7 +126,7 @@ describe('chunked screening', () => {
     }
   }, 60_000);
 
-  it('pg-boss: a river change is screened in chunks by two workers, and the run reports leases done', async () => {
+  it('pg-boss: a river change is screened in chunks by the workers, and the run reports leases done', async () => {
     const screening = createScreeningService({ db: t.db.db });
     await t.db.pool.query(`delete from pgboss.job where name like 'screen-%'`).catch(() => undefined);
     const options = { work: true, chunkLeases: 4, chunkExpireSeconds: 60, maintenanceSeconds: 30 };
@@ -146,7 +146,10 @@ describe('chunked screening', () => {
         runId,
       ]);
       expect(chunks.rows.reduce((s, c) => s + c.n, 0)).toBe(run.total);
-      expect(new Set(chunks.rows.map((c) => c.worker))).toEqual(new Set(['boss-a', 'boss-b']));
+      // Every chunk ran on one of the two workers. Which one takes which is a race between two pollers in one
+      // process (on a loaded machine one may take them all); the spread over two worker processes is asserted by
+      // tests/faults/multi-process.fault.ts (npm run faults).
+      for (const c of chunks.rows) expect(['boss-a', 'boss-b']).toContain(c.worker);
       const leases = await screening.scopedLeaseIds(await screening.riverInputs(riverId));
       expect(run.total).toBe(leases.length);
       const fresh = await t.db.db.execute<{ n: number }>(sql`
