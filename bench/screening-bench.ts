@@ -55,14 +55,23 @@ export async function screeningBenchmarks(databaseUrl: string): Promise<BenchRes
   const r = reg.rows[0];
   const regulator: CurrentUser = { id: r.id, email: r.email, name: r.name, role: r.role, organisationId: r.organisation_id, jurisdictionId: r.jurisdiction_id };
 
-  // 20 000 leases (about 1 ha squares) in the demo region's sea, three in four inside some plume.
+  const fps = await db.execute<{ id: string; river_id: string; scenario_id: string }>(sql`
+    SELECT f.id, f.river_id, f.scenario_id FROM footprints f WHERE f.scenario_id IS NOT NULL ORDER BY f.river_id, f.discharge LIMIT 12`);
+  const fpIds = JSON.stringify(fps.rows.map((f) => f.id));
+  // 20 000 leases (about 1 ha squares) in the sea the screened plumes cover, three in four inside the
+  // smallest of them (so most leases meet every one of the 12 footprints, as in a busy bay), the rest anywhere
+  // in the plumes' bounding box. Placed from the footprints, not from a fixed box, so the workload follows
+  // the demo region when it changes.
   const benchOwner = (await handle.pool.query("select id, jurisdiction_id from users where email = 'grower3@brackline.test'")).rows[0];
   await db.execute(sql`DELETE FROM leases WHERE lease_code LIKE 'BENCH-%'`);
   await db.execute(sql`
-    WITH plume AS (SELECT ST_Union(b.geom) AS g FROM footprint_bands b JOIN footprints f ON f.id = b.footprint_id WHERE b.band_id = 'plume-edge'),
-         sea AS (SELECT ST_Difference(ST_MakeEnvelope(-38.82, 41.02, -38.46, 41.38, 4326), (SELECT ST_Union(geom) FROM coasts WHERE form = 'land')) AS g),
+    WITH chosen AS (SELECT b.footprint_id, b.geom FROM footprint_bands b
+                     WHERE b.band_id = 'plume-edge' AND b.footprint_id IN (SELECT jsonb_array_elements_text(${fpIds}::jsonb)::uuid)),
+         land AS (SELECT ST_Union(geom) AS g FROM coasts WHERE form = 'land'),
+         inner_plume AS (SELECT ST_Difference(geom, (SELECT g FROM land)) AS g FROM chosen ORDER BY ST_Area(geom) LIMIT 1),
+         sea AS (SELECT ST_Difference(ST_Envelope(ST_Collect(geom)), (SELECT g FROM land)) AS g FROM chosen),
          pts AS (
-           SELECT (ST_Dump(ST_GeneratePoints(ST_Intersection((SELECT g FROM plume), (SELECT g FROM sea)), ${Math.round(BENCH_LEASES * 0.75)}, 7))).geom AS p
+           SELECT (ST_Dump(ST_GeneratePoints((SELECT g FROM inner_plume), ${Math.round(BENCH_LEASES * 0.75)}, 7))).geom AS p
            UNION ALL
            SELECT (ST_Dump(ST_GeneratePoints((SELECT g FROM sea), ${BENCH_LEASES - Math.round(BENCH_LEASES * 0.75)}, 11))).geom)
     INSERT INTO leases (lease_code, status, species, owner_id, jurisdiction_id, geom, area_m2)
@@ -70,8 +79,6 @@ export async function screeningBenchmarks(databaseUrl: string): Promise<BenchRes
       FROM (SELECT ST_Multi(ST_Expand(p, 0.0006)) AS g FROM pts) x`);
   await db.execute(sql`ANALYZE leases`);
   const screening = createScreeningService({ db });
-  const fps = await db.execute<{ id: string; river_id: string; scenario_id: string }>(sql`
-    SELECT f.id, f.river_id, f.scenario_id FROM footprints f WHERE f.scenario_id IS NOT NULL ORDER BY f.river_id, f.discharge LIMIT 12`);
   const benchOnly = sql`l.lease_code LIKE 'BENCH-%'`;
   let pairs = 0;
   const fractions = await bench(
