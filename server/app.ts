@@ -9,6 +9,7 @@ import path from 'node:path';
 import { z } from 'zod';
 import { createAuthConfig } from './auth/auth-config';
 import { createUserResolver } from './auth/current-user';
+import { createResultCache } from './cache/result-cache';
 import type { DbHandle } from './db/client';
 import { readiness } from './db/readiness';
 import type { Env } from './env';
@@ -233,7 +234,10 @@ export function createApp(deps: AppDeps): Express {
     basePath: API_BASE,
     resolveUser: createUserResolver(db, env.AUTH_SECRET),
     checkResponses: deps.checkResponses ?? env.NODE_ENV === 'test',
+    resultCache: createResultCache(deps.db.pool, { enabled: env.RESULT_CACHE, maxBytes: env.RESULT_CACHE_MB * 1e6, ttlMs: 10 * 60_000 }),
   };
+  // Tests and benches read the cache's hit counts here.
+  app.locals.resultCache = ctx.resultCache;
   const accounts = createAccountsService({ db, mailer, appUrl: env.APP_URL });
   registerAccountRoutes(ctx, accounts);
   registerAdminRoutes(ctx, db, accounts);

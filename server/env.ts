@@ -91,6 +91,16 @@ export const envSchema = z.object({
   SCREENING_CHUNK_EXPIRE_SECONDS: z.coerce.number().int().min(1).max(3600).default(300),
   /** How often pg-boss looks for expired jobs (those of a dead worker) and archives old ones. */
   JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
+  /**
+   * Keep the answers of the heavy list routes (leases, screenings, yearly figures) per caller until something they
+   * read changes (server/cache/result-cache.ts). false reads the database on every request.
+   */
+  RESULT_CACHE: z
+    .enum(['true', 'false'], { error: 'RESULT_CACHE must be true or false' })
+    .default('true')
+    .transform((v) => v === 'true'),
+  /** Room for the kept answers, in megabytes of JSON. */
+  RESULT_CACHE_MB: z.coerce.number().int().min(1, { error: 'RESULT_CACHE_MB must be at least 1' }).max(4096).default(64),
   /** Serve the built client from dist/ (npm start); off in API tests. */
   SERVE_CLIENT: z
     .enum(['true', 'false'])

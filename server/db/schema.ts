@@ -527,6 +527,19 @@ export const leaseAnnualExposure = pgTable(
   (t) => [primaryKey({ columns: [t.leaseId, t.riverId] })],
 );
 
+const xid8 = customType<{ data: string; driverData: string }>({ dataType: () => 'xid8' });
+
+/**
+ * One row per committed transaction that changed what the cached lists read (leases, shares, screenings, yearly
+ * figures, scenarios, rivers, holders' names and roles), written by statement triggers (migration
+ * 0020_result_change_triggers). server/cache/result-cache.ts keeps a list answer only while no such transaction
+ * has committed since the snapshot it was read in: correct across every process, with no lock between writers.
+ */
+export const resultChanges = pgTable('result_changes', {
+  txid: xid8('txid').primaryKey(),
+  changedAt: timestamp('changed_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
 /** Progress of background screening runs, for the screens that show "Screening 3 of 10 scenarios…". */
 export const screeningRuns = pgTable(
   'screening_runs',

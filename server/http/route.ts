@@ -9,6 +9,7 @@ import { z } from 'zod';
 import type { Role } from '#shared/schemas/roles';
 import { AppError, ForbiddenError, UnauthenticatedError, ValidationError } from '../lib/errors';
 import { describeZodError } from './zod-issues';
+import type { ResultCache } from '../cache/result-cache';
 
 export interface CurrentUser {
   id: string;
@@ -128,6 +129,8 @@ export interface RouteContext {
    * browser test also proves the document tells the truth; off in production.
    */
   checkResponses?: boolean;
+  /** Answers of the heavy list routes, kept until what they read changes. */
+  resultCache: ResultCache;
 }
 
 /** The one error body (server/lib/errors.ts → middleware/error-handler.ts), a component of the document. */

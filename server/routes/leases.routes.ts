@@ -25,7 +25,7 @@ export function registerLeaseRoutes(ctx: RouteContext, leases: LeasesService): v
     access: { roles: LEASE_READERS },
     query: leaseListQuerySchema,
     response: leaseListSchema,
-    handler: ({ user, query }) => leases.list(user!, query),
+    handler: ({ user, query }) => ctx.resultCache.answer('leases', user!, query, () => leases.list(user!, query)),
   });
 
   // Declared before /leases/:id so "export" is not taken for an id.

@@ -142,25 +142,27 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     access: { roles: READERS },
     query: screeningQuery,
     response: screeningListSchema,
-    handler: async ({ user, query }) => {
-      const where = [visibleLeases(user!)];
-      if (query.leaseId) where.push(sql`s.lease_id = ${query.leaseId}::uuid`);
-      if (query.riverId) where.push(sql`s.river_id = ${query.riverId}::uuid`);
-      if (query.scenarioId) where.push(sql`s.scenario_id = ${query.scenarioId}::uuid`);
-      if (query.rating) where.push(sql`s.rating = ${query.rating}`);
-      const w = sql.join(where, sql` AND `);
-      const order = sql.raw(`${SORTS[query.sort]} ${query.order === 'asc' ? 'ASC' : 'DESC'} NULLS LAST, l.lease_code, sc.discharge`);
-      const rows = await db.execute(sql`
-        SELECT s.lease_id AS "leaseId", l.lease_code AS "leaseCode", l.species, l.status, s.river_id AS "riverId", r.name AS "riverName",
-               s.scenario_id AS "scenarioId", sc.name AS "scenarioName", sc.kind AS "scenarioKind", sc.aep, sc.discharge, sc.duration_hours AS "durationHours",
-               s.footprint_id AS "footprintId", s.band_fractions AS "bandFractions", s.lowest_salinity AS "lowestSalinity", s.highest_indicator AS "highestIndicator",
-               s.days_below_tolerance AS "daysBelowTolerance", s.rating, s.score, s.reasons, s.numbers, s.model_version AS "modelVersion", s.computed_at AS "computedAt"
-          FROM screenings s JOIN leases l ON l.id = s.lease_id JOIN scenarios sc ON sc.id = s.scenario_id JOIN rivers r ON r.id = s.river_id
-         WHERE ${w} ORDER BY ${order} LIMIT ${query.limit} OFFSET ${query.offset}`);
-      const total = await db.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM screenings s JOIN leases l ON l.id = s.lease_id WHERE ${w}`);
-      return { items: rows.rows, total: total.rows[0].n };
-    },
+    handler: ({ user, query }) => ctx.resultCache.answer('screenings', user!, query, () => listScreenings(user!, query)),
   });
+
+  async function listScreenings(user: CurrentUser, query: z.infer<typeof screeningQuery>) {
+    const where = [visibleLeases(user)];
+    if (query.leaseId) where.push(sql`s.lease_id = ${query.leaseId}::uuid`);
+    if (query.riverId) where.push(sql`s.river_id = ${query.riverId}::uuid`);
+    if (query.scenarioId) where.push(sql`s.scenario_id = ${query.scenarioId}::uuid`);
+    if (query.rating) where.push(sql`s.rating = ${query.rating}`);
+    const w = sql.join(where, sql` AND `);
+    const order = sql.raw(`${SORTS[query.sort]} ${query.order === 'asc' ? 'ASC' : 'DESC'} NULLS LAST, l.lease_code, sc.discharge`);
+    const rows = await db.execute(sql`
+      SELECT s.lease_id AS "leaseId", l.lease_code AS "leaseCode", l.species, l.status, s.river_id AS "riverId", r.name AS "riverName",
+             s.scenario_id AS "scenarioId", sc.name AS "scenarioName", sc.kind AS "scenarioKind", sc.aep, sc.discharge, sc.duration_hours AS "durationHours",
+             s.footprint_id AS "footprintId", s.band_fractions AS "bandFractions", s.lowest_salinity AS "lowestSalinity", s.highest_indicator AS "highestIndicator",
+             s.days_below_tolerance AS "daysBelowTolerance", s.rating, s.score, s.reasons, s.numbers, s.model_version AS "modelVersion", s.computed_at AS "computedAt"
+        FROM screenings s JOIN leases l ON l.id = s.lease_id JOIN scenarios sc ON sc.id = s.scenario_id JOIN rivers r ON r.id = s.river_id
+       WHERE ${w} ORDER BY ${order} LIMIT ${query.limit} OFFSET ${query.offset}`);
+    const total = await db.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM screenings s JOIN leases l ON l.id = s.lease_id WHERE ${w}`);
+    return { items: rows.rows, total: total.rows[0].n };
+  }
 
   defineRoute(ctx, {
     method: 'get',
@@ -172,26 +174,28 @@ export function registerScreeningRoutes(ctx: RouteContext, db: Database, rivers:
     access: { roles: READERS },
     query: annualQuerySchema,
     response: annualListSchema,
-    handler: async ({ user, query }) => {
-      const rows = await db.execute<Omit<AnnualItem, 'annualRating'>>(sql`
-        SELECT a.lease_id AS "leaseId", l.lease_code AS "leaseCode", a.river_id AS "riverId", r.name AS "riverName",
-               a.expected_days_per_year AS "expectedDaysPerYear", a.probability_any_exposure AS "probabilityAnyExposure", a.worst_rating AS "worstRating",
-               (a.details->'indicator'->>'expectedDaysPerYear')::float8 AS "indicatorDaysPerYear",
-               (a.details->'indicator'->>'probabilityOfAnyExposure')::float8 AS "probabilityIndicatorAboveStandard",
-               a.closure_days_per_year AS "closureDaysPerYear", a.harmful_salinity_chance AS "harmfulSalinityChancePerYear", a.details
-          FROM lease_annual_exposure a JOIN leases l ON l.id = a.lease_id JOIN rivers r ON r.id = a.river_id
-         WHERE ${visibleLeases(user!)} ${query.leaseId ? sql`AND a.lease_id = ${query.leaseId}::uuid` : sql``} ${query.riverId ? sql`AND a.river_id = ${query.riverId}::uuid` : sql``}`);
-      const items: AnnualItem[] = rows.rows.map((row) => ({
-        ...row,
-        annualRating:
-          row.closureDaysPerYear === null || row.harmfulSalinityChancePerYear === null
-            ? null
-            : annualRating({ closureDaysPerYear: row.closureDaysPerYear, harmfulSalinityChancePerYear: row.harmfulSalinityChancePerYear }),
-      }));
-      items.sort((a, b) => compareAnnualWorstFirst(a, b) || a.leaseCode.localeCompare(b.leaseCode) || a.riverName.localeCompare(b.riverName));
-      return { items };
-    },
+    handler: ({ user, query }) => ctx.resultCache.answer('screenings/annual', user!, query, () => listAnnual(user!, query)),
   });
+
+  async function listAnnual(user: CurrentUser, query: z.infer<typeof annualQuerySchema>) {
+    const rows = await db.execute<Omit<AnnualItem, 'annualRating'>>(sql`
+      SELECT a.lease_id AS "leaseId", l.lease_code AS "leaseCode", a.river_id AS "riverId", r.name AS "riverName",
+             a.expected_days_per_year AS "expectedDaysPerYear", a.probability_any_exposure AS "probabilityAnyExposure", a.worst_rating AS "worstRating",
+             (a.details->'indicator'->>'expectedDaysPerYear')::float8 AS "indicatorDaysPerYear",
+             (a.details->'indicator'->>'probabilityOfAnyExposure')::float8 AS "probabilityIndicatorAboveStandard",
+             a.closure_days_per_year AS "closureDaysPerYear", a.harmful_salinity_chance AS "harmfulSalinityChancePerYear", a.details
+        FROM lease_annual_exposure a JOIN leases l ON l.id = a.lease_id JOIN rivers r ON r.id = a.river_id
+       WHERE ${visibleLeases(user)} ${query.leaseId ? sql`AND a.lease_id = ${query.leaseId}::uuid` : sql``} ${query.riverId ? sql`AND a.river_id = ${query.riverId}::uuid` : sql``}`);
+    const items: AnnualItem[] = rows.rows.map((row) => ({
+      ...row,
+      annualRating:
+        row.closureDaysPerYear === null || row.harmfulSalinityChancePerYear === null
+          ? null
+          : annualRating({ closureDaysPerYear: row.closureDaysPerYear, harmfulSalinityChancePerYear: row.harmfulSalinityChancePerYear }),
+    }));
+    items.sort((a, b) => compareAnnualWorstFirst(a, b) || a.leaseCode.localeCompare(b.leaseCode) || a.riverName.localeCompare(b.riverName));
+    return { items };
+  }
 
   defineRoute(ctx, {
     method: 'get',

@@ -23,6 +23,7 @@ import { z } from 'zod';
 import { type DeclaredRoute, declaredRoutes, defineRoute, deriveOperationId, type RouteContext } from '../../../server/http/route';
 import { seedDemoRegion } from '../../../server/db/seed-demo-region';
 import { errorHandler } from '../../../server/middleware/error-handler';
+import { NO_RESULT_CACHE } from '../../../server/cache/result-cache';
 import { createTestApp, DEMO_PASSWORD, type TestApp } from '../../helpers/test-app';
 
 const run = promisify(execFile);
@@ -133,7 +134,7 @@ describe('every route declares its contract (route registry)', () => {
   });
 
   it('finds the faults it looks for (a route without them is caught)', () => {
-    const ctx: RouteContext = { router: express.Router(), registry: new OpenAPIRegistry(), basePath: '/api/v1', resolveUser: async () => null };
+    const ctx: RouteContext = { router: express.Router(), registry: new OpenAPIRegistry(), basePath: '/api/v1', resolveUser: async () => null, resultCache: NO_RESULT_CACHE };
     const loose = (spec: Record<string, unknown>) =>
       defineRoute(ctx, { summary: 'x', tags: ['x'], access: { roles: 'any' }, response: z.object({}), ...spec } as never);
     loose({ method: 'get', path: '/things/:id', handler: ({ params }: { params: unknown }) => params });
@@ -151,7 +152,7 @@ describe('every route declares its contract (route registry)', () => {
 
   it('answers 500 response_contract in tests when a handler returns what its schema does not allow', async () => {
     const router = express.Router();
-    const ctx: RouteContext = { router, registry: new OpenAPIRegistry(), basePath: '', resolveUser: async () => null, checkResponses: true };
+    const ctx: RouteContext = { router, registry: new OpenAPIRegistry(), basePath: '', resolveUser: async () => null, checkResponses: true, resultCache: NO_RESULT_CACHE };
     defineRoute(ctx, { method: 'get', path: '/wrong', summary: 'x', tags: ['x'], access: { public: true }, response: z.object({ n: z.number() }), handler: () => ({ n: 'one' }) });
     defineRoute(ctx, { method: 'get', path: '/right', summary: 'x', tags: ['x'], access: { public: true }, response: z.object({ at: z.string() }), handler: () => ({ at: new Date(0) }) });
     const app = express().use(router).use(errorHandler);
