@@ -5,7 +5,7 @@
  * reported beside the goal (p99 ≤ 150 ms, 0 errors). Last, another account adds 40 000 leases and the
  * demo grower's own short list is measured again: its cost must follow what the caller holds.
  */
-import { spawn } from 'node:child_process';
+import { type ChildProcess, spawn } from 'node:child_process';
 import path from 'node:path';
 import { encode } from '@auth/core/jwt';
 import autocannon from 'autocannon';
@@ -20,6 +20,8 @@ const CONNECTIONS = Number(process.env.BENCH_API_CONNECTIONS ?? 100);
 const SECONDS = Number(process.env.BENCH_API_SECONDS ?? 10);
 const GOAL_P99_MS = 150;
 const OTHER_LEASES = 40_000;
+/** The routes whose answers server/cache/result-cache.ts keeps. */
+const CACHED_ROUTES = ['/api/v1/leases?', '/api/v1/screenings/annual', '/api/v1/screenings?'];
 
 /** The zoom-12 tile over the demo bay (slippy-map numbering). */
 function demoTile(z: number): string {
@@ -55,26 +57,34 @@ function row(name: string, r: autocannon.Result, base: number, extra = ''): Benc
   };
 }
 
-export async function apiBenchmarks(databaseUrl: string): Promise<BenchResult[]> {
-  const base = await baseline();
-  const handle = createDb(databaseUrl, 4);
-  await seedDemo(handle.db);
-  await seedDemoRegion(handle.db);
-  // The app runs in a child process (bench/api-server.ts): autocannon in this process must not steal its event loop.
+async function startApp(databaseUrl: string, resultCache: 'true' | 'false'): Promise<{ baseUrl: string; app: ChildProcess }> {
   const app = spawn(process.execPath, ['--import', 'tsx', path.join(import.meta.dirname, 'api-server.ts')], {
-    env: { ...process.env, DATABASE_URL: databaseUrl, BENCH_AUTH_SECRET: SECRET },
+    env: { ...process.env, DATABASE_URL: databaseUrl, BENCH_AUTH_SECRET: SECRET, RESULT_CACHE: resultCache },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
   const port = await new Promise<number>((resolve, reject) => {
     let out = '';
-    app.stdout.on('data', (d: Buffer) => {
+    app.stdout?.on('data', (d: Buffer) => {
       out += d.toString();
       const m = /port (\d+)/.exec(out);
       if (m) resolve(Number(m[1]));
     });
     app.on('exit', (code) => reject(new Error(`bench app exited (${code})`)));
   });
-  const baseUrl = `http://127.0.0.1:${port}`;
+  return { baseUrl: `http://127.0.0.1:${port}`, app };
+}
+
+export async function apiBenchmarks(databaseUrl: string): Promise<BenchResult[]> {
+  const base = await baseline();
+  const handle = createDb(databaseUrl, 4);
+  await seedDemo(handle.db);
+  await seedDemoRegion(handle.db);
+  // The app runs in a child process (bench/api-server.ts): autocannon in this process must not steal its event loop.
+  // A second app with RESULT_CACHE=false shows what the same routes cost when every request reads the database
+  // (a caller's first look, or a morning of different callers).
+  const cachedApp = await startApp(databaseUrl, 'true');
+  const uncachedApp = await startApp(databaseUrl, 'false');
+  const baseUrl = cachedApp.baseUrl;
   const results: BenchResult[] = [];
   try {
     const grower = (await handle.pool.query("SELECT id, email, session_version FROM users WHERE email = 'grower@brackline.test'")).rows[0];
@@ -101,6 +111,10 @@ export async function apiBenchmarks(databaseUrl: string): Promise<BenchResult[]>
       const size = (await (await fetch(`${baseUrl}${path}`, { headers: { cookie } })).arrayBuffer()).byteLength;
       results.push(row(name, await load(baseUrl, path, cookie), base, `${(size / 1024).toFixed(1)} kB a response`));
     }
+    // The kept-answer routes again with every request reading the database.
+    for (const [name, path] of routes.filter(([, p]) => CACHED_ROUTES.some((c) => p.startsWith(c)))) {
+      results.push(row(`${name} with RESULT_CACHE=false`, await load(uncachedApp.baseUrl, path, cookie), base, 'every request reads the database'));
+    }
 
     // Another account (the demo's third grower) adds 40 000 leases in the same jurisdiction.
     const other = (await handle.pool.query("SELECT id, jurisdiction_id FROM users WHERE email = 'grower3@brackline.test'")).rows[0];
@@ -119,10 +133,17 @@ export async function apiBenchmarks(databaseUrl: string): Promise<BenchResult[]>
         await load(baseUrl, path, cookie),
         base,
       ),
+      row(
+        `the demo grower's ${own}-lease list after another account added ${OTHER_LEASES} leases, RESULT_CACHE=false`,
+        await load(uncachedApp.baseUrl, path, cookie),
+        base,
+        'every request reads the database',
+      ),
     );
     await handle.db.execute(sql`DELETE FROM leases WHERE lease_code LIKE 'APIBENCH-%'`);
   } finally {
-    app.kill();
+    cachedApp.app.kill();
+    uncachedApp.app.kill();
     await handle.pool.end();
   }
   return results;

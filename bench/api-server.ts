@@ -13,6 +13,7 @@ const env = loadEnv({
   DATABASE_URL: process.env.DATABASE_URL!,
   AUTH_SECRET: process.env.BENCH_AUTH_SECRET!,
   SMTP_URL: 'smtp://127.0.0.1:9',
+  RESULT_CACHE: process.env.RESULT_CACHE ?? 'true',
 });
 const mailer = createMailer(env.SMTP_URL, env.MAIL_FROM);
 const app = createApp({ env, db: createDb(env.DATABASE_URL), mailer });
