@@ -12,7 +12,7 @@
  */
 import { LRUCache } from 'lru-cache';
 import type pg from 'pg';
-import type { CurrentUser } from '../http/route';
+import { type CurrentUser, JsonText } from '../http/route';
 
 export interface ResultCacheOptions {
   /** Off: every request reads the database (RESULT_CACHE=false). */
@@ -32,16 +32,16 @@ export interface ResultCacheStats {
 
 export interface ResultCache {
   /**
-   * The answer of `route` for this caller and query: the kept one when nothing it reads has changed since,
-   * else `read()`'s (one read for callers asking the same thing at the same time).
+   * The answer of `route` for this caller and query, serialised: the kept one when nothing it reads has changed
+   * since, else `read()`'s (one read for callers asking the same thing at the same time).
    */
-  answer<T>(route: string, user: CurrentUser, query: unknown, read: () => Promise<T>): Promise<T>;
+  answer(route: string, user: CurrentUser, query: unknown, read: () => Promise<unknown>): Promise<JsonText>;
   stats(): ResultCacheStats;
 }
 
 interface Kept {
   snapshot: string;
-  value: unknown;
+  value: JsonText;
 }
 
 /** How long `result_changes` rows are kept: far longer than any transaction and any kept answer. */
@@ -55,7 +55,7 @@ export function createResultCache(pool: pg.Pool, options: ResultCacheOptions): R
     updateAgeOnGet: true,
   });
   /** Reads in progress, by key, with the snapshot each started from. */
-  const reading = new Map<string, { snapshot: Promise<string>; value: Promise<unknown> }>();
+  const reading = new Map<string, { snapshot: Promise<string>; value: Promise<JsonText> }>();
   let hits = 0;
   let misses = 0;
   let lastPrune = 0;
@@ -84,14 +84,13 @@ export function createResultCache(pool: pg.Pool, options: ResultCacheOptions): R
     });
   }
 
-  function read<T>(key: string, load: () => Promise<T>): Promise<T> {
+  function read(key: string, load: () => Promise<unknown>): Promise<JsonText> {
     const snapshot = currentSnapshot();
     const value = (async () => {
       const s = await snapshot;
-      const v = await load();
-      const size = JSON.stringify(v)?.length ?? 0;
+      const v = new JsonText(JSON.stringify(await load()));
       // One answer never takes more than a tenth of the room (a regulator's whole jurisdiction, say).
-      if (size > 0 && size <= options.maxBytes / 10) kept.set(key, { snapshot: s, value: v }, { size });
+      if (v.text.length <= options.maxBytes / 10) kept.set(key, { snapshot: s, value: v }, { size: Math.max(1, v.text.length) });
       return v;
     })();
     const entry = { snapshot, value };
@@ -104,14 +103,14 @@ export function createResultCache(pool: pg.Pool, options: ResultCacheOptions): R
   }
 
   return {
-    async answer<T>(route: string, user: CurrentUser, query: unknown, load: () => Promise<T>): Promise<T> {
-      if (!options.enabled) return load();
+    async answer(route: string, user: CurrentUser, query: unknown, load: () => Promise<unknown>): Promise<JsonText> {
+      if (!options.enabled) return new JsonText(JSON.stringify(await load()));
       // The caller's id, role and jurisdiction decide what they may see; the validated query what they asked.
       const key = `${route}\u0000${user.id}\u0000${user.role}\u0000${user.jurisdictionId ?? ''}\u0000${JSON.stringify(query)}`;
       const found = kept.get(key);
       if (found && !(await changedSince(found.snapshot))) {
         hits += 1;
-        return found.value as T;
+        return found.value;
       }
       misses += 1;
       pruneNowAndThen();
@@ -120,7 +119,7 @@ export function createResultCache(pool: pg.Pool, options: ResultCacheOptions): R
       const running = reading.get(key);
       if (running) {
         const snapshot = await running.snapshot.catch(() => null);
-        if (snapshot && !(await changedSince(snapshot))) return running.value as Promise<T>;
+        if (snapshot && !(await changedSince(snapshot))) return running.value;
       }
       return read(key, load);
     },
@@ -132,6 +131,6 @@ export function createResultCache(pool: pg.Pool, options: ResultCacheOptions): R
 
 /** A cache that keeps nothing: route contexts built without a database (the API contract tests). */
 export const NO_RESULT_CACHE: ResultCache = {
-  answer: (_route, _user, _query, load) => load(),
+  answer: async (_route, _user, _query, load) => new JsonText(JSON.stringify(await load())),
   stats: () => ({ hits: 0, misses: 0, entries: 0, bytes: 0 }),
 };

@@ -328,12 +328,23 @@ const ERROR_DESCRIPTIONS: Record<number, string> = {
   503: 'A service this needs is not available; try again later',
 };
 
+/**
+ * A JSON answer already serialised (server/cache/result-cache.ts keeps answers as text): sent as it is, so a kept
+ * answer is not serialised again for every caller.
+ */
+export class JsonText {
+  readonly text: string;
+  constructor(text: string) {
+    this.text = text;
+  }
+}
+
 /** Fails when a JSON answer, as serialised, does not match the declared schema (see RouteContext.checkResponses). */
 function checkResponse(method: string, path: string, response: ResponseSpec, result: unknown): void {
   if (!(response instanceof z.ZodType)) {
     throw new AppError(500, 'response_contract', `${method.toUpperCase()} ${path} returned JSON but declares a ${Object.keys(response?.content ?? {}).join(' or ')} body.`);
   }
-  const wire: unknown = JSON.parse(JSON.stringify(result));
+  const wire: unknown = JSON.parse(result instanceof JsonText ? result.text : JSON.stringify(result));
   const parsed = response.safeParse(wire);
   if (!parsed.success) {
     const issues = parsed.error.issues.slice(0, 5).map((i) => `${i.path.join('.') || '(body)'}: ${i.message}`);
@@ -385,7 +396,8 @@ export function defineRoute<
       }
       if (spec.response === null) throw new Error(`${spec.method.toUpperCase()} ${spec.path} is declared with no content (response: null) but returned a body.`);
       if (ctx.checkResponses) checkResponse(spec.method, spec.path, spec.response, result);
-      res.status(spec.successStatus ?? 200).json(result);
+      if (result instanceof JsonText) res.status(spec.successStatus ?? 200).type('application/json').send(result.text);
+      else res.status(spec.successStatus ?? 200).json(result);
     } catch (err) {
       next(err);
     }
