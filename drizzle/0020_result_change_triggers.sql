@@ -6,18 +6,14 @@ BEGIN
   INSERT INTO result_changes (txid) VALUES (pg_current_xact_id()) ON CONFLICT (txid) DO NOTHING;
   RETURN NULL;
 END $$;--> statement-breakpoint
-CREATE TRIGGER leases_result_change AFTER INSERT OR UPDATE OR DELETE OR TRUNCATE ON leases
-  FOR EACH STATEMENT EXECUTE FUNCTION brackline_note_result_change();--> statement-breakpoint
-CREATE TRIGGER lease_shares_result_change AFTER INSERT OR UPDATE OR DELETE OR TRUNCATE ON lease_shares
-  FOR EACH STATEMENT EXECUTE FUNCTION brackline_note_result_change();--> statement-breakpoint
-CREATE TRIGGER screenings_result_change AFTER INSERT OR UPDATE OR DELETE OR TRUNCATE ON screenings
-  FOR EACH STATEMENT EXECUTE FUNCTION brackline_note_result_change();--> statement-breakpoint
-CREATE TRIGGER lease_annual_exposure_result_change AFTER INSERT OR UPDATE OR DELETE OR TRUNCATE ON lease_annual_exposure
-  FOR EACH STATEMENT EXECUTE FUNCTION brackline_note_result_change();--> statement-breakpoint
-CREATE TRIGGER scenarios_result_change AFTER INSERT OR UPDATE OR DELETE OR TRUNCATE ON scenarios
-  FOR EACH STATEMENT EXECUTE FUNCTION brackline_note_result_change();--> statement-breakpoint
-CREATE TRIGGER rivers_result_change AFTER INSERT OR UPDATE OR DELETE OR TRUNCATE ON rivers
-  FOR EACH STATEMENT EXECUTE FUNCTION brackline_note_result_change();--> statement-breakpoint
+DO $$
+DECLARE t text;
+BEGIN
+  FOREACH t IN ARRAY ARRAY['leases', 'lease_shares', 'screenings', 'lease_annual_exposure', 'scenarios', 'rivers'] LOOP
+    EXECUTE format('CREATE TRIGGER %I AFTER INSERT OR UPDATE OR DELETE OR TRUNCATE ON %I FOR EACH STATEMENT EXECUTE FUNCTION brackline_note_result_change()',
+                   t || '_result_change', t);
+  END LOOP;
+END $$;--> statement-breakpoint
 -- Users change on every sign-in (failure counts, session version); only a holder's name, role or jurisdiction
 -- changes a list. Deleting a user deletes their leases, which the leases trigger notes.
 CREATE TRIGGER users_result_change AFTER UPDATE OF name, role, jurisdiction_id ON users
