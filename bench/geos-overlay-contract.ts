@@ -335,7 +335,8 @@ class SegmentGrid {
       if (Math.abs(dx * sy - dy * sx) / sl > 2 * OVERLAY_MERGE_DISTANCE + 1e-9 * len) return;
       result.onLine = true;
       const mk = this.mark[e];
-      if (mk !== 0) {
+      // An edge shorter than the merge distance (a snap-rounding step) has no direction to speak of: it marks nothing.
+      if (mk !== 0 && len > OVERLAY_MERGE_DISTANCE) {
         result.marked = true;
         if (mk > 0 === dx * sx + dy * sy > 0) result.marksLeft = true;
       }
