@@ -6,7 +6,7 @@
 import { baseline, type BenchResult, report } from './harness';
 import { scienceBenchmarks } from './science-bench';
 import { clientBenchmarks } from './client-bench';
-import { screeningBenchmarks } from './screening-bench';
+import { coastBenchmarks, screeningBenchmarks } from './screening-bench';
 import { uploadBenchmarks } from './upload-bench';
 import { apiBenchmarks } from './api-bench';
 import { overlayLibraryBenchmarks } from './overlay-library-bench';
@@ -18,6 +18,8 @@ async function main() {
   const only = process.argv[2];
   if (!only || only === 'science') results.push(...(await scienceBenchmarks()));
   if (!only || only === 'overlay') results.push(...(await overlayLibraryBenchmarks()));
+  // The coast footprint lines of the screening section alone, no database needed (`npx tsx bench/run-bench.ts footprint`).
+  if (only === 'footprint') results.push(...(await coastBenchmarks()));
   const databaseUrl = process.env.DATABASE_URL;
   if (databaseUrl && (!only || only === 'upload')) results.push(...(await uploadBenchmarks(databaseUrl)));
   if (databaseUrl && (!only || only === 'screening')) results.push(...(await screeningBenchmarks(databaseUrl)));

@@ -20,11 +20,13 @@ import { seedDemo } from '../server/db/seed';
 import { seedDemoRegion } from '../server/db/seed-demo-region';
 import type { CurrentUser } from '../server/http/route';
 import { createScreeningService, leaseBandFractions } from '../server/services/screening.service';
+import initGeosJs from 'geos-wasm';
+import { geosErrorSink, geosOverlay } from './geos-overlay-contract';
 import { type BenchResult, baseline, bench, time } from './harness';
 
 const BENCH_LEASES = 20_000;
 
-function coastBench(): Promise<BenchResult> {
+async function coastBench(): Promise<BenchResult[]> {
   const VERTICES = 10_000;
   const coordinates: [number, number][] = [];
   for (let i = 0; i < VERTICES; i += 1) {
@@ -42,11 +44,22 @@ function coastBench(): Promise<BenchResult> {
     params,
     bands: defaultBandSpecs({ speciesSalinityThreshold: 12, indicatorStandard: 14 }),
   };
-  return bench('footprint geometry on a 10 000-vertex coast (4 bands + bulge)', () => buildFootprint(input), { runs: 10, warmup: 1, targetMs: 200 });
+  // The same footprint with the GEOS-backed overlay (issue 17's adoption rule: ≤ 1.5× the hand-written one), back to
+  // back in this process, the hand-written one timed again after it so a change in the machine's load shows.
+  const geos = geosOverlay(await initGeosJs({ errorHandler: geosErrorSink.handler, noticeHandler: () => {} }));
+  const own = await bench('footprint geometry on a 10 000-vertex coast (4 bands + bulge)', () => buildFootprint(input), { runs: 10, warmup: 1, targetMs: 200 });
+  const withGeos = await bench('footprint geometry on the same coast with GEOS overlay (geos-wasm)', () => buildFootprint(input, geos), { runs: 10, warmup: 1 });
+  const ownAgain = await bench('footprint geometry on the same coast, hand-written overlay again', () => buildFootprint(input), { runs: 10, warmup: 1 });
+  const ratio = withGeos.medianMs / ((own.medianMs + ownAgain.medianMs) / 2);
+  withGeos.note = `${ratio.toFixed(2)}× the hand-written overlay (mean of the runs before and after; adopt if ≤ 1.5×)`;
+  return [own, withGeos, ownAgain];
 }
 
+/** The coast footprint lines alone (no database): `npx tsx bench/run-bench.ts footprint`. */
+export const coastBenchmarks = coastBench;
+
 export async function screeningBenchmarks(databaseUrl: string): Promise<BenchResult[]> {
-  const results: BenchResult[] = [await coastBench()];
+  const results: BenchResult[] = await coastBench();
   const handle = createDb(databaseUrl, 4);
   const db = handle.db;
   await seedDemo(db);

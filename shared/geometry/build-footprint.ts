@@ -62,7 +62,7 @@ import { clipRingToBox } from './clip-ring-to-box';
 import type { BandSpec } from './default-band-specs';
 import { type LocalProjection, localProjection } from './local-projection';
 import { offsetStrip } from './offset-strip';
-import { type OverlayFace, type OverlayLine, overlayRings, type PlanarPoint, pointInRing } from './overlay-rings';
+import { type OverlayFace, type OverlayFn, type OverlayLine, overlayRings, type PlanarPoint, pointInRing } from './overlay-rings';
 import { type CoastGeoJson, type CoastLine, prepareCoast } from './prepare-coast';
 import { simplifyPath } from './simplify-path';
 import { snapToCoast } from './snap-to-coast';
@@ -169,6 +169,8 @@ const LANDWARD_MARGIN = 1;
  *
  * @param input - coast (GeoJSON, EPSG:4326), mouth [lon, lat], outflow azimuth [° from north],
  *   plume scales [m, m s⁻¹], field parameters, band specs, options
+ * @param overlay - the polygon overlay used to clip to the sea; default {@link overlayRings} (the server may pass
+ *   another implementation of the same contract; the overlay bench passes a GEOS-backed one)
  * @returns bulge, bands (properties: id, name, kind, threshold, maxOffshoreM, alongReachM),
  *   the walked coast, warnings and the mouth snap distance [m]; EPSG:4326
  * @example
@@ -182,7 +184,7 @@ const LANDWARD_MARGIN = 1;
  * Source: (c) derived: see the module comment; turning side (a) science.md §1.1; bulge disc
  * (a) Yankovsky & Chapman 1997 via science.md §1.6; fields (c) exposure-field.
  */
-export function buildFootprint(input: FootprintInput): Footprint {
+export function buildFootprint(input: FootprintInput, overlay: OverlayFn = overlayRings): Footprint {
   const { plume, params } = input;
   const options = checkOptions(input.options);
   checkInput(input);
@@ -211,6 +213,7 @@ export function buildFootprint(input: FootprintInput): Footprint {
     projection,
     seaSide: side.seaSide,
     marks: coast.lines.map((l) => new Array(l.points.length).fill(0)),
+    overlay,
   };
 
   if (equatorial) return equatorialFootprint(input, context, snap, side.seaward, warnings, options);
@@ -332,6 +335,8 @@ interface Context {
   /** +1 when the sea is on the left of the mouth line's digitised direction. */
   readonly seaSide: 1 | -1;
   readonly marks: number[][];
+  /** The overlay implementation clipping to the sea. */
+  readonly overlay: OverlayFn;
 }
 
 /** @private The sea side of the mouth's coast line and the seaward direction used for the bulge. */
@@ -597,11 +602,11 @@ function clipToSea(
   const { negative, barriers } = coastInBox(context, box);
   let broken = 0;
   const run = (positive: PlanarPoint[][], extraNegative: OverlayLine[], asFaces: boolean) => {
-    const result = overlayRings({ positive, orientPositive: !asFaces, negative: [...negative, ...extraNegative], barriers });
+    const result = context.overlay({ positive, orientPositive: !asFaces, negative: [...negative, ...extraNegative], barriers });
     broken += result.brokenRings;
     return result.faces.filter((f) => f.marked || (seed !== undefined && faceContains(f, seed)));
   };
-  const union = unionRings(rings);
+  const union = unionRings(rings, context.overlay);
   broken += union.brokenRings;
   let faces = run(union.rings, [], true);
   if (maxVertices !== undefined) {
@@ -609,7 +614,7 @@ function clipToSea(
     for (let round = 0; round < 12 && vertexCount(faces) > maxVertices; round += 1) {
       const outers = faces.map((f) => simplifyRing(f.outer, step));
       const holes = faces.flatMap((f) => f.holes.map((h) => ({ points: simplifyRing(h, step).reverse() })));
-      faces = run(unionRings(outers).rings, holes, true);
+      faces = run(unionRings(outers, context.overlay).rings, holes, true);
       step *= 2;
     }
     if (vertexCount(faces) > maxVertices) {

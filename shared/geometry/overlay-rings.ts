@@ -95,6 +95,12 @@ export interface OverlayResult {
   readonly brokenRings: number;
 }
 
+/**
+ * An overlay implementation: {@link overlayRings} itself or another with the same contract (e.g. a GEOS-backed one,
+ * bench/geos-overlay-contract.ts), passed to the footprint and union code that needs one.
+ */
+export type OverlayFn = (input: OverlayInput) => OverlayResult;
+
 /** Points closer than this are merged into one vertex [m] (c: far above rounding error at 10⁶ m, far below any mapped detail). */
 export const OVERLAY_MERGE_DISTANCE = 1e-5;
 

@@ -6,7 +6,7 @@
  * pieces (a band in a bay narrower than itself) stay cheap.
  */
 
-import { overlayRings, type PlanarPoint } from './overlay-rings';
+import { type OverlayFn, overlayRings, type PlanarPoint } from './overlay-rings';
 
 /** Pieces merged together at the first level. */
 const FIRST_GROUP = 16;
@@ -15,6 +15,7 @@ const FIRST_GROUP = 16;
  * Union of rings (non-zero rule), cascaded.
  *
  * @param rings - rings [x, y] in metres (open, any orientation); list neighbours should be map neighbours
+ * @param overlay - the overlay implementation; default {@link overlayRings}
  * @returns the union as rings (outer rings anticlockwise, holes clockwise, open) and the number
  *   of outline traces that could not be closed (0 for a sound result)
  * @example
@@ -23,13 +24,16 @@ const FIRST_GROUP = 16;
  * Source: (c) common practice: cascaded (divide-and-conquer) union, as in the cascaded
  * polygon union of topology suites; each step is {@link overlayRings}.
  */
-export function unionRings(rings: readonly (readonly PlanarPoint[])[]): { rings: PlanarPoint[][]; brokenRings: number } {
+export function unionRings(
+  rings: readonly (readonly PlanarPoint[])[],
+  overlay: OverlayFn = overlayRings,
+): { rings: PlanarPoint[][]; brokenRings: number } {
   if (rings.length === 0) return { rings: [], brokenRings: 0 };
   let broken = 0;
   const merge = (group: readonly (readonly PlanarPoint[])[], first: boolean): PlanarPoint[][] => {
     // First level: raw pieces, made anticlockwise, their shared sides cancelled; later levels:
     // faces of earlier merges, taken as they are.
-    const result = overlayRings({ positive: group, minArea: 1e-6, orientPositive: first, dissolveShared: first });
+    const result = overlay({ positive: group, minArea: 1e-6, orientPositive: first, dissolveShared: first });
     broken += result.brokenRings;
     return result.faces.flatMap((f) => [f.outer, ...f.holes]);
   };
