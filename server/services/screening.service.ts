@@ -11,7 +11,7 @@ import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared
 import { buildFootprint } from '#shared/geometry/build-footprint';
 import type { PlumeResult } from '#shared/physics/compute-plume';
 import { type ExposureParameters, type fieldAt, worstField } from '#shared/physics/exposure-field';
-import { type CoastFrame, coastPosition, outlinePositions } from '#shared/geometry/coast-position';
+import { type CoastFrame, coastPosition, coastPositionWithin, distanceToPath, outlinePositions } from '#shared/geometry/coast-position';
 import { MODEL_VERSION } from '#shared/physics/model-version';
 import { riverPlume } from '#shared/physics/river-plume';
 import type { RiverSettings } from '#shared/schemas/river';
@@ -84,6 +84,40 @@ export function leaseWorstPoint(
 ): { field: ReturnType<typeof fieldAt>; at: { s: number; x: number } } | null {
   const positions = outlinePositions(frame, rings, OUTLINE_SPACING, hint ?? undefined);
   return positions.length ? worstField(plume, params, positions) : null;
+}
+
+/** A lease as the screening of one footprint reads it: its arc hint [m], point on it and bounding box (degrees). */
+type LeaseRow = {
+  id: string;
+  species: string | null;
+  s: number | null;
+  x: number | null;
+  lon: number;
+  lat: number;
+  x0: number;
+  y0: number;
+  x1: number;
+  y1: number;
+};
+
+/**
+ * The place of a lease outside the plume (its point on the surface, searched within 2x + 2 km of its arc `s`, x
+ * its geodesic distance to the path) without x: x lies between the point's distance to the path in the frame's
+ * metres less the lease's own size and that distance, within the azimuthal-equidistant frame's scale error
+ * (under 2 × 10⁻⁴ within 150 km of the mouth (c), taken as 10⁻³, plus 1 m). When the nearest segment is the same
+ * for every window those bounds allow, that is the place; otherwise null (the caller reads x from PostGIS).
+ */
+function placedOutside(frame: CoastFrame, l: LeaseRow): { s: number; x: number } | null {
+  if (l.s === null) return null;
+  const p = frame.projection.forward([l.lon, l.lat]);
+  if (!(Math.hypot(p[0], p[1]) <= 150_000)) return null;
+  // The lease's size: its bounding box's diagonal in metres, generous (degrees of 111.7 km and 111.32 km × cos φ, + 1 %).
+  const cosLat = Math.cos((Math.min(Math.abs(l.y0), Math.abs(l.y1)) * Math.PI) / 180);
+  const size = 1.01 * Math.hypot((l.y1 - l.y0) * 111_700, (l.x1 - l.x0) * 111_320 * cosLat);
+  const d = distanceToPath(frame, p);
+  const xLow = Math.max(0, d * (1 - 1e-3) - 1 - size);
+  const xHigh = d * (1 + 1e-3) + 1;
+  return coastPositionWithin(frame, p, Math.max(0, l.s), 2 * xLow + 2000, 2 * xHigh + 2000);
 }
 
 function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
@@ -321,16 +355,20 @@ export function createScreeningService(deps: { db: Database }) {
     const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
     // leaseIds (the paired leases, from screenLeases) stand for the river's scope; without them the scope is computed here.
     const scope = leaseIds ? sql`true` : scopedLeases(river);
-    const byLease = await leaseBandFractions(db, footprint.id, sql`${scope} ${leaseFilter}`);
-    // The path's ellipsoidal length and its geography are worked out once (a MATERIALIZED CTE), not once per lease:
-    // that repetition was two thirds of this query's time (EXPLAIN ANALYZE in DEVELOPERS.md), for the same values.
-    const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null; lon: number; lat: number }>(sql`
+    // The two reads are independent: on two connections of the pool at once.
+    const [byLease, leases] = await Promise.all([
+      leaseBandFractions(db, footprint.id, sql`${scope} ${leaseFilter}`),
+      // The path's ellipsoidal length and its geography are worked out once (a MATERIALIZED CTE), not once per lease:
+      // that repetition was two thirds of this query's time (EXPLAIN ANALYZE in DEVELOPERS.md), for the same values.
+      db.execute<LeaseRow>(sql`
       WITH f AS MATERIALIZED (SELECT path, ST_Length(path::geography) AS len FROM footprints WHERE id = ${footprint.id}::uuid)
       SELECT l.id, l.species,
              ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * f.len AS s,
-             ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat
+             ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat,
+             ST_XMin(l.geom) AS x0, ST_YMin(l.geom) AS y0, ST_XMax(l.geom) AS x1, ST_YMax(l.geom) AS y1
         FROM leases l, f
-       WHERE ${scope} ${leaseFilter}`);
+       WHERE ${scope} ${leaseFilter}`),
+    ]);
     const { params } = plumeFor(river.settings, scenario);
     const days = scenario.durationHours / 24;
     // Each lease in the plume is judged at its own worst point: its outline and centroid placed in
@@ -352,10 +390,19 @@ export function createScreeningService(deps: { db: Database }) {
         worstById.set(l.id, leaseWorstPoint(frame, outlines.get(l.id) as Position[][], footprint.plume, params, l.s));
       }
     }
-    // The distance to the path (geodesic, the dearest figure per lease) is read only where it is used: for the leases
-    // no worst point places (outside the plume, or no coast frame), as the window of their search and their reported
-    // offshore distance.
-    const needX = leases.rows.filter((l) => !worstById.get(l.id)).map((l) => l.id);
+    // A lease no worst point places is placed from the point on it, in a window of the path around its arc whose
+    // half-width is 2 × its geodesic distance to the path + 2 km. That distance (the dearest figure per lease in
+    // PostGIS) is bounded here from the frame's metres instead, and read from PostGIS only for the few leases whose
+    // bounds leave the nearest segment in doubt (placedOutside): the same figures either way.
+    const placed = new Map<string, { s: number; x: number }>();
+    if (frame) {
+      for (const l of leases.rows) {
+        if (worstById.get(l.id) || l.s === null) continue;
+        const at = placedOutside(frame, l);
+        if (at) placed.set(l.id, at);
+      }
+    }
+    const needX = leases.rows.filter((l) => !worstById.get(l.id) && !placed.has(l.id)).map((l) => l.id);
     const xById = new Map<string, number | null>();
     if (needX.length) {
       const dist = await db.execute<{ id: string; x: number | null }>(sql`
@@ -364,16 +411,20 @@ export function createScreeningService(deps: { db: Database }) {
          WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(needX)}::jsonb)::uuid)`);
       for (const r of dist.rows) xById.set(r.id, r.x);
     }
-    for (const l of leases.rows) l.x = xById.get(l.id) ?? null;
+    for (const l of leases.rows) if (!placed.has(l.id)) l.x = xById.get(l.id) ?? null;
     const rows = leases.rows.map((l) => {
       const fractionsOfLease = byLease.get(l.id) ?? {};
       const { tolerance, known } = speciesOf(l.species);
       const inPlume = (fractionsOfLease['plume-edge'] ?? 0) > 0;
       const worst = worstById.get(l.id) ?? null;
       const field = worst ? worst.field : null;
+      const outside = placed.get(l.id);
       if (worst) {
         l.s = worst.at.s;
         l.x = worst.at.x;
+      } else if (outside) {
+        l.s = outside.s;
+        l.x = outside.x;
       } else if (frame && l.s !== null) {
         // Outside the plume: the lease's own place (a point on it), never "at the mouth".
         const at = coastPosition(frame, [l.lon, l.lat], { s: Math.max(0, l.s), window: 2 * (l.x ?? 0) + 2000 });

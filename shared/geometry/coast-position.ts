@@ -210,3 +210,78 @@ export function outlinePositions(
   const window = hint === undefined || !Number.isFinite(hint) ? undefined : { s: Math.max(0, hint), window: 2 * span + 2000 };
   return pts.map((p) => coastPositionOf(frame, p, window));
 }
+
+/**
+ * {@link coastPosition} of a point whose search window is known only within bounds: the window's centre is `s`
+ * and its half-width somewhere in [windowLow, windowHigh]. The nearest segment found in the widest window is the
+ * answer of every window between the two when it lies inside the narrowest one (the same segment, the same
+ * arithmetic, so the same figures as {@link coastPosition} with the exact window); otherwise the bounds do not decide
+ * it and the result is null (the caller asks for the exact window).
+ *
+ * @param frame - from {@link coastFrame}
+ * @param p - the point in the frame's metres
+ * @param s - centre of the window [m] (as the hint's s)
+ * @param windowLow - smallest possible half-width [m]
+ * @param windowHigh - largest possible half-width [m], ≥ windowLow
+ * @returns { s, x } as coastPositionOf(frame, p, { s, window }) for every window in the range, or null
+ * @example
+ * coastPositionWithin(frame, [-500, -6000], 6000, 2000, 2100); // => { s: 6000, x: 500 }
+ * Source: (c) derived (the search of {@link coastPositionOf} is monotone in its window).
+ */
+export function coastPositionWithin(
+  frame: CoastFrame,
+  p: PlanarPoint,
+  s: number,
+  windowLow: number,
+  windowHigh: number,
+): { s: number; x: number } | null {
+  const along = p[0] * frame.downCoast[0] + p[1] * frame.downCoast[1];
+  const out = p[0] * frame.seaward[0] + p[1] * frame.seaward[1];
+  if (frame.radial) return { s: along, x: Math.max(0, out) };
+  const { path, arc } = frame;
+  if (path.length === 1) return coastPositionOf(frame, p);
+  if (!Number.isFinite(s) || !(windowLow >= 0) || !(windowHigh >= windowLow)) return null;
+  const range = (w: number): [number, number] => [
+    Math.max(0, upperBound(arc, s - w) - 1),
+    Math.min(path.length - 2, upperBound(arc, s + w)),
+  ];
+  const [loIn, hiIn] = range(windowLow);
+  const [lo, hi] = range(windowHigh);
+  // The loop of nearestOnPath, over the widest window, remembering which segment won.
+  let bestD2 = Number.POSITIVE_INFINITY;
+  let bestS = 0;
+  let best = -1;
+  for (let i = lo; i <= hi; i += 1) {
+    const a = path[i];
+    const b = path[i + 1];
+    const dx = b[0] - a[0];
+    const dy = b[1] - a[1];
+    const len2 = dx * dx + dy * dy;
+    const t = len2 > 0 ? Math.min(1, Math.max(0, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2)) : 0;
+    const qx = a[0] + t * dx - p[0];
+    const qy = a[1] + t * dy - p[1];
+    const d2 = qx * qx + qy * qy;
+    if (d2 < bestD2) {
+      bestD2 = d2;
+      bestS = arc[i] + t * (arc[i + 1] - arc[i]);
+      best = i;
+    }
+  }
+  if (best < loIn || best > hiIn) return null;
+  if (bestS <= 1e-6 && along < 0) return { s: along, x: Math.max(0, out) };
+  return { s: bestS, x: Math.sqrt(bestD2) };
+}
+
+/**
+ * Distance [m] from a point in the frame's metres to the nearest point of the whole walked coast.
+ *
+ * @param frame - from {@link coastFrame}
+ * @param p - the point in the frame's metres
+ * @returns the distance [m], ≥ 0
+ * @example
+ * distanceToPath(frame, [-500, -6000]); // => 500 on a north–south coast
+ * Source: (c) derived.
+ */
+export function distanceToPath(frame: CoastFrame, p: PlanarPoint): number {
+  return nearestOnPath(frame, p).x;
+}
