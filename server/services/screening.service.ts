@@ -477,11 +477,13 @@ export function createScreeningService(deps: { db: Database }) {
     const inputHash = createHash('sha256').update(`${footprint.id}:${MODEL_VERSION}`).digest('hex');
     const CHUNK = 1000;
     for (let i = 0; i < rows.length; i += CHUNK) {
+      // Each row's JSON values are taken out of the chunk's one jsonb as they are (r->'numbers'), not through a
+      // record type whose jsonb columns PostgreSQL would print and parse again.
       await db.execute(sql`
         INSERT INTO screenings (lease_id, scenario_id, footprint_id, river_id, band_fractions, lowest_salinity, highest_indicator, days_below_tolerance, rating, score, reasons, numbers, model_version, input_hash, computed_at)
-        SELECT r.lease, ${scenario.id}::uuid, ${footprint.id}::uuid, ${river.id}::uuid, r.fractions, r.lowest, r.highest, r.days, r.rating, r.score, r.reasons, r.numbers, ${MODEL_VERSION}, ${inputHash}, now()
-          FROM jsonb_to_recordset(${JSON.stringify(rows.slice(i, i + CHUNK))}::jsonb)
-               AS r(lease uuid, fractions jsonb, lowest double precision, highest double precision, days double precision, rating text, score double precision, reasons jsonb, numbers jsonb)
+        SELECT (r->>'lease')::uuid, ${scenario.id}::uuid, ${footprint.id}::uuid, ${river.id}::uuid, r->'fractions', (r->>'lowest')::float8, (r->>'highest')::float8,
+               (r->>'days')::float8, r->>'rating', (r->>'score')::float8, r->'reasons', r->'numbers', ${MODEL_VERSION}, ${inputHash}, now()
+          FROM jsonb_array_elements(${JSON.stringify(rows.slice(i, i + CHUNK))}::jsonb) AS r
         ON CONFLICT (lease_id, scenario_id) DO UPDATE SET footprint_id = EXCLUDED.footprint_id, band_fractions = EXCLUDED.band_fractions,
           lowest_salinity = EXCLUDED.lowest_salinity, highest_indicator = EXCLUDED.highest_indicator, days_below_tolerance = EXCLUDED.days_below_tolerance,
           rating = EXCLUDED.rating, score = EXCLUDED.score, reasons = EXCLUDED.reasons, numbers = EXCLUDED.numbers, model_version = EXCLUDED.model_version,
@@ -510,6 +512,7 @@ export function createScreeningService(deps: { db: Database }) {
         FROM screenings s JOIN scenarios sc ON sc.id = s.scenario_id JOIN leases l ON l.id = s.lease_id
        WHERE s.river_id = ${river.id}::uuid AND sc.kind = 'aep' ${leaseFilter}
        GROUP BY s.lease_id, l.species`);
+    const annual: { lease: string; expected: number; probability: number; worst: string; closure: number; harmful: number; details: unknown }[] = [];
     for (const row of res.rows) {
       const points = row.points.filter((p) => p.aep > 0 && p.aep < 1);
       if (!points.length) continue;
@@ -545,11 +548,25 @@ export function createScreeningService(deps: { db: Database }) {
         (w, p) => (RATING_ORDER.indexOf(p.rating as never) > RATING_ORDER.indexOf(w as never) ? p.rating : w),
         'low',
       );
+      annual.push({
+        lease: row.lease_id,
+        expected: result.expectedDaysPerYear,
+        probability: result.probabilityOfAnyExposure,
+        worst,
+        closure: indicator.expectedDaysPerYear,
+        harmful: harmful.probabilityOfAnyExposure,
+        details: result,
+      });
+    }
+    // 1 000 rows a statement instead of one statement per lease.
+    const CHUNK = 1000;
+    for (let i = 0; i < annual.length; i += CHUNK) {
       await db.execute(sql`
         INSERT INTO lease_annual_exposure (lease_id, river_id, expected_days_per_year, probability_any_exposure, worst_rating,
                                            closure_days_per_year, harmful_salinity_chance, details, computed_at)
-        VALUES (${row.lease_id}::uuid, ${river.id}::uuid, ${result.expectedDaysPerYear}, ${result.probabilityOfAnyExposure}, ${worst},
-                ${indicator.expectedDaysPerYear}, ${harmful.probabilityOfAnyExposure}, ${JSON.stringify(result)}::jsonb, now())
+        SELECT (r->>'lease')::uuid, ${river.id}::uuid, (r->>'expected')::float8, (r->>'probability')::float8, r->>'worst',
+               (r->>'closure')::float8, (r->>'harmful')::float8, r->'details', now()
+          FROM jsonb_array_elements(${JSON.stringify(annual.slice(i, i + CHUNK))}::jsonb) AS r
         ON CONFLICT (lease_id, river_id) DO UPDATE SET expected_days_per_year = EXCLUDED.expected_days_per_year,
           probability_any_exposure = EXCLUDED.probability_any_exposure, worst_rating = EXCLUDED.worst_rating,
           closure_days_per_year = EXCLUDED.closure_days_per_year, harmful_salinity_chance = EXCLUDED.harmful_salinity_chance,
@@ -628,8 +645,22 @@ export function createScreeningService(deps: { db: Database }) {
   async function screenLeases(river: RiverInputs, plan: ScreeningPlanItem[], leaseIds?: string[]) {
     // Only the leases this river reaches (given ones may lie beyond it); screenFootprint takes them as the scope.
     const paired = await scopedLeaseIds(river, leaseIds);
+    // Two footprints at a time: on a two-core machine one PostgreSQL backend works on one footprint's queries while
+    // the other footprint's rows are computed in Node or written. Each footprint's rows are its own (lease, scenario).
     let screened = 0;
-    for (const item of plan) screened += await screenFootprint(river, item.footprint, item.scenario, paired);
+    const queue = [...plan];
+    let failed: unknown = null;
+    const worker = async () => {
+      for (let item = queue.shift(); item && !failed; item = queue.shift()) {
+        try {
+          screened += await screenFootprint(river, item.footprint, item.scenario, paired);
+        } catch (err) {
+          failed ??= err;
+        }
+      }
+    };
+    await Promise.all([worker(), worker()]);
+    if (failed) throw failed;
     await annualise(river, paired);
 
     return screened;
