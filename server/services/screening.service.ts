@@ -11,7 +11,7 @@ import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared
 import { buildFootprint } from '#shared/geometry/build-footprint';
 import type { PlumeResult } from '#shared/physics/compute-plume';
 import { type ExposureParameters, type fieldAt, worstField } from '#shared/physics/exposure-field';
-import { type CoastFrame, coastPosition, coastPositionWithin, distanceToPath, outlinePositions } from '#shared/geometry/coast-position';
+import { type CoastFrame, coastPosition, coastPositionWithin, distanceToPath, outlinePositions, outlinePositionsWithin } from '#shared/geometry/coast-position';
 import { MODEL_VERSION } from '#shared/physics/model-version';
 import { riverPlume } from '#shared/physics/river-plume';
 import type { RiverSettings } from '#shared/schemas/river';
@@ -23,7 +23,7 @@ import type { Database } from '../db/client';
 import { NotFoundError, UnprocessableError } from '../lib/errors';
 
 import { BUILTIN_COAST_CAUTION } from './builtin-coast.service';
-import { footprintCoastFrame } from './coast-positions';
+import { arcHintBounds, footprintCoastFrame, footprintDegreePath } from './coast-positions';
 
 const RATING_ORDER = ['low', 'moderate', 'high', 'severe'] as const;
 const INDICATOR_STANDARD = 14;
@@ -101,14 +101,13 @@ type LeaseRow = {
 };
 
 /**
- * The place of a lease outside the plume (its point on the surface, searched within 2x + 2 km of its arc `s`, x
- * its geodesic distance to the path) without x: x lies between the point's distance to the path in the frame's
+ * The place of a lease outside the plume (its point on the surface, searched within 2x + 2 km of its arc hint s,
+ * known here within [sLow, sHigh], x its geodesic distance to the path) without x: x lies between the point's distance to the path in the frame's
  * metres less the lease's own size and that distance, within the azimuthal-equidistant frame's scale error
  * (under 2 × 10⁻⁴ within 150 km of the mouth (c), taken as 10⁻³, plus 1 m). When the nearest segment is the same
- * for every window those bounds allow, that is the place; otherwise null (the caller reads x from PostGIS).
+ * for every window those bounds allow, that is the place; otherwise null (the caller reads s, then x, from PostGIS).
  */
-function placedOutside(frame: CoastFrame, l: LeaseRow): { s: number; x: number } | null {
-  if (l.s === null) return null;
+function placedOutside(frame: CoastFrame, l: LeaseRow, sLow: number, sHigh: number): { s: number; x: number } | null {
   const p = frame.projection.forward([l.lon, l.lat]);
   if (!(Math.hypot(p[0], p[1]) <= 150_000)) return null;
   // The lease's size: its bounding box's diagonal in metres, generous (degrees of 111.7 km and 111.32 km × cos φ, + 1 %).
@@ -117,7 +116,7 @@ function placedOutside(frame: CoastFrame, l: LeaseRow): { s: number; x: number }
   const d = distanceToPath(frame, p);
   const xLow = Math.max(0, d * (1 - 1e-3) - 1 - size);
   const xHigh = d * (1 + 1e-3) + 1;
-  return coastPositionWithin(frame, p, Math.max(0, l.s), 2 * xLow + 2000, 2 * xHigh + 2000);
+  return coastPositionWithin(frame, p, Math.max(0, sLow), Math.max(0, sHigh), 2 * xLow + 2000, 2 * xHigh + 2000);
 }
 
 function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
@@ -355,19 +354,18 @@ export function createScreeningService(deps: { db: Database }) {
     const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
     // leaseIds (the paired leases, from screenLeases) stand for the river's scope; without them the scope is computed here.
     const scope = leaseIds ? sql`true` : scopedLeases(river);
-    // The two reads are independent: on two connections of the pool at once.
-    const [byLease, leases] = await Promise.all([
+    // The reads are independent: on connections of the pool at once.
+    const [byLease, leases, frame, degreePath] = await Promise.all([
       leaseBandFractions(db, footprint.id, sql`${scope} ${leaseFilter}`),
-      // The path's ellipsoidal length and its geography are worked out once (a MATERIALIZED CTE), not once per lease:
-      // that repetition was two thirds of this query's time (EXPLAIN ANALYZE in DEVELOPERS.md), for the same values.
       db.execute<LeaseRow>(sql`
-      WITH f AS MATERIALIZED (SELECT path, ST_Length(path::geography) AS len FROM footprints WHERE id = ${footprint.id}::uuid)
-      SELECT l.id, l.species,
-             ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * f.len AS s,
-             ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat,
-             ST_XMin(l.geom) AS x0, ST_YMin(l.geom) AS y0, ST_XMax(l.geom) AS x1, ST_YMax(l.geom) AS y1
-        FROM leases l, f
-       WHERE ${scope} ${leaseFilter}`),
+        SELECT l.id, l.species, NULL::float8 AS s, NULL::float8 AS x,
+               ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat,
+               ST_XMin(l.geom) AS x0, ST_YMin(l.geom) AS y0, ST_XMax(l.geom) AS x1, ST_YMax(l.geom) AS y1
+          FROM leases l
+         WHERE ${scope} ${leaseFilter}`),
+      // The frame is needed for every lease: those outside the plume still report their own signed place.
+      footprintCoastFrame(db, footprint.id, river.settings),
+      footprintDegreePath(db, footprint.id),
     ]);
     const { params } = plumeFor(river.settings, scenario);
     const days = scenario.durationHours / 24;
@@ -375,33 +373,60 @@ export function createScreeningService(deps: { db: Database }) {
     // the plume's signed coordinates (up-coast of the mouth in the bulge's own frame).
     const inPlumeIds = leases.rows.filter((l) => (byLease.get(l.id)?.['plume-edge'] ?? 0) > 0).map((l) => l.id);
     const outlines = new Map<string, Position[][]>();
-    // The frame is needed for every lease: those outside the plume still report their own signed place.
-    const frame: CoastFrame | null = leases.rows.length ? await footprintCoastFrame(db, footprint.id, river.settings) : null;
     if (inPlumeIds.length) {
       const geo = await db.execute<{ id: string; geometry: string }>(sql`
         SELECT l.id, ST_AsGeoJSON(l.geom, 7) AS geometry FROM leases l
          WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(inPlumeIds)}::jsonb)::uuid)`);
       for (const g of geo.rows) outlines.set(g.id, polygonRings(JSON.parse(g.geometry)));
     }
+    // Every lease is searched for along the path around its arc hint s: the arc of its closest point on the path, as
+    // PostGIS gives it (ST_LineLocatePoint of ST_ClosestPoint, per lease the dearest figure with its geodesic distance
+    // below). Both are bounded here instead (arcHintBounds, placedOutside); a lease is placed from the bounds when
+    // every value they allow gives the same nearest path segment, i.e. the same figures, and only the others are read
+    // from PostGIS and placed as before.
     const inPlume = new Set(inPlumeIds);
     const worstById = new Map<string, ReturnType<typeof leaseWorstPoint>>();
-    for (const l of leases.rows) {
-      if (inPlume.has(l.id) && frame && outlines.has(l.id)) {
-        worstById.set(l.id, leaseWorstPoint(frame, outlines.get(l.id) as Position[][], footprint.plume, params, l.s));
-      }
-    }
-    // A lease no worst point places is placed from the point on it, in a window of the path around its arc whose
-    // half-width is 2 × its geodesic distance to the path + 2 km. That distance (the dearest figure per lease in
-    // PostGIS) is bounded here from the frame's metres instead, and read from PostGIS only for the few leases whose
-    // bounds leave the nearest segment in doubt (placedOutside): the same figures either way.
     const placed = new Map<string, { s: number; x: number }>();
-    if (frame) {
-      for (const l of leases.rows) {
-        if (worstById.get(l.id) || l.s === null) continue;
-        const at = placedOutside(frame, l);
+    const needS: LeaseRow[] = [];
+    for (const l of leases.rows) {
+      const hint = frame && degreePath ? arcHintBounds(degreePath, l) : null;
+      if (!frame || !hint) {
+        needS.push(l);
+        continue;
+      }
+      if (inPlume.has(l.id) && outlines.has(l.id)) {
+        const positions = outlinePositionsWithin(frame, outlines.get(l.id) as Position[][], OUTLINE_SPACING, hint[0], hint[1]);
+        if (!positions) {
+          needS.push(l);
+          continue;
+        }
+        const worst = positions.length ? worstField(footprint.plume, params, positions) : null;
+        worstById.set(l.id, worst);
+        if (worst) continue;
+      }
+      const at = placedOutside(frame, l, hint[0], hint[1]);
+      if (at) placed.set(l.id, at);
+      else needS.push(l);
+    }
+    if (needS.length) {
+      // The path's ellipsoidal length is worked out once (a MATERIALIZED CTE), not once per lease.
+      const exact = await db.execute<{ id: string; s: number | null }>(sql`
+        WITH f AS MATERIALIZED (SELECT path, ST_Length(path::geography) AS len FROM footprints WHERE id = ${footprint.id}::uuid)
+        SELECT l.id, ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * f.len AS s FROM leases l, f
+         WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(needS.map((l) => l.id))}::jsonb)::uuid)`);
+      const sById = new Map(exact.rows.map((r) => [r.id, r.s]));
+      for (const l of needS) {
+        l.s = sById.get(l.id) ?? null;
+        if (inPlume.has(l.id) && frame && outlines.has(l.id)) {
+          const worst = leaseWorstPoint(frame, outlines.get(l.id) as Position[][], footprint.plume, params, l.s);
+          worstById.set(l.id, worst);
+          if (worst) continue;
+        }
+        const at = frame && l.s !== null ? placedOutside(frame, l, l.s, l.s) : null;
         if (at) placed.set(l.id, at);
       }
     }
+    // The distance to the path (geodesic) is read only where the bounds did not decide the place.
     const needX = leases.rows.filter((l) => !worstById.get(l.id) && !placed.has(l.id)).map((l) => l.id);
     const xById = new Map<string, number | null>();
     if (needX.length) {

@@ -176,6 +176,51 @@ export function outlinePositions(
   spacing: number,
   hint?: number,
 ): { s: number; x: number }[] {
+  const outline = outlinePoints(frame, rings, spacing);
+  if (!outline) return [];
+  const window = hint === undefined || !Number.isFinite(hint) ? undefined : { s: Math.max(0, hint), window: 2 * outline.span + 2000 };
+  return outline.points.map((p) => coastPositionOf(frame, p, window));
+}
+
+/**
+ * {@link outlinePositions} with its hint known only within [hintLow, hintHigh]: the same positions when every
+ * point's nearest segment is the same for every hint in the range ({@link coastPositionWithin}), else null.
+ *
+ * @param frame - from {@link coastFrame}
+ * @param rings - polygon rings [lon, lat]
+ * @param spacing - largest gap between points [m], > 0
+ * @param hintLow - smallest possible arc [m] of the polygon's nearest point on the path
+ * @param hintHigh - largest possible arc [m], ≥ hintLow
+ * @returns [{ s, x }] as outlinePositions(frame, rings, spacing, hint) for every hint in the range, or null
+ * @example
+ * outlinePositionsWithin(frame, lease.coordinates, 30, 5790, 5810)?.length; // => about 41 for a 300 m square
+ * Source: (c) derived.
+ */
+export function outlinePositionsWithin(
+  frame: CoastFrame,
+  rings: readonly (readonly Position[])[],
+  spacing: number,
+  hintLow: number,
+  hintHigh: number,
+): { s: number; x: number }[] | null {
+  const outline = outlinePoints(frame, rings, spacing);
+  if (!outline) return [];
+  const w = 2 * outline.span + 2000;
+  const out: { s: number; x: number }[] = [];
+  for (const p of outline.points) {
+    const at = coastPositionWithin(frame, p, Math.max(0, hintLow), Math.max(0, hintHigh), w, w);
+    if (!at) return null;
+    out.push(at);
+  }
+  return out;
+}
+
+/** @private The outline's points (every `spacing` m, then the vertex centroid) in the frame's metres, and its span. */
+function outlinePoints(
+  frame: CoastFrame,
+  rings: readonly (readonly Position[])[],
+  spacing: number,
+): { points: PlanarPoint[]; span: number } | null {
   const pts: PlanarPoint[] = [];
   let cx = 0;
   let cy = 0;
@@ -204,34 +249,35 @@ export function outlinePositions(
       maxY = Math.max(maxY, a[1]);
     }
   }
-  if (n === 0) return [];
+  if (n === 0) return null;
   pts.push([cx / n, cy / n]);
   const span = Math.hypot(maxX - minX, maxY - minY);
-  const window = hint === undefined || !Number.isFinite(hint) ? undefined : { s: Math.max(0, hint), window: 2 * span + 2000 };
-  return pts.map((p) => coastPositionOf(frame, p, window));
+  return { points: pts, span };
 }
 
 /**
- * {@link coastPosition} of a point whose search window is known only within bounds: the window's centre is `s`
- * and its half-width somewhere in [windowLow, windowHigh]. The nearest segment found in the widest window is the
+ * {@link coastPosition} of a point whose search window is known only within bounds: the window's centre is in
+ * [sLow, sHigh] and its half-width in [windowLow, windowHigh]. The nearest segment found in the widest window is the
  * answer of every window between the two when it lies inside the narrowest one (the same segment, the same
  * arithmetic, so the same figures as {@link coastPosition} with the exact window); otherwise the bounds do not decide
  * it and the result is null (the caller asks for the exact window).
  *
  * @param frame - from {@link coastFrame}
  * @param p - the point in the frame's metres
- * @param s - centre of the window [m] (as the hint's s)
+ * @param sLow - smallest possible centre of the window [m] (the hint's s)
+ * @param sHigh - largest possible centre [m], ≥ sLow
  * @param windowLow - smallest possible half-width [m]
  * @param windowHigh - largest possible half-width [m], ≥ windowLow
- * @returns { s, x } as coastPositionOf(frame, p, { s, window }) for every window in the range, or null
+ * @returns { s, x } as coastPositionOf(frame, p, { s, window }) for every centre and window in the ranges, or null
  * @example
- * coastPositionWithin(frame, [-500, -6000], 6000, 2000, 2100); // => { s: 6000, x: 500 }
+ * coastPositionWithin(frame, [-500, -6000], 6000, 6000, 2000, 2100); // => { s: 6000, x: 500 }
  * Source: (c) derived (the search of {@link coastPositionOf} is monotone in its window).
  */
 export function coastPositionWithin(
   frame: CoastFrame,
   p: PlanarPoint,
-  s: number,
+  sLow: number,
+  sHigh: number,
   windowLow: number,
   windowHigh: number,
 ): { s: number; x: number } | null {
@@ -240,13 +286,13 @@ export function coastPositionWithin(
   if (frame.radial) return { s: along, x: Math.max(0, out) };
   const { path, arc } = frame;
   if (path.length === 1) return coastPositionOf(frame, p);
-  if (!Number.isFinite(s) || !(windowLow >= 0) || !(windowHigh >= windowLow)) return null;
-  const range = (w: number): [number, number] => [
-    Math.max(0, upperBound(arc, s - w) - 1),
-    Math.min(path.length - 2, upperBound(arc, s + w)),
+  if (!Number.isFinite(sLow) || !(sHigh >= sLow) || !(windowLow >= 0) || !(windowHigh >= windowLow)) return null;
+  const range = (from: number, to: number): [number, number] => [
+    Math.max(0, upperBound(arc, from) - 1),
+    Math.min(path.length - 2, upperBound(arc, to)),
   ];
-  const [loIn, hiIn] = range(windowLow);
-  const [lo, hi] = range(windowHigh);
+  const [loIn, hiIn] = range(sHigh - windowLow, sLow + windowLow);
+  const [lo, hi] = range(sLow - windowHigh, sHigh + windowHigh);
   // The loop of nearestOnPath, over the widest window, remembering which segment won.
   let bestD2 = Number.POSITIVE_INFINITY;
   let bestS = 0;

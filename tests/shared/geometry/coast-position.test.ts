@@ -64,7 +64,7 @@ describe('coastPositionWithin', () => {
   it('gives what coastPosition gives with every window between its bounds when they agree on the nearest segment', () => {
     // (c) derived: the answer is coastPositionOf's own search with the exact window, so compare with that function.
     const p = pointAt([-700, -3000]);
-    const at = coastPositionWithin(bay, p, 3000, 2000, 2600);
+    const at = coastPositionWithin(bay, p, 3000, 3000, 2000, 2600);
     expect(at).not.toBeNull();
     for (const w of [2000, 2200, 2600]) expect(coastPosition(bay, P.inverse([-700, -3000]), { s: 3000, window: w })).toEqual(at);
   });
@@ -77,7 +77,7 @@ describe('coastPositionWithin', () => {
     const wide = coastPosition(bay, P.inverse([-1300, -3000]), { s: 3000, window: 40_000 });
     expect(narrow.x).toBeCloseTo(1300, 3);
     expect(wide.x).toBeCloseTo(700, 3);
-    expect(coastPositionWithin(bay, p, 3000, 2000, 40_000)).toBeNull();
-    expect(coastPositionWithin(bay, p, 3000, 39_000, 40_000)).toEqual(wide);
+    expect(coastPositionWithin(bay, p, 3000, 3000, 2000, 40_000)).toBeNull();
+    expect(coastPositionWithin(bay, p, 3000, 3000, 39_000, 40_000)).toEqual(wide);
   });
 });
