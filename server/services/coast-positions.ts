@@ -45,6 +45,8 @@ export function placeOutline(frame: CoastFrame, rings: Position[][], spacing = 3
 
 /** A footprint's walked coast as PostGIS holds it: [lon, lat] vertices, their running planar length in degrees, and its ellipsoidal length [m]. */
 export interface DegreePath {
+  /** The path's text and length: equal keys, equal paths (the footprints of one river often share their walked coast). */
+  readonly key: string;
   readonly coords: Position[];
   readonly cum: number[];
   readonly lengthM: number;
@@ -63,7 +65,7 @@ export async function footprintDegreePath(db: Database, footprintId: string): Pr
     const b = path.coordinates[i];
     cum.push(cum[i - 1] + Math.hypot(b[0] - a[0], b[1] - a[1]));
   }
-  return { coords: path.coordinates, cum, lengthM: Number(row.len) };
+  return { key: `${row.path}|${row.len}`, coords: path.coordinates, cum, lengthM: Number(row.len) };
 }
 
 /**

@@ -100,6 +100,24 @@ type LeaseRow = {
   y1: number;
 };
 
+/** What screenLeases reads or works out once for all the footprints of its plan. */
+interface RunCache {
+  leases: Promise<LeaseRow[]>;
+  /** arcHintBounds by path key, then lease. */
+  hints: Map<string, Map<string, [number, number] | null>>;
+  /** A lease's point in the frame's metres and its distance to the path, by path key and mouth, then lease. */
+  near: Map<string, Map<string, { p: [number, number]; d: number }>>;
+}
+
+function entryOf<K, V>(map: Map<K, V>, key: K, make: () => V): V {
+  let v = map.get(key);
+  if (v === undefined) {
+    v = make();
+    map.set(key, v);
+  }
+  return v;
+}
+
 /**
  * The place of a lease outside the plume (its point on the surface, searched within 2x + 2 km of its arc hint s,
  * known here within [sLow, sHigh], x its geodesic distance to the path) without x: x lies between the point's distance to the path in the frame's
@@ -107,19 +125,43 @@ type LeaseRow = {
  * (under 2 × 10⁻⁴ within 150 km of the mouth (c), taken as 10⁻³, plus 1 m). When the nearest segment is the same
  * for every window those bounds allow, that is the place; otherwise null (the caller reads s, then x, from PostGIS).
  */
-function placedOutside(frame: CoastFrame, l: LeaseRow, sLow: number, sHigh: number): { s: number; x: number } | null {
-  const p = frame.projection.forward([l.lon, l.lat]);
+function placedOutside(
+  frame: CoastFrame,
+  l: LeaseRow,
+  sLow: number,
+  sHigh: number,
+  near?: Map<string, { p: [number, number]; d: number }>,
+): { s: number; x: number } | null {
+  // The point in the frame's metres and its distance to the path depend on the path and the mouth alone: kept in
+  // `near` for the other footprints of a run on the same walked coast.
+  let known = near?.get(l.id);
+  if (!known) {
+    const p = frame.projection.forward([l.lon, l.lat]);
+    known = { p, d: distanceToPath(frame, p) };
+    near?.set(l.id, known);
+  }
+  const { p, d } = known;
   if (!(Math.hypot(p[0], p[1]) <= 150_000)) return null;
   // The lease's size: its bounding box's diagonal in metres, generous (degrees of 111.7 km and 111.32 km × cos φ, + 1 %).
   const cosLat = Math.cos((Math.min(Math.abs(l.y0), Math.abs(l.y1)) * Math.PI) / 180);
   const size = 1.01 * Math.hypot((l.y1 - l.y0) * 111_700, (l.x1 - l.x0) * 111_320 * cosLat);
-  const d = distanceToPath(frame, p);
   const xLow = Math.max(0, d * (1 - 1e-3) - 1 - size);
   const xHigh = d * (1 + 1e-3) + 1;
   return coastPositionWithin(frame, p, Math.max(0, sLow), Math.max(0, sHigh), 2 * xLow + 2000, 2 * xHigh + 2000);
 }
 
+const speciesMemo = new Map<string | null, { tolerance: SpeciesTolerance; known: boolean }>();
+/** The tolerance row a lease is scored with (the table is fixed: one frozen row per species, looked up once). */
 function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
+  let found = speciesMemo.get(species);
+  if (!found) {
+    found = speciesRow(species);
+    speciesMemo.set(species, found);
+  }
+  return found;
+}
+
+function speciesRow(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
   if (species && (SPECIES_IDS as readonly string[]).includes(species)) return { tolerance: getSpeciesTolerance(species), known: true };
   return { tolerance: strictestSpecies(), known: false };
 }
@@ -344,12 +386,24 @@ export function createScreeningService(deps: { db: Database }) {
     return res.rows.map((r) => r.id);
   }
 
+  /** The leases as screenFootprint reads them: point on the surface and bounding box (`where` over alias l). */
+  async function readLeases(where: SQL): Promise<LeaseRow[]> {
+    const res = await db.execute<LeaseRow>(sql`
+      SELECT l.id, l.species, NULL::float8 AS s, NULL::float8 AS x,
+             ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat,
+             ST_XMin(l.geom) AS x0, ST_YMin(l.geom) AS y0, ST_XMax(l.geom) AS x1, ST_YMax(l.geom) AS y1
+        FROM leases l
+       WHERE ${where}`);
+    return res.rows;
+  }
+
   /** Screens every scoped lease under one scenario's footprint, replacing earlier rows. */
   async function screenFootprint(
     river: RiverInputs,
     footprint: { id: string; plume: PlumeResult },
     scenario: { id: string; aep: number | null; discharge: number; durationHours: number; name: string },
     leaseIds?: string[],
+    cache?: RunCache,
   ) {
     const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
     // leaseIds (the paired leases, from screenLeases) stand for the river's scope; without them the scope is computed here.
@@ -357,12 +411,8 @@ export function createScreeningService(deps: { db: Database }) {
     // The reads are independent: on connections of the pool at once.
     const [byLease, leases, frame, degreePath] = await Promise.all([
       leaseBandFractions(db, footprint.id, sql`${scope} ${leaseFilter}`),
-      db.execute<LeaseRow>(sql`
-        SELECT l.id, l.species, NULL::float8 AS s, NULL::float8 AS x,
-               ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat,
-               ST_XMin(l.geom) AS x0, ST_YMin(l.geom) AS y0, ST_XMax(l.geom) AS x1, ST_YMax(l.geom) AS y1
-          FROM leases l
-         WHERE ${scope} ${leaseFilter}`),
+      // Read once per run when screenLeases gives them (copies: s and x are set per footprint below).
+      (cache ? cache.leases : readLeases(sql`${scope} ${leaseFilter}`)).then((rows) => ({ rows: rows.map((r) => ({ ...r })) })),
       // The frame is needed for every lease: those outside the plume still report their own signed place.
       footprintCoastFrame(db, footprint.id, river.settings),
       footprintDegreePath(db, footprint.id),
@@ -388,8 +438,17 @@ export function createScreeningService(deps: { db: Database }) {
     const worstById = new Map<string, ReturnType<typeof leaseWorstPoint>>();
     const placed = new Map<string, { s: number; x: number }>();
     const needS: LeaseRow[] = [];
+    const hints = degreePath ? entryOf(cache?.hints ?? new Map(), degreePath.key, () => new Map<string, [number, number] | null>()) : null;
+    const near = degreePath
+      ? entryOf(cache?.near ?? new Map(), `${degreePath.key}|${river.settings.mouthLongitude},${river.settings.mouthLatitude}`, () => new Map())
+      : undefined;
     for (const l of leases.rows) {
-      const hint = frame && degreePath ? arcHintBounds(degreePath, l) : null;
+      let hint: [number, number] | null = null;
+      if (frame && degreePath && hints) {
+        const had = hints.get(l.id);
+        hint = had === undefined ? arcHintBounds(degreePath, l) : had;
+        if (had === undefined) hints.set(l.id, hint);
+      }
       if (!frame || !hint) {
         needS.push(l);
         continue;
@@ -404,7 +463,7 @@ export function createScreeningService(deps: { db: Database }) {
         worstById.set(l.id, worst);
         if (worst) continue;
       }
-      const at = placedOutside(frame, l, hint[0], hint[1]);
+      const at = placedOutside(frame, l, hint[0], hint[1], near);
       if (at) placed.set(l.id, at);
       else needS.push(l);
     }
@@ -422,7 +481,7 @@ export function createScreeningService(deps: { db: Database }) {
           worstById.set(l.id, worst);
           if (worst) continue;
         }
-        const at = frame && l.s !== null ? placedOutside(frame, l, l.s, l.s) : null;
+        const at = frame && l.s !== null ? placedOutside(frame, l, l.s, l.s, near) : null;
         if (at) placed.set(l.id, at);
       }
     }
@@ -437,6 +496,7 @@ export function createScreeningService(deps: { db: Database }) {
       for (const r of dist.rows) xById.set(r.id, r.x);
     }
     for (const l of leases.rows) if (!placed.has(l.id)) l.x = xById.get(l.id) ?? null;
+    const outsideScores = new Map<string, ReturnType<typeof scoreLease>>();
     const rows = leases.rows.map((l) => {
       const fractionsOfLease = byLease.get(l.id) ?? {};
       const { tolerance, known } = speciesOf(l.species);
@@ -469,7 +529,13 @@ export function createScreeningService(deps: { db: Database }) {
         : Math.min(highestIndicator, INDICATOR_STANDARD);
       const below = daysBelowTolerance(inPlume ? lowestSalinity : null, days, tolerance);
       const speciesBand = salinityBandId(tolerance.chronicLowerSalinity);
-      const score = scoreLease({
+      // Outside the plume a score depends on the species and the fractions alone (no salinity, no indicator): one
+      // scoreLease per distinct input, most of a run's leases sharing one.
+      const memoKey = inPlume
+        ? null
+        : `${l.species}|${fractionsOfLease['plume-edge'] ?? 0}|${fractionsOfLease[speciesBand] ?? 0}|${fractionsOfLease['indicator-over-standard'] ?? 0}`;
+      const memo = memoKey === null ? undefined : outsideScores.get(memoKey);
+      const score = memo ?? scoreLease({
         tolerance,
         scenario: { aep: scenario.aep, discharge: scenario.discharge, floodDurationDays: days, name: scenario.name },
         bandFractions: {
@@ -482,6 +548,7 @@ export function createScreeningService(deps: { db: Database }) {
         daysBelowTolerance: below,
         indicatorThreshold: INDICATOR_STANDARD,
       });
+      if (memoKey !== null && !memo) outsideScores.set(memoKey, score);
       const reasons = [...score.reasons];
       if (!known)
         reasons.push(
@@ -672,13 +739,21 @@ export function createScreeningService(deps: { db: Database }) {
     const paired = await scopedLeaseIds(river, leaseIds);
     // Two footprints at a time: on a two-core machine one PostgreSQL backend works on one footprint's queries while
     // the other footprint's rows are computed in Node or written. Each footprint's rows are its own (lease, scenario).
+    // The leases are read once for every footprint of the plan, and what depends on a footprint's path alone is kept
+    // for the others on the same path.
+    const cache: RunCache = {
+      leases: readLeases(sql`l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(paired)}::jsonb)::uuid)`),
+      hints: new Map(),
+      near: new Map(),
+    };
+    cache.leases.catch(() => undefined);
     let screened = 0;
     const queue = [...plan];
     let failed: unknown = null;
     const worker = async () => {
       for (let item = queue.shift(); item && !failed; item = queue.shift()) {
         try {
-          screened += await screenFootprint(river, item.footprint, item.scenario, paired);
+          screened += await screenFootprint(river, item.footprint, item.scenario, paired, cache);
         } catch (err) {
           failed ??= err;
         }
