@@ -11,7 +11,7 @@ import { getSpeciesTolerance, SPECIES_IDS, type SpeciesTolerance } from '#shared
 import { buildFootprint } from '#shared/geometry/build-footprint';
 import type { PlumeResult } from '#shared/physics/compute-plume';
 import { type ExposureParameters, type fieldAt, worstField } from '#shared/physics/exposure-field';
-import { type CoastFrame, coastPosition, outlinePositions } from '#shared/geometry/coast-position';
+import { type CoastFrame, coastPosition, coastPositionWithin, distanceToPath, outlinePositions, outlinePositionsWithin } from '#shared/geometry/coast-position';
 import { MODEL_VERSION } from '#shared/physics/model-version';
 import { riverPlume } from '#shared/physics/river-plume';
 import type { RiverSettings } from '#shared/schemas/river';
@@ -23,7 +23,7 @@ import type { Database } from '../db/client';
 import { NotFoundError, UnprocessableError } from '../lib/errors';
 
 import { BUILTIN_COAST_CAUTION } from './builtin-coast.service';
-import { footprintCoastFrame } from './coast-positions';
+import { arcHintBounds, footprintCoastFrame, footprintDegreePath } from './coast-positions';
 
 const RATING_ORDER = ['low', 'moderate', 'high', 'severe'] as const;
 const INDICATOR_STANDARD = 14;
@@ -86,7 +86,82 @@ export function leaseWorstPoint(
   return positions.length ? worstField(plume, params, positions) : null;
 }
 
+/** A lease as the screening of one footprint reads it: its arc hint [m], point on it and bounding box (degrees). */
+type LeaseRow = {
+  id: string;
+  species: string | null;
+  s: number | null;
+  x: number | null;
+  lon: number;
+  lat: number;
+  x0: number;
+  y0: number;
+  x1: number;
+  y1: number;
+};
+
+/** What screenLeases reads or works out once for all the footprints of its plan. */
+interface RunCache {
+  leases: Promise<LeaseRow[]>;
+  /** arcHintBounds by path key, then lease. */
+  hints: Map<string, Map<string, [number, number] | null>>;
+  /** A lease's point in the frame's metres and its distance to the path, by path key and mouth, then lease. */
+  near: Map<string, Map<string, { p: [number, number]; d: number }>>;
+}
+
+function entryOf<K, V>(map: Map<K, V>, key: K, make: () => V): V {
+  let v = map.get(key);
+  if (v === undefined) {
+    v = make();
+    map.set(key, v);
+  }
+  return v;
+}
+
+/**
+ * The place of a lease outside the plume (its point on the surface, searched within 2x + 2 km of its arc hint s,
+ * known here within [sLow, sHigh], x its geodesic distance to the path) without x: x lies between the point's distance to the path in the frame's
+ * metres less the lease's own size and that distance, within the azimuthal-equidistant frame's scale error
+ * (under 2 × 10⁻⁴ within 150 km of the mouth (c), taken as 10⁻³, plus 1 m). When the nearest segment is the same
+ * for every window those bounds allow, that is the place; otherwise null (the caller reads s, then x, from PostGIS).
+ */
+function placedOutside(
+  frame: CoastFrame,
+  l: LeaseRow,
+  sLow: number,
+  sHigh: number,
+  near?: Map<string, { p: [number, number]; d: number }>,
+): { s: number; x: number } | null {
+  // The point in the frame's metres and its distance to the path depend on the path and the mouth alone: kept in
+  // `near` for the other footprints of a run on the same walked coast.
+  let known = near?.get(l.id);
+  if (!known) {
+    const p = frame.projection.forward([l.lon, l.lat]);
+    known = { p, d: distanceToPath(frame, p) };
+    near?.set(l.id, known);
+  }
+  const { p, d } = known;
+  if (!(Math.hypot(p[0], p[1]) <= 150_000)) return null;
+  // The lease's size: its bounding box's diagonal in metres, generous (degrees of 111.7 km and 111.32 km × cos φ, + 1 %).
+  const cosLat = Math.cos((Math.min(Math.abs(l.y0), Math.abs(l.y1)) * Math.PI) / 180);
+  const size = 1.01 * Math.hypot((l.y1 - l.y0) * 111_700, (l.x1 - l.x0) * 111_320 * cosLat);
+  const xLow = Math.max(0, d * (1 - 1e-3) - 1 - size);
+  const xHigh = d * (1 + 1e-3) + 1;
+  return coastPositionWithin(frame, p, Math.max(0, sLow), Math.max(0, sHigh), 2 * xLow + 2000, 2 * xHigh + 2000);
+}
+
+const speciesMemo = new Map<string | null, { tolerance: SpeciesTolerance; known: boolean }>();
+/** The tolerance row a lease is scored with (the table is fixed: one frozen row per species, looked up once). */
 function speciesOf(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
+  let found = speciesMemo.get(species);
+  if (!found) {
+    found = speciesRow(species);
+    speciesMemo.set(species, found);
+  }
+  return found;
+}
+
+function speciesRow(species: string | null): { tolerance: SpeciesTolerance; known: boolean } {
   if (species && (SPECIES_IDS as readonly string[]).includes(species)) return { tolerance: getSpeciesTolerance(species), known: true };
   return { tolerance: strictestSpecies(), known: false };
 }
@@ -311,51 +386,107 @@ export function createScreeningService(deps: { db: Database }) {
     return res.rows.map((r) => r.id);
   }
 
+  /** The leases as screenFootprint reads them: point on the surface and bounding box (`where` over alias l). */
+  async function readLeases(where: SQL): Promise<LeaseRow[]> {
+    const res = await db.execute<LeaseRow>(sql`
+      SELECT l.id, l.species, NULL::float8 AS s, NULL::float8 AS x,
+             ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat,
+             ST_XMin(l.geom) AS x0, ST_YMin(l.geom) AS y0, ST_XMax(l.geom) AS x1, ST_YMax(l.geom) AS y1
+        FROM leases l
+       WHERE ${where}`);
+    return res.rows;
+  }
+
   /** Screens every scoped lease under one scenario's footprint, replacing earlier rows. */
   async function screenFootprint(
     river: RiverInputs,
     footprint: { id: string; plume: PlumeResult },
     scenario: { id: string; aep: number | null; discharge: number; durationHours: number; name: string },
     leaseIds?: string[],
+    cache?: RunCache,
   ) {
     const leaseFilter = leaseIds ? sql`AND l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(leaseIds)}::jsonb)::uuid)` : sql``;
     // leaseIds (the paired leases, from screenLeases) stand for the river's scope; without them the scope is computed here.
     const scope = leaseIds ? sql`true` : scopedLeases(river);
-    const byLease = await leaseBandFractions(db, footprint.id, sql`${scope} ${leaseFilter}`);
-    // The path's ellipsoidal length and its geography are worked out once (a MATERIALIZED CTE), not once per lease:
-    // that repetition was two thirds of this query's time (EXPLAIN ANALYZE in DEVELOPERS.md), for the same values.
-    const leases = await db.execute<{ id: string; species: string | null; s: number | null; x: number | null; lon: number; lat: number }>(sql`
-      WITH f AS MATERIALIZED (SELECT path, ST_Length(path::geography) AS len FROM footprints WHERE id = ${footprint.id}::uuid)
-      SELECT l.id, l.species,
-             ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * f.len AS s,
-             ST_X(ST_PointOnSurface(l.geom)) AS lon, ST_Y(ST_PointOnSurface(l.geom)) AS lat
-        FROM leases l, f
-       WHERE ${scope} ${leaseFilter}`);
+    // The reads are independent: on connections of the pool at once.
+    const [byLease, leases, frame, degreePath] = await Promise.all([
+      leaseBandFractions(db, footprint.id, sql`${scope} ${leaseFilter}`),
+      // Read once per run when screenLeases gives them (copies: s and x are set per footprint below).
+      (cache ? cache.leases : readLeases(sql`${scope} ${leaseFilter}`)).then((rows) => ({ rows: rows.map((r) => ({ ...r })) })),
+      // The frame is needed for every lease: those outside the plume still report their own signed place.
+      footprintCoastFrame(db, footprint.id, river.settings),
+      footprintDegreePath(db, footprint.id),
+    ]);
     const { params } = plumeFor(river.settings, scenario);
     const days = scenario.durationHours / 24;
     // Each lease in the plume is judged at its own worst point: its outline and centroid placed in
     // the plume's signed coordinates (up-coast of the mouth in the bulge's own frame).
     const inPlumeIds = leases.rows.filter((l) => (byLease.get(l.id)?.['plume-edge'] ?? 0) > 0).map((l) => l.id);
     const outlines = new Map<string, Position[][]>();
-    // The frame is needed for every lease: those outside the plume still report their own signed place.
-    const frame: CoastFrame | null = leases.rows.length ? await footprintCoastFrame(db, footprint.id, river.settings) : null;
     if (inPlumeIds.length) {
       const geo = await db.execute<{ id: string; geometry: string }>(sql`
         SELECT l.id, ST_AsGeoJSON(l.geom, 7) AS geometry FROM leases l
          WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(inPlumeIds)}::jsonb)::uuid)`);
       for (const g of geo.rows) outlines.set(g.id, polygonRings(JSON.parse(g.geometry)));
     }
+    // Every lease is searched for along the path around its arc hint s: the arc of its closest point on the path, as
+    // PostGIS gives it (ST_LineLocatePoint of ST_ClosestPoint, per lease the dearest figure with its geodesic distance
+    // below). Both are bounded here instead (arcHintBounds, placedOutside); a lease is placed from the bounds when
+    // every value they allow gives the same nearest path segment, i.e. the same figures, and only the others are read
+    // from PostGIS and placed as before.
     const inPlume = new Set(inPlumeIds);
     const worstById = new Map<string, ReturnType<typeof leaseWorstPoint>>();
+    const placed = new Map<string, { s: number; x: number }>();
+    const needS: LeaseRow[] = [];
+    const hints = degreePath ? entryOf(cache?.hints ?? new Map(), degreePath.key, () => new Map<string, [number, number] | null>()) : null;
+    const near = degreePath
+      ? entryOf(cache?.near ?? new Map(), `${degreePath.key}|${river.settings.mouthLongitude},${river.settings.mouthLatitude}`, () => new Map())
+      : undefined;
     for (const l of leases.rows) {
-      if (inPlume.has(l.id) && frame && outlines.has(l.id)) {
-        worstById.set(l.id, leaseWorstPoint(frame, outlines.get(l.id) as Position[][], footprint.plume, params, l.s));
+      let hint: [number, number] | null = null;
+      if (frame && degreePath && hints) {
+        const had = hints.get(l.id);
+        hint = had === undefined ? arcHintBounds(degreePath, l) : had;
+        if (had === undefined) hints.set(l.id, hint);
+      }
+      if (!frame || !hint) {
+        needS.push(l);
+        continue;
+      }
+      if (inPlume.has(l.id) && outlines.has(l.id)) {
+        const positions = outlinePositionsWithin(frame, outlines.get(l.id) as Position[][], OUTLINE_SPACING, hint[0], hint[1]);
+        if (!positions) {
+          needS.push(l);
+          continue;
+        }
+        const worst = positions.length ? worstField(footprint.plume, params, positions) : null;
+        worstById.set(l.id, worst);
+        if (worst) continue;
+      }
+      const at = placedOutside(frame, l, hint[0], hint[1], near);
+      if (at) placed.set(l.id, at);
+      else needS.push(l);
+    }
+    if (needS.length) {
+      // The path's ellipsoidal length is worked out once (a MATERIALIZED CTE), not once per lease.
+      const exact = await db.execute<{ id: string; s: number | null }>(sql`
+        WITH f AS MATERIALIZED (SELECT path, ST_Length(path::geography) AS len FROM footprints WHERE id = ${footprint.id}::uuid)
+        SELECT l.id, ST_LineLocatePoint(f.path, ST_ClosestPoint(f.path, l.geom)) * f.len AS s FROM leases l, f
+         WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(needS.map((l) => l.id))}::jsonb)::uuid)`);
+      const sById = new Map(exact.rows.map((r) => [r.id, r.s]));
+      for (const l of needS) {
+        l.s = sById.get(l.id) ?? null;
+        if (inPlume.has(l.id) && frame && outlines.has(l.id)) {
+          const worst = leaseWorstPoint(frame, outlines.get(l.id) as Position[][], footprint.plume, params, l.s);
+          worstById.set(l.id, worst);
+          if (worst) continue;
+        }
+        const at = frame && l.s !== null ? placedOutside(frame, l, l.s, l.s, near) : null;
+        if (at) placed.set(l.id, at);
       }
     }
-    // The distance to the path (geodesic, the dearest figure per lease) is read only where it is used: for the leases
-    // no worst point places (outside the plume, or no coast frame), as the window of their search and their reported
-    // offshore distance.
-    const needX = leases.rows.filter((l) => !worstById.get(l.id)).map((l) => l.id);
+    // The distance to the path (geodesic) is read only where the bounds did not decide the place.
+    const needX = leases.rows.filter((l) => !worstById.get(l.id) && !placed.has(l.id)).map((l) => l.id);
     const xById = new Map<string, number | null>();
     if (needX.length) {
       const dist = await db.execute<{ id: string; x: number | null }>(sql`
@@ -364,16 +495,21 @@ export function createScreeningService(deps: { db: Database }) {
          WHERE l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(needX)}::jsonb)::uuid)`);
       for (const r of dist.rows) xById.set(r.id, r.x);
     }
-    for (const l of leases.rows) l.x = xById.get(l.id) ?? null;
+    for (const l of leases.rows) if (!placed.has(l.id)) l.x = xById.get(l.id) ?? null;
+    const outsideScores = new Map<string, ReturnType<typeof scoreLease>>();
     const rows = leases.rows.map((l) => {
       const fractionsOfLease = byLease.get(l.id) ?? {};
       const { tolerance, known } = speciesOf(l.species);
       const inPlume = (fractionsOfLease['plume-edge'] ?? 0) > 0;
       const worst = worstById.get(l.id) ?? null;
       const field = worst ? worst.field : null;
+      const outside = placed.get(l.id);
       if (worst) {
         l.s = worst.at.s;
         l.x = worst.at.x;
+      } else if (outside) {
+        l.s = outside.s;
+        l.x = outside.x;
       } else if (frame && l.s !== null) {
         // Outside the plume: the lease's own place (a point on it), never "at the mouth".
         const at = coastPosition(frame, [l.lon, l.lat], { s: Math.max(0, l.s), window: 2 * (l.x ?? 0) + 2000 });
@@ -393,7 +529,13 @@ export function createScreeningService(deps: { db: Database }) {
         : Math.min(highestIndicator, INDICATOR_STANDARD);
       const below = daysBelowTolerance(inPlume ? lowestSalinity : null, days, tolerance);
       const speciesBand = salinityBandId(tolerance.chronicLowerSalinity);
-      const score = scoreLease({
+      // Outside the plume a score depends on the species and the fractions alone (no salinity, no indicator): one
+      // scoreLease per distinct input, most of a run's leases sharing one.
+      const memoKey = inPlume
+        ? null
+        : `${l.species}|${fractionsOfLease['plume-edge'] ?? 0}|${fractionsOfLease[speciesBand] ?? 0}|${fractionsOfLease['indicator-over-standard'] ?? 0}`;
+      const memo = memoKey === null ? undefined : outsideScores.get(memoKey);
+      const score = memo ?? scoreLease({
         tolerance,
         scenario: { aep: scenario.aep, discharge: scenario.discharge, floodDurationDays: days, name: scenario.name },
         bandFractions: {
@@ -406,6 +548,7 @@ export function createScreeningService(deps: { db: Database }) {
         daysBelowTolerance: below,
         indicatorThreshold: INDICATOR_STANDARD,
       });
+      if (memoKey !== null && !memo) outsideScores.set(memoKey, score);
       const reasons = [...score.reasons];
       if (!known)
         reasons.push(
@@ -426,11 +569,13 @@ export function createScreeningService(deps: { db: Database }) {
     const inputHash = createHash('sha256').update(`${footprint.id}:${MODEL_VERSION}`).digest('hex');
     const CHUNK = 1000;
     for (let i = 0; i < rows.length; i += CHUNK) {
+      // Each row's JSON values are taken out of the chunk's one jsonb as they are (r->'numbers'), not through a
+      // record type whose jsonb columns PostgreSQL would print and parse again.
       await db.execute(sql`
         INSERT INTO screenings (lease_id, scenario_id, footprint_id, river_id, band_fractions, lowest_salinity, highest_indicator, days_below_tolerance, rating, score, reasons, numbers, model_version, input_hash, computed_at)
-        SELECT r.lease, ${scenario.id}::uuid, ${footprint.id}::uuid, ${river.id}::uuid, r.fractions, r.lowest, r.highest, r.days, r.rating, r.score, r.reasons, r.numbers, ${MODEL_VERSION}, ${inputHash}, now()
-          FROM jsonb_to_recordset(${JSON.stringify(rows.slice(i, i + CHUNK))}::jsonb)
-               AS r(lease uuid, fractions jsonb, lowest double precision, highest double precision, days double precision, rating text, score double precision, reasons jsonb, numbers jsonb)
+        SELECT (r->>'lease')::uuid, ${scenario.id}::uuid, ${footprint.id}::uuid, ${river.id}::uuid, r->'fractions', (r->>'lowest')::float8, (r->>'highest')::float8,
+               (r->>'days')::float8, r->>'rating', (r->>'score')::float8, r->'reasons', r->'numbers', ${MODEL_VERSION}, ${inputHash}, now()
+          FROM jsonb_array_elements(${JSON.stringify(rows.slice(i, i + CHUNK))}::jsonb) AS r
         ON CONFLICT (lease_id, scenario_id) DO UPDATE SET footprint_id = EXCLUDED.footprint_id, band_fractions = EXCLUDED.band_fractions,
           lowest_salinity = EXCLUDED.lowest_salinity, highest_indicator = EXCLUDED.highest_indicator, days_below_tolerance = EXCLUDED.days_below_tolerance,
           rating = EXCLUDED.rating, score = EXCLUDED.score, reasons = EXCLUDED.reasons, numbers = EXCLUDED.numbers, model_version = EXCLUDED.model_version,
@@ -459,6 +604,7 @@ export function createScreeningService(deps: { db: Database }) {
         FROM screenings s JOIN scenarios sc ON sc.id = s.scenario_id JOIN leases l ON l.id = s.lease_id
        WHERE s.river_id = ${river.id}::uuid AND sc.kind = 'aep' ${leaseFilter}
        GROUP BY s.lease_id, l.species`);
+    const annual: { lease: string; expected: number; probability: number; worst: string; closure: number; harmful: number; details: unknown }[] = [];
     for (const row of res.rows) {
       const points = row.points.filter((p) => p.aep > 0 && p.aep < 1);
       if (!points.length) continue;
@@ -494,11 +640,25 @@ export function createScreeningService(deps: { db: Database }) {
         (w, p) => (RATING_ORDER.indexOf(p.rating as never) > RATING_ORDER.indexOf(w as never) ? p.rating : w),
         'low',
       );
+      annual.push({
+        lease: row.lease_id,
+        expected: result.expectedDaysPerYear,
+        probability: result.probabilityOfAnyExposure,
+        worst,
+        closure: indicator.expectedDaysPerYear,
+        harmful: harmful.probabilityOfAnyExposure,
+        details: result,
+      });
+    }
+    // 1 000 rows a statement instead of one statement per lease.
+    const CHUNK = 1000;
+    for (let i = 0; i < annual.length; i += CHUNK) {
       await db.execute(sql`
         INSERT INTO lease_annual_exposure (lease_id, river_id, expected_days_per_year, probability_any_exposure, worst_rating,
                                            closure_days_per_year, harmful_salinity_chance, details, computed_at)
-        VALUES (${row.lease_id}::uuid, ${river.id}::uuid, ${result.expectedDaysPerYear}, ${result.probabilityOfAnyExposure}, ${worst},
-                ${indicator.expectedDaysPerYear}, ${harmful.probabilityOfAnyExposure}, ${JSON.stringify(result)}::jsonb, now())
+        SELECT (r->>'lease')::uuid, ${river.id}::uuid, (r->>'expected')::float8, (r->>'probability')::float8, r->>'worst',
+               (r->>'closure')::float8, (r->>'harmful')::float8, r->'details', now()
+          FROM jsonb_array_elements(${JSON.stringify(annual.slice(i, i + CHUNK))}::jsonb) AS r
         ON CONFLICT (lease_id, river_id) DO UPDATE SET expected_days_per_year = EXCLUDED.expected_days_per_year,
           probability_any_exposure = EXCLUDED.probability_any_exposure, worst_rating = EXCLUDED.worst_rating,
           closure_days_per_year = EXCLUDED.closure_days_per_year, harmful_salinity_chance = EXCLUDED.harmful_salinity_chance,
@@ -577,8 +737,30 @@ export function createScreeningService(deps: { db: Database }) {
   async function screenLeases(river: RiverInputs, plan: ScreeningPlanItem[], leaseIds?: string[]) {
     // Only the leases this river reaches (given ones may lie beyond it); screenFootprint takes them as the scope.
     const paired = await scopedLeaseIds(river, leaseIds);
+    // Two footprints at a time: on a two-core machine one PostgreSQL backend works on one footprint's queries while
+    // the other footprint's rows are computed in Node or written. Each footprint's rows are its own (lease, scenario).
+    // The leases are read once for every footprint of the plan, and what depends on a footprint's path alone is kept
+    // for the others on the same path.
+    const cache: RunCache = {
+      leases: readLeases(sql`l.id IN (SELECT jsonb_array_elements_text(${JSON.stringify(paired)}::jsonb)::uuid)`),
+      hints: new Map(),
+      near: new Map(),
+    };
+    cache.leases.catch(() => undefined);
     let screened = 0;
-    for (const item of plan) screened += await screenFootprint(river, item.footprint, item.scenario, paired);
+    const queue = [...plan];
+    let failed: unknown = null;
+    const worker = async () => {
+      for (let item = queue.shift(); item && !failed; item = queue.shift()) {
+        try {
+          screened += await screenFootprint(river, item.footprint, item.scenario, paired, cache);
+        } catch (err) {
+          failed ??= err;
+        }
+      }
+    };
+    await Promise.all([worker(), worker()]);
+    if (failed) throw failed;
     await annualise(river, paired);
 
     return screened;

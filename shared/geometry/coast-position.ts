@@ -176,6 +176,51 @@ export function outlinePositions(
   spacing: number,
   hint?: number,
 ): { s: number; x: number }[] {
+  const outline = outlinePoints(frame, rings, spacing);
+  if (!outline) return [];
+  const window = hint === undefined || !Number.isFinite(hint) ? undefined : { s: Math.max(0, hint), window: 2 * outline.span + 2000 };
+  return outline.points.map((p) => coastPositionOf(frame, p, window));
+}
+
+/**
+ * {@link outlinePositions} with its hint known only within [hintLow, hintHigh]: the same positions when every
+ * point's nearest segment is the same for every hint in the range ({@link coastPositionWithin}), else null.
+ *
+ * @param frame - from {@link coastFrame}
+ * @param rings - polygon rings [lon, lat]
+ * @param spacing - largest gap between points [m], > 0
+ * @param hintLow - smallest possible arc [m] of the polygon's nearest point on the path
+ * @param hintHigh - largest possible arc [m], ≥ hintLow
+ * @returns [{ s, x }] as outlinePositions(frame, rings, spacing, hint) for every hint in the range, or null
+ * @example
+ * outlinePositionsWithin(frame, lease.coordinates, 30, 5790, 5810)?.length; // => about 41 for a 300 m square
+ * Source: (c) derived.
+ */
+export function outlinePositionsWithin(
+  frame: CoastFrame,
+  rings: readonly (readonly Position[])[],
+  spacing: number,
+  hintLow: number,
+  hintHigh: number,
+): { s: number; x: number }[] | null {
+  const outline = outlinePoints(frame, rings, spacing);
+  if (!outline) return [];
+  const w = 2 * outline.span + 2000;
+  const out: { s: number; x: number }[] = [];
+  for (const p of outline.points) {
+    const at = coastPositionWithin(frame, p, Math.max(0, hintLow), Math.max(0, hintHigh), w, w);
+    if (!at) return null;
+    out.push(at);
+  }
+  return out;
+}
+
+/** @private The outline's points (every `spacing` m, then the vertex centroid) in the frame's metres, and its span. */
+function outlinePoints(
+  frame: CoastFrame,
+  rings: readonly (readonly Position[])[],
+  spacing: number,
+): { points: PlanarPoint[]; span: number } | null {
   const pts: PlanarPoint[] = [];
   let cx = 0;
   let cy = 0;
@@ -204,9 +249,85 @@ export function outlinePositions(
       maxY = Math.max(maxY, a[1]);
     }
   }
-  if (n === 0) return [];
+  if (n === 0) return null;
   pts.push([cx / n, cy / n]);
   const span = Math.hypot(maxX - minX, maxY - minY);
-  const window = hint === undefined || !Number.isFinite(hint) ? undefined : { s: Math.max(0, hint), window: 2 * span + 2000 };
-  return pts.map((p) => coastPositionOf(frame, p, window));
+  return { points: pts, span };
+}
+
+/**
+ * {@link coastPosition} of a point whose search window is known only within bounds: the window's centre is in
+ * [sLow, sHigh] and its half-width in [windowLow, windowHigh]. The nearest segment found in the widest window is the
+ * answer of every window between the two when it lies inside the narrowest one (the same segment, the same
+ * arithmetic, so the same figures as {@link coastPosition} with the exact window); otherwise the bounds do not decide
+ * it and the result is null (the caller asks for the exact window).
+ *
+ * @param frame - from {@link coastFrame}
+ * @param p - the point in the frame's metres
+ * @param sLow - smallest possible centre of the window [m] (the hint's s)
+ * @param sHigh - largest possible centre [m], ≥ sLow
+ * @param windowLow - smallest possible half-width [m]
+ * @param windowHigh - largest possible half-width [m], ≥ windowLow
+ * @returns { s, x } as coastPositionOf(frame, p, { s, window }) for every centre and window in the ranges, or null
+ * @example
+ * coastPositionWithin(frame, [-500, -6000], 6000, 6000, 2000, 2100); // => { s: 6000, x: 500 }
+ * Source: (c) derived (the search of {@link coastPositionOf} is monotone in its window).
+ */
+export function coastPositionWithin(
+  frame: CoastFrame,
+  p: PlanarPoint,
+  sLow: number,
+  sHigh: number,
+  windowLow: number,
+  windowHigh: number,
+): { s: number; x: number } | null {
+  const along = p[0] * frame.downCoast[0] + p[1] * frame.downCoast[1];
+  const out = p[0] * frame.seaward[0] + p[1] * frame.seaward[1];
+  if (frame.radial) return { s: along, x: Math.max(0, out) };
+  const { path, arc } = frame;
+  if (path.length === 1) return coastPositionOf(frame, p);
+  if (!Number.isFinite(sLow) || !(sHigh >= sLow) || !(windowLow >= 0) || !(windowHigh >= windowLow)) return null;
+  const range = (from: number, to: number): [number, number] => [
+    Math.max(0, upperBound(arc, from) - 1),
+    Math.min(path.length - 2, upperBound(arc, to)),
+  ];
+  const [loIn, hiIn] = range(sHigh - windowLow, sLow + windowLow);
+  const [lo, hi] = range(sLow - windowHigh, sHigh + windowHigh);
+  // The loop of nearestOnPath, over the widest window, remembering which segment won.
+  let bestD2 = Number.POSITIVE_INFINITY;
+  let bestS = 0;
+  let best = -1;
+  for (let i = lo; i <= hi; i += 1) {
+    const a = path[i];
+    const b = path[i + 1];
+    const dx = b[0] - a[0];
+    const dy = b[1] - a[1];
+    const len2 = dx * dx + dy * dy;
+    const t = len2 > 0 ? Math.min(1, Math.max(0, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2)) : 0;
+    const qx = a[0] + t * dx - p[0];
+    const qy = a[1] + t * dy - p[1];
+    const d2 = qx * qx + qy * qy;
+    if (d2 < bestD2) {
+      bestD2 = d2;
+      bestS = arc[i] + t * (arc[i + 1] - arc[i]);
+      best = i;
+    }
+  }
+  if (best < loIn || best > hiIn) return null;
+  if (bestS <= 1e-6 && along < 0) return { s: along, x: Math.max(0, out) };
+  return { s: bestS, x: Math.sqrt(bestD2) };
+}
+
+/**
+ * Distance [m] from a point in the frame's metres to the nearest point of the whole walked coast.
+ *
+ * @param frame - from {@link coastFrame}
+ * @param p - the point in the frame's metres
+ * @returns the distance [m], ≥ 0
+ * @example
+ * distanceToPath(frame, [-500, -6000]); // => 500 on a north–south coast
+ * Source: (c) derived.
+ */
+export function distanceToPath(frame: CoastFrame, p: PlanarPoint): number {
+  return nearestOnPath(frame, p).x;
 }
