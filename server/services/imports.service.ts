@@ -9,7 +9,7 @@ import type { Feature, Geometry } from 'geojson';
 import { checkCoordinates } from '#shared/geometry/check-coordinates';
 import { type CrsCatalogue, crsDefinition, identifyCrs } from '#shared/geometry/crs-catalogue';
 import { guessAttributeMapping, normaliseStatus } from '#shared/geometry/guess-attribute-mapping';
-import { loadCrsCatalogue } from '#shared/geometry/load-crs-catalogue';
+import { loadCrsCatalogue } from '../lib/crs-catalogue';
 import { type LayerSummary, type ParsedUpload, readUpload, type UploadKind, type UploadLimits } from '#shared/geometry/read-upload';
 import { reprojectLayer } from '#shared/geometry/reproject';
 import { isUploadError } from '#shared/geometry/upload-error';
