@@ -226,6 +226,17 @@ export function createImportsService(deps: {
         `Your role (${user.role}) cannot upload ${kind === 'zone' ? 'closure zones' : `${kind}s`}. It is for: ${UPLOAD_ROLES[kind].join(', ')}.`,
       );
     }
+    // The parsed features are reachable only inside readAndStage: they can be collected before the preview
+    // (every staged feature's summary, read back from PostGIS) is built.
+    return describe(await readAndStage(user, kind, file, choices));
+  }
+
+  async function readAndStage(
+    user: CurrentUser,
+    kind: UploadKind,
+    file: { buffer: Buffer; originalname: string },
+    choices: { layer?: string; tracksAsPolygons?: boolean },
+  ): Promise<string> {
     const parsed = await read(
       new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength),
       file.originalname,
@@ -245,7 +256,7 @@ export function createImportsService(deps: {
       tracksAsPolygons: choices.tracksAsPolygons ?? false,
     };
     const sha = createHash('sha256').update(file.buffer).digest('hex');
-    const id = await db.transaction(async (tx) => {
+    return db.transaction(async (tx) => {
       const inserted = await tx.execute<{ id: string }>(sql`
         INSERT INTO imports (kind, owner_id, jurisdiction_id, file_name, file_sha256, file_bytes, status, crs, parsed_source, summary)
         VALUES (${kind}, ${user.id}, ${user.jurisdictionId}::uuid, ${file.originalname}, ${sha}, ${file.buffer},
@@ -268,7 +279,6 @@ export function createImportsService(deps: {
       }
       return importId;
     });
-    return describe(id);
   }
 
   async function setCrs(user: CurrentUser, id: string, epsg: number) {
