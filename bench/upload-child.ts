@@ -1,19 +1,19 @@
 /**
- * One upload case of bench/upload-bench.ts in its own process: generates the file, uploads and confirms it
- * through the imports service `runs` times, and prints one JSON line with the times and the process's peak RSS
- * (getrusage maxrss, which counts every byte the process held at its worst moment).
+ * One upload case of bench/upload-bench.ts in its own process: reads the file the parent generated, uploads and
+ * confirms it through the imports service `runs` times, and prints one JSON line with the times and the process's
+ * peak RSS (getrusage maxrss, which counts every byte the process held at its worst moment).
  */
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
 import { sql } from 'drizzle-orm';
 import { createDb } from '../server/db/client';
 import { users } from '../server/db/schema';
 import { seedDemo } from '../server/db/seed';
 import type { CurrentUser } from '../server/http/route';
 import { createImportsService } from '../server/services/imports.service';
-import { generateLeaseGeoJson, generateLeaseShapefile } from './upload-fixtures';
 
 async function main() {
-  const [kind, countText, runsText] = process.argv.slice(2);
-  const count = Number(countText);
+  const [filePath, runsText] = process.argv.slice(2);
   const runs = Number(runsText ?? 1);
   const handle = createDb(process.env.DATABASE_URL!, 4);
   await seedDemo(handle.db);
@@ -29,8 +29,9 @@ async function main() {
   const imports = createImportsService({ db: handle.db });
   // What the process holds before any file exists (Node, tsx, the modules, a pool): the upload's own share is the rest.
   const startRssMb = (process.resourceUsage().maxRSS * 1024) / 1e6;
-  const file = kind === 'shapefile' ? await generateLeaseShapefile(count) : generateLeaseGeoJson(count);
-  const name = kind === 'shapefile' ? 'bench-leases.zip' : 'bench-leases.geojson';
+  // The bytes as the server holds an upload (multer's memory storage): one Buffer.
+  const file = readFileSync(filePath);
+  const name = path.basename(filePath);
   const uploadMs: number[] = [];
   const confirmMs: number[] = [];
   let stored = 0;

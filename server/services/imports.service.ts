@@ -6,19 +6,19 @@
 import { createHash } from 'node:crypto';
 import { sql } from 'drizzle-orm';
 import type { Feature, Geometry } from 'geojson';
-import { checkCoordinates } from '#shared/geometry/check-coordinates';
+import { coordinateCheck } from '#shared/geometry/check-coordinates';
 import { type CrsCatalogue, crsDefinition, identifyCrs } from '#shared/geometry/crs-catalogue';
 import { guessAttributeMapping, normaliseStatus } from '#shared/geometry/guess-attribute-mapping';
-import { loadCrsCatalogue } from '#shared/geometry/load-crs-catalogue';
+import { loadCrsCatalogue } from '../lib/crs-catalogue';
 import { type LayerSummary, type ParsedUpload, readUpload, type UploadKind, type UploadLimits } from '#shared/geometry/read-upload';
-import { reprojectLayer } from '#shared/geometry/reproject';
+import { layerReprojector } from '#shared/geometry/reproject';
 import { isUploadError } from '#shared/geometry/upload-error';
 import type { Database } from '../db/client';
 import {
   findEmptyAfterRepair,
+  finishImportFeatures,
   flagOnLand,
-  insertImportFeatures,
-  type StagedFeature,
+  insertImportFeatureRows,
   summariseImportFeatures,
 } from '../db/repositories/import-features.repo';
 import type { CurrentUser } from '../http/route';
@@ -72,6 +72,9 @@ function fieldsOf(parsed: ParsedUpload): string[] {
   return [...new Set(parsed.layers.flatMap((l) => l.fields))];
 }
 
+/** Features reprojected, checked and stored at a time: bounds the memory staging takes (see stage). */
+const STAGE_CHUNK = 2_000;
+
 export function createImportsService(deps: {
   db: Database;
   limits?: Partial<UploadLimits>;
@@ -92,29 +95,59 @@ export function createImportsService(deps: {
     return row;
   }
 
-  /** Reprojects, checks and stages every feature; throws (and the transaction rolls back) on a hard problem. */
+  /**
+   * Reprojects, checks and stages every feature; throws (and the transaction rolls back) on a hard problem.
+   * A layer goes through in chunks of {@link STAGE_CHUNK} features (reproject, check, insert, drop), so the
+   * memory this takes does not grow with the file; the coordinate checks judge the whole layer all the same
+   * (coordinateCheck accumulates across chunks and decides after the last one). The errors come in the order
+   * they did when each step ran over the whole layer: a position the CRS cannot convert anywhere in a layer
+   * before that layer's coordinate verdict, and layer by layer.
+   */
   async function stage(
     tx: Parameters<Parameters<Database['transaction']>[0]>[0],
     row: Pick<ImportRow, 'id' | 'kind' | 'owner_id' | 'jurisdiction_id'>,
     parsed: ParsedUpload,
     choice?: { epsg: number },
   ) {
-    const staged: StagedFeature[] = [];
     const warnings: string[] = [];
+    await tx.execute(sql`DELETE FROM import_features WHERE import_id = ${row.id}::uuid`);
     let index = 0;
     for (const layer of parsed.layers) {
-      let features: Feature<Geometry>[];
+      const source = choice ? { epsg: choice.epsg } : { wkt: layer.crs.wkt, epsg: layer.crs.epsg };
+      const check = coordinateCheck({ layerName: parsed.layers.length > 1 ? layer.name : undefined });
+      let reproject: ReturnType<typeof layerReprojector>;
       try {
-        const source = choice ? { epsg: choice.epsg } : { wkt: layer.crs.wkt, epsg: layer.crs.epsg };
-        features = reprojectLayer(layer, source, crsCatalogue());
-        warnings.push(...checkCoordinates(features, { layerName: parsed.layers.length > 1 ? layer.name : undefined }));
+        reproject = layerReprojector(layer.name, source, crsCatalogue());
       } catch (err) {
         toAppError(err);
       }
-      for (const feature of features) staged.push({ index: index++, layer: layer.name, feature });
+      for (let at = 0; at < layer.features.length; at += STAGE_CHUNK) {
+        let chunk: Feature<Geometry>[];
+        try {
+          chunk = reproject(layer.features.slice(at, at + STAGE_CHUNK), at);
+        } catch (err) {
+          toAppError(err);
+        }
+        check.add(chunk, at);
+        // Once a position is out of range the layer is refused at its verdict: store nothing more of it.
+        if (!check.failing) {
+          const first = index + at;
+          await insertImportFeatureRows(
+            tx,
+            row.id,
+            row.kind,
+            chunk.map((feature, k) => ({ index: first + k, layer: layer.name, feature })),
+          );
+        }
+      }
+      try {
+        warnings.push(...check.finish());
+      } catch (err) {
+        toAppError(err);
+      }
+      index += layer.features.length;
     }
-    await tx.execute(sql`DELETE FROM import_features WHERE import_id = ${row.id}::uuid`);
-    await insertImportFeatures(tx, row.id, row.kind, staged);
+    await finishImportFeatures(tx, row.id);
     const empty = await findEmptyAfterRepair(tx, row.id);
     if (empty.length) {
       throw new UnprocessableError(
@@ -193,6 +226,17 @@ export function createImportsService(deps: {
         `Your role (${user.role}) cannot upload ${kind === 'zone' ? 'closure zones' : `${kind}s`}. It is for: ${UPLOAD_ROLES[kind].join(', ')}.`,
       );
     }
+    // The parsed features are reachable only inside readAndStage: they can be collected before the preview
+    // (every staged feature's summary, read back from PostGIS) is built.
+    return describe(await readAndStage(user, kind, file, choices));
+  }
+
+  async function readAndStage(
+    user: CurrentUser,
+    kind: UploadKind,
+    file: { buffer: Buffer; originalname: string },
+    choices: { layer?: string; tracksAsPolygons?: boolean },
+  ): Promise<string> {
     const parsed = await read(
       new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength),
       file.originalname,
@@ -212,7 +256,7 @@ export function createImportsService(deps: {
       tracksAsPolygons: choices.tracksAsPolygons ?? false,
     };
     const sha = createHash('sha256').update(file.buffer).digest('hex');
-    const id = await db.transaction(async (tx) => {
+    return db.transaction(async (tx) => {
       const inserted = await tx.execute<{ id: string }>(sql`
         INSERT INTO imports (kind, owner_id, jurisdiction_id, file_name, file_sha256, file_bytes, status, crs, parsed_source, summary)
         VALUES (${kind}, ${user.id}, ${user.jurisdictionId}::uuid, ${file.originalname}, ${sha}, ${file.buffer},
@@ -235,7 +279,6 @@ export function createImportsService(deps: {
       }
       return importId;
     });
-    return describe(id);
   }
 
   async function setCrs(user: CurrentUser, id: string, epsg: number) {

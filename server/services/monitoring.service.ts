@@ -29,7 +29,7 @@ import {
   predictSample,
   settingsPatchFor,
 } from '#shared/calibration/river-calibration';
-import { loadCrsCatalogue } from '#shared/geometry/load-crs-catalogue';
+import { loadCrsCatalogue } from '../lib/crs-catalogue';
 import { readGeoPackage } from '#shared/geometry/read-geopackage';
 import { readKmlOrGpx } from '#shared/geometry/read-kml-gpx';
 import { detectFormat, isKmz } from '#shared/geometry/read-upload';

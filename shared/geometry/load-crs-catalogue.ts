@@ -1,7 +1,8 @@
 /**
  * @module shared/geometry/load-crs-catalogue
- * Loads the EPSG catalogue (epsg-index all.json, about 8 MB, 8 112 entries) for crs-catalogue.ts. Import
- * this module only on the server (or lazily), so the browser bundle does not carry the catalogue.
+ * Loads the EPSG catalogue (epsg-index all.json, about 8 MB, 8 112 entries) for crs-catalogue.ts, for tests
+ * and scripts. The server reads it with JSON.parse instead (server/lib/crs-catalogue.ts): this static JSON
+ * import costs about 100 MB more peak memory under tsx. Never import it from the browser.
  */
 import catalogueJson from 'epsg-index/all.json' with { type: 'json' };
 import type { CrsCatalogue } from './crs-catalogue';

@@ -125,6 +125,8 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits): Shapefi
       );
     }
     const dbf = readDbf(bytes.get(g.entries.dbf!.path)!, g.entries.dbf!.path, text(g.entries.cpg));
+    // The inflated table can be tens of MB (writers pad text columns to their full width): let it go before the shapes are built.
+    bytes.delete(g.entries.dbf!.path);
     warnings.push(...dbf.warnings);
     if (dbf.rows.length !== shp.records) {
       throw new UploadError(
@@ -135,6 +137,7 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits): Shapefi
       );
     }
     const geometries = parseCheckedShp(shp, shpLabel);
+    bytes.delete(g.entries.shp!.path);
     const features: Feature<Geometry | null>[] = geometries.map((geometry, k) => ({ type: 'Feature', properties: dbf.rows[k], geometry }));
     layers.push({ name, crs, fields: dbf.fields, features, encoding: dbf.encoding, shapeType: shp.shapeType });
   }

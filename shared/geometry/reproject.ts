@@ -42,22 +42,46 @@ export function reprojectLayer(
   source: CrsSource,
   catalogue?: CrsCatalogue,
 ): Feature<Geometry>[] {
-  const convert = toWgs84(source, catalogue, layer.name);
-  return layer.features.map((f, index) => {
-    try {
-      return { ...f, geometry: mapGeometry(f.geometry, convert) };
-    } catch (e) {
-      if (e instanceof OutOfDomain) {
-        throw new UploadError(
-          'coordinates_out_of_range',
-          `Feature ${index} of layer “${layer.name}” has the position (${e.xy.join(', ')}), which ${describeSource(source)} cannot convert to longitude and latitude: ` +
-            'the coordinates do not belong to that coordinate system. Check the .prj (or the EPSG code you picked) and upload again.',
-          { layer: layer.name, index, position: e.xy },
-        );
+  return layerReprojector(layer.name, source, catalogue)(layer.features, 0);
+}
+
+/**
+ * A reprojector for one layer's features taken a slice at a time, so that a large layer can be converted,
+ * stored and dropped in bounded chunks instead of as a second whole copy. The CRS is resolved once.
+ *
+ * @param layerName - for messages.
+ * @param source - the source CRS (see {@link reprojectLayer}).
+ * @param catalogue - optional EPSG catalogue, for `source.epsg` alone.
+ * @returns (features, firstIndex) → new features in EPSG:4326; `firstIndex` is the layer index of `features[0]`,
+ *   so messages name the same feature as {@link reprojectLayer} on the whole layer.
+ * @throws UploadError crs_required (when built), coordinates_out_of_range (when called).
+ * @example
+ * const convert = layerReprojector('leases', { wkt: layer.crs.wkt });
+ * convert(layer.features.slice(2000, 4000), 2000)
+ */
+export function layerReprojector(
+  layerName: string,
+  source: CrsSource,
+  catalogue?: CrsCatalogue,
+): (features: readonly Feature<Geometry>[], firstIndex: number) => Feature<Geometry>[] {
+  const convert = toWgs84(source, catalogue, layerName);
+  return (features, firstIndex) =>
+    features.map((f, k) => {
+      try {
+        return { ...f, geometry: mapGeometry(f.geometry, convert) };
+      } catch (e) {
+        if (e instanceof OutOfDomain) {
+          const index = firstIndex + k;
+          throw new UploadError(
+            'coordinates_out_of_range',
+            `Feature ${index} of layer “${layerName}” has the position (${e.xy.join(', ')}), which ${describeSource(source)} cannot convert to longitude and latitude: ` +
+              'the coordinates do not belong to that coordinate system. Check the .prj (or the EPSG code you picked) and upload again.',
+            { layer: layerName, index, position: e.xy },
+          );
+        }
+        throw e;
       }
-      throw e;
-    }
-  });
+    });
 }
 
 /**

@@ -251,16 +251,25 @@ function storedEntry(data: Uint8Array, entry: ZipEntryInfo, budget: number, max:
  * is left of maxUncompressedBytes). An entry that ends within the budget but not at its declared size is damaged.
  */
 function inflateCapped(data: Uint8Array, entry: ZipEntryInfo, budget: number, max: number): Uint8Array {
+  // The output goes straight into one buffer of the declared size (within the budget), so an entry costs its own
+  // size once, not its chunks and then their concatenation. Only an entry that inflates past its declared size
+  // (damaged: refused below once its real size is known) falls back to collecting chunks.
+  let out: Uint8Array | null = new Uint8Array(Math.min(entry.declaredSize, budget));
   const chunks: Uint8Array[] = [];
   let total = 0;
   let overBudget = false;
   const inflater = new Inflate((chunk) => {
-    total += chunk.length;
-    if (total > budget) {
+    if (total + chunk.length > budget) {
       overBudget = true;
       throw new Error('inflate stopped: over budget');
     }
-    chunks.push(chunk);
+    if (out && total + chunk.length <= out.length) out.set(chunk, total);
+    else {
+      if (out) chunks.push(out.subarray(0, total));
+      out = null;
+      chunks.push(chunk.slice());
+    }
+    total += chunk.length;
   });
   try {
     if (data.length === 0) inflater.push(new Uint8Array(0), true);
@@ -274,18 +283,12 @@ function inflateCapped(data: Uint8Array, entry: ZipEntryInfo, budget: number, ma
       entry: entry.path,
     });
   }
-  if (total !== entry.declaredSize) {
+  if (total !== entry.declaredSize || !out) {
     throw new UploadError(
       'corrupt_zip',
       `The zip file is damaged: ${entry.path} unpacks to ${formatBytes(total)}, not the ${formatBytes(entry.declaredSize)} its table of contents declares. ${CORRUPT_ADVICE}`,
       { entry: entry.path, declaredBytes: entry.declaredSize, inflatedBytes: total },
     );
-  }
-  const out = new Uint8Array(total);
-  let o = 0;
-  for (const c of chunks) {
-    out.set(c, o);
-    o += c.length;
   }
   return out;
 }

@@ -20,29 +20,37 @@ function extractDimension(kind: 'lease' | 'coast' | 'zone', geometryType: string
   return geometryType.includes('Line') ? 2 : 3;
 }
 
-export async function insertImportFeatures(tx: Tx, importId: string, kind: 'lease' | 'coast' | 'zone', features: StagedFeature[]): Promise<void> {
-  const CHUNK = 2_000;
-  for (let start = 0; start < features.length; start += CHUNK) {
-    const rows = features.slice(start, start + CHUNK).map((f) => ({
-      idx: f.index,
-      layer: f.layer,
-      props: f.feature.properties ?? {},
-      geom: f.feature.geometry,
-      dim: extractDimension(kind, f.feature.geometry?.type ?? 'Polygon'),
-    }));
-    await tx.execute(sql`
-      INSERT INTO import_features (import_id, feature_index, layer, properties, geom, repaired, invalid_reason, area_m2)
-      SELECT ${importId}::uuid, f.idx, f.layer, f.props,
-             CASE WHEN v.ok THEN v.g ELSE ST_CollectionExtract(ST_MakeValid(v.g), f.dim) END,
-             NOT v.ok,
-             CASE WHEN v.ok THEN NULL ELSE ST_IsValidReason(v.g) END,
-             NULL
-      FROM jsonb_to_recordset(${JSON.stringify(rows)}::jsonb) AS f(idx int, layer text, props jsonb, geom jsonb, dim int)
-      CROSS JOIN LATERAL (SELECT g, ST_IsValid(g) AS ok
-                          FROM (SELECT ST_SetSRID(ST_Force2D(ST_GeomFromGeoJSON(f.geom::text)), 4326) AS g) s) v
-    `);
-  }
-  // Polygons become MultiPolygons; areas on the WGS84 ellipsoid (geography).
+/**
+ * Stores one chunk of reprojected features (the caller keeps chunks to about 2 000 features, so the JSON sent
+ * stays bounded): validity checked, invalid ones repaired. Call {@link finishImportFeatures} after the last.
+ */
+export async function insertImportFeatureRows(tx: Tx, importId: string, kind: 'lease' | 'coast' | 'zone', features: StagedFeature[]): Promise<void> {
+  if (features.length === 0) return;
+  const rows = features.map((f) => ({
+    idx: f.index,
+    layer: f.layer,
+    props: f.feature.properties ?? {},
+    geom: f.feature.geometry,
+    dim: extractDimension(kind, f.feature.geometry?.type ?? 'Polygon'),
+  }));
+  await tx.execute(sql`
+    INSERT INTO import_features (import_id, feature_index, layer, properties, geom, repaired, invalid_reason, area_m2)
+    SELECT ${importId}::uuid, f.idx, f.layer, f.props,
+           CASE WHEN v.ok THEN v.g ELSE ST_CollectionExtract(ST_MakeValid(v.g), f.dim) END,
+           NOT v.ok,
+           CASE WHEN v.ok THEN NULL ELSE ST_IsValidReason(v.g) END,
+           NULL
+    FROM jsonb_to_recordset(${JSON.stringify(rows)}::jsonb) AS f(idx int, layer text, props jsonb, geom jsonb, dim int)
+    CROSS JOIN LATERAL (SELECT g, ST_IsValid(g) AS ok
+                        FROM (SELECT ST_SetSRID(ST_Force2D(ST_GeomFromGeoJSON(f.geom::text)), 4326) AS g) s) v
+  `);
+}
+
+/**
+ * After the last chunk, once every coordinate check has passed (the geography cast below refuses positions
+ * outside ±180°/±90°): polygons become MultiPolygons; areas on the WGS84 ellipsoid (geography).
+ */
+export async function finishImportFeatures(tx: Tx, importId: string): Promise<void> {
   await tx.execute(sql`
     UPDATE import_features
        SET geom = ST_Multi(geom),

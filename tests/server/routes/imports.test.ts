@@ -202,6 +202,43 @@ describe('bad input leaves nothing behind', () => {
   });
 });
 
+describe('a file larger than one staging chunk (2 000 features)', () => {
+  // Small squares on a grid in the demo sea, so that 4 500 of them stage quickly.
+  const grid = (prefix: string, count: number) => ({
+    type: 'FeatureCollection' as const,
+    features: Array.from({ length: count }, (_, i) =>
+      rectangle(-38.75 + (i % 100) * 0.003, 41.15 + Math.floor(i / 100) * 0.003, 100, { LEASE_ID: `${prefix}-${i + 1}` }),
+    ),
+  });
+
+  it('stages every feature once, in file order, across the chunks', async () => {
+    const res = await upload(grower, geojsonBuffer(grid('CHK', 4500)), 'chunks.geojson').expect(201);
+    expect(res.body.featureCount).toBe(4500);
+    expect(res.body.features.map((f: { index: number }) => f.index)).toEqual(Array.from({ length: 4500 }, (_, i) => i));
+    expect(res.body.features[4499].properties).toEqual({ LEASE_ID: 'CHK-4500' });
+    const staged = await t.db.pool.query('select count(*)::int as n, count(distinct feature_index)::int as d from import_features where import_id = $1', [res.body.id]);
+    expect(staged.rows[0]).toEqual({ n: 4500, d: 4500 });
+  });
+
+  it('judges the coordinates of the whole file: a projected feature in the third chunk is refused with the same message, and nothing is kept', async () => {
+    const fc = grid('BAD', 4500);
+    // Metres of a projected system where degrees belong (RFC 7946 §4: longitude −180…180, latitude −90…90).
+    fc.features[4200].geometry.coordinates = [
+      [
+        [500000, 4500000],
+        [500100, 4500000],
+        [500100, 4500100],
+        [500000, 4500000],
+      ],
+    ];
+    const before = await counts();
+    const res = await upload(grower, geojsonBuffer(fc), 'bad-chunk.geojson').expect(422);
+    expect(res.body.error.code).toBe('coordinates_out_of_range');
+    expect(res.body.error.message).toMatch(/^Feature 4200 has the coordinate \(500000, 4500000\), outside longitude −180…180 and latitude −90…90 \(1 feature in all\)\. The numbers look like metres/);
+    expect(await counts()).toEqual(before);
+  });
+});
+
 describe('who may see and change leases', () => {
   let growerHeld: string;
   let growerCandidate: string;

@@ -1,6 +1,6 @@
 import type { Feature, Geometry } from 'geojson';
 import { describe, expect, it } from 'vitest';
-import { bboxOf, checkCoordinates } from '../../../shared/geometry/check-coordinates';
+import { bboxOf, checkCoordinates, coordinateCheck } from '../../../shared/geometry/check-coordinates';
 import type { UploadError } from '../../../shared/geometry/upload-error';
 
 const poly = (coords: number[][]): Feature<Geometry> => ({
@@ -152,5 +152,63 @@ describe('bboxOf', () => {
     ];
     expect(bboxOf(features)).toEqual([-1, 2, 5, 5]);
     expect(bboxOf([])).toBeNull();
+  });
+});
+
+describe('coordinateCheck (checkCoordinates a chunk at a time, as the server stages large layers)', () => {
+  // The reference is checkCoordinates on the whole layer (above, checked against RFC 7946 §4's ranges): chunked,
+  // every verdict, message and detail must be the same, including those that need layer-wide figures.
+  const chunked = (features: Feature<Geometry>[], size: number, options = {}) => {
+    const check = coordinateCheck(options);
+    for (let at = 0; at < features.length; at += size) check.add(features.slice(at, at + size), at);
+    return check;
+  };
+  const verdict = (fn: () => string[]) => {
+    try {
+      return { warnings: fn() };
+    } catch (e) {
+      const err = e as UploadError;
+      return { code: err.code, message: err.message, details: err.details };
+    }
+  };
+  const metres = poly([
+    [503684.7, 5269733],
+    [503700, 5269733],
+    [503700, 5269800],
+    [503684.7, 5269733],
+  ]);
+  const swapped = poly([
+    [47.58, -2.95],
+    [47.58, -2.94],
+    [47.59, -2.94],
+    [47.58, -2.95],
+  ]);
+  const swappedBeyond90 = poly([
+    [47.58, 120.5],
+    [47.58, 120.6],
+    [47.59, 120.6],
+    [47.58, 120.5],
+  ]);
+  const layers: [string, Feature<Geometry>[], object][] = [
+    ['all in range and in the region', [lease, lease, lease, lease, lease], { expectedBbox: FENNICK }],
+    ['projected metres in the fourth feature, counted over every chunk', [lease, lease, lease, metres, lease, metres, metres], { layerName: 'leases' }],
+    ['latitude and longitude swapped past 90° in a later chunk', [swapped, swapped, swapped, swapped, swappedBeyond90], {}],
+    ['swapped inside the region (a warning)', [swapped, swapped, lease, swapped, swapped], { expectedBbox: FENNICK }],
+    ['nothing in the expected region (a warning)', [swapped, swapped, swapped], { expectedBbox: [10, 10, 11, 11] }],
+  ];
+  for (const [what, features, options] of layers) {
+    it(`gives the whole-layer verdict in chunks of 1, 2 and 3: ${what}`, () => {
+      const whole = verdict(() => checkCoordinates(features, options));
+      for (const size of [1, 2, 3]) expect(verdict(() => chunked(features, size, options).finish())).toEqual(whole);
+    });
+  }
+
+  it('says it is failing from the first chunk with a position out of range', () => {
+    const check = coordinateCheck();
+    check.add([lease, lease], 0);
+    expect(check.failing).toBe(false);
+    check.add([metres], 2);
+    expect(check.failing).toBe(true);
+    expect(() => check.finish()).toThrow(/^Feature 2 has the coordinate \(503684\.7, 5269733\)/);
   });
 });

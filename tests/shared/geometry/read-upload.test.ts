@@ -406,6 +406,24 @@ describe('unzip-entries', () => {
     damaged[30 + 'a.txt'.length] ^= 0xff; // first data byte of the stored entry
     expect(() => inflateEntries(damaged, listZipEntries(damaged), DEFAULT_UPLOAD_LIMITS)).toThrow(/a\.txt fails its checksum/);
   });
+  it('refuses a deflated entry that unpacks to more or fewer bytes than its table of contents declares', () => {
+    // The declared size (APPNOTE.TXT §4.4.9, uncompressed size) must match what inflates: larger and smaller both mean damage.
+    const zip = zipSync({ 'b.txt': [enc('Saltreed Oysters'.repeat(50)), { level: 9 }] });
+    const [entry] = listZipEntries(zip);
+    for (const declaredSize of [500, 1200]) {
+      const e = (() => {
+        try {
+          inflateEntries(zip, [{ ...entry, declaredSize }], DEFAULT_UPLOAD_LIMITS);
+        } catch (err) {
+          return err as UploadError;
+        }
+        throw new Error('expected an UploadError');
+      })();
+      expect(e.code).toBe('corrupt_zip');
+      expect(e.message).toContain(`b.txt unpacks to ${formatBytes(800)}, not the ${formatBytes(declaredSize)} its table of contents declares`);
+      expect(e.details).toEqual({ entry: 'b.txt', declaredBytes: declaredSize, inflatedBytes: 800 });
+    }
+  });
   it('ignores folders, macOS resource forks and desktop files', () => {
     expect(['x/', '__MACOSX/a/._b.shp', 'a/._b.shp', 'a/.DS_Store', 'Thumbs.db', 'a/b.shp'].map(isIgnorableEntry)).toEqual([
       true,

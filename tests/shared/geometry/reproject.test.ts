@@ -2,7 +2,7 @@ import type { Feature, Polygon } from 'geojson';
 import { describe, expect, it } from 'vitest';
 import { crsDefinition, identifyCrs, searchCrs } from '../../../shared/geometry/crs-catalogue';
 import { loadCrsCatalogue } from '../../../shared/geometry/load-crs-catalogue';
-import { reprojectLayer, toWgs84 } from '../../../shared/geometry/reproject';
+import { layerReprojector, reprojectLayer, toWgs84 } from '../../../shared/geometry/reproject';
 import { UploadError } from '../../../shared/geometry/upload-error';
 
 const catalogue = loadCrsCatalogue();
@@ -85,6 +85,12 @@ describe('reprojectLayer', () => {
     const call = () => reprojectLayer({ name: 'leases', features: [square(500000, 5270000, 10), square(1e12, 0, 10)] }, { wkt: utm30nWkt });
     expect(call).toThrow(UploadError);
     expect(call).toThrow(/Feature 1 of layer “leases” has the position \(1000000000000, 0\), which the layer’s \.prj cannot convert/);
+  });
+  it('a chunk of a layer (layerReprojector) gives the same positions and names features by their index in the layer', () => {
+    const layer = { name: 'leases', features: [square(500000, 5270000, 10), square(500100, 5270100, 10), square(500200, 5270200, 10)] };
+    const convert = layerReprojector('leases', { wkt: utm30nWkt });
+    expect([...convert(layer.features.slice(0, 2), 0), ...convert(layer.features.slice(2), 2)]).toEqual(reprojectLayer(layer, { wkt: utm30nWkt }));
+    expect(() => convert([square(500000, 5270000, 10), square(1e12, 0, 10)], 4000)).toThrow(/^Feature 4001 of layer “leases” has the position \(1000000000000, 0\)/);
   });
 });
 
