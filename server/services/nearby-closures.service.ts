@@ -20,13 +20,17 @@ type Row = {
 };
 
 export async function nearbyClosures(db: Database, user: CurrentUser): Promise<NearbyClosureList> {
+  // The caller's leases first (index scans, a MATERIALIZED CTE), then the geodesic test against the few zones not
+  // open: written as one join, PostgreSQL scanned the whole leases table in parallel for every request (EXPLAIN:
+  // 113 ms against 0.3 ms on a table that had held 40 000 other leases).
   const rows = await db.execute<Row>(sql`
+    WITH visible AS MATERIALIZED (SELECT l.id, l.lease_code, l.geom FROM leases l WHERE ${visibleLeases(user)})
     SELECT z.id AS zone_id, z.name AS zone_name, z.status, z.status_since AS since, r.name AS river_name,
            l.id AS lease_id, l.lease_code, ST_Distance(z.geom::geography, l.geom::geography) AS distance_m
       FROM closure_zones z
       LEFT JOIN rivers r ON r.id = z.river_id
-      JOIN leases l ON ST_DWithin(z.geom::geography, l.geom::geography, ${NEARBY_CLOSURE_DISTANCE_M})
-     WHERE z.status <> 'open' AND ${visibleLeases(user)}
+      JOIN visible l ON ST_DWithin(z.geom::geography, l.geom::geography, ${NEARBY_CLOSURE_DISTANCE_M})
+     WHERE z.status <> 'open'
      ORDER BY z.status_since DESC, z.name, distance_m, l.lease_code`);
   const byZone = new Map<string, NearbyClosureList['items'][number]>();
   for (const r of rows.rows) {
