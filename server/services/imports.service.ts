@@ -10,7 +10,16 @@ import { coordinateCheck } from '#shared/geometry/check-coordinates';
 import { type CrsCatalogue, crsDefinition, identifyCrs } from '#shared/geometry/crs-catalogue';
 import { guessAttributeMapping, normaliseStatus } from '#shared/geometry/guess-attribute-mapping';
 import { loadCrsCatalogue } from '../lib/crs-catalogue';
-import { type LayerSummary, type ParsedUpload, readUpload, type UploadKind, type UploadLimits } from '#shared/geometry/read-upload';
+import {
+  type LayerSummary,
+  layerChunks,
+  layerFeatureCount,
+  layerGeometryTypes,
+  type ParsedUpload,
+  readUpload,
+  type UploadKind,
+  type UploadLimits,
+} from '#shared/geometry/read-upload';
 import { layerReprojector } from '#shared/geometry/reproject';
 import { isUploadError } from '#shared/geometry/upload-error';
 import type { Database } from '../db/client';
@@ -66,7 +75,7 @@ function toAppError(err: unknown): never {
 }
 
 function geometryTypesOf(parsed: ParsedUpload): string[] {
-  return [...new Set(parsed.layers.flatMap((l) => l.features.map((f) => f.geometry?.type ?? 'null')))].sort();
+  return [...new Set(parsed.layers.flatMap((l) => layerGeometryTypes(l)))].sort();
 }
 function fieldsOf(parsed: ParsedUpload): string[] {
   return [...new Set(parsed.layers.flatMap((l) => l.fields))];
@@ -121,10 +130,12 @@ export function createImportsService(deps: {
       } catch (err) {
         toAppError(err);
       }
-      for (let at = 0; at < layer.features.length; at += STAGE_CHUNK) {
+      let at = 0;
+      // A streamed shapefile layer builds each chunk's features here, from the file's bytes: they never all exist at once.
+      for (const source of layerChunks(layer, STAGE_CHUNK)) {
         let chunk: Feature<Geometry>[];
         try {
-          chunk = reproject(layer.features.slice(at, at + STAGE_CHUNK), at);
+          chunk = reproject(source, at);
         } catch (err) {
           toAppError(err);
         }
@@ -139,13 +150,14 @@ export function createImportsService(deps: {
             chunk.map((feature, k) => ({ index: first + k, layer: layer.name, feature })),
           );
         }
+        at += source.length;
       }
       try {
         warnings.push(...check.finish());
       } catch (err) {
         toAppError(err);
       }
-      index += layer.features.length;
+      index += layerFeatureCount(layer);
     }
     await finishImportFeatures(tx, row.id);
     const empty = await findEmptyAfterRepair(tx, row.id);
@@ -202,11 +214,13 @@ export function createImportsService(deps: {
     fileName: string,
     kind: UploadKind,
     choices: { layer?: string | null; tracksAsPolygons?: boolean },
+    stream = false,
   ) {
     try {
       return await readUpload(bytes, fileName, kind, deps.limits, {
         identifyEpsg: (wkt) => identifyCrs(crsCatalogue(), wkt),
         openSqlite,
+        ...(stream ? { stream: true } : {}),
         ...(choices.layer ? { layer: choices.layer } : {}),
         ...(choices.tracksAsPolygons ? { tracksAsPolygons: true } : {}),
       });
@@ -237,16 +251,14 @@ export function createImportsService(deps: {
     file: { buffer: Buffer; originalname: string },
     choices: { layer?: string; tracksAsPolygons?: boolean },
   ): Promise<string> {
-    const parsed = await read(
-      new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength),
-      file.originalname,
-      kind,
-      choices,
-    );
+    const bytes = new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength);
+    // Streamed (a shapefile's features built chunk by chunk while staging); a parse kept for a CRS choice is read whole.
+    let parsed = await read(bytes, file.originalname, kind, choices, true);
     const crsFound = parsed.layers.every((l) => l.crs.found);
+    if (!crsFound && parsed.layers.some((l) => l.stream)) parsed = await read(bytes, file.originalname, kind, choices);
     const firstCrs = parsed.layers[0].crs;
     const summary = {
-      featureCount: parsed.layers.reduce((n, l) => n + l.features.length, 0),
+      featureCount: parsed.layers.reduce((n, l) => n + layerFeatureCount(l), 0),
       geometryTypes: geometryTypesOf(parsed),
       fields: fieldsOf(parsed),
       warnings: [...parsed.warnings],

@@ -65,135 +65,190 @@ export function checkGeometries(
   kind: UploadKind,
   context: CheckGeometriesContext,
 ): CheckedGeometries {
+  const checker = geometryChecker(kind, context);
+  const out = checker.add(features, 0);
+  const verdict = checker.finish();
+  return { features: out, vertexCount: verdict.vertexCount, warnings: verdict.warnings };
+}
+
+/** The verdict of a {@link geometryChecker} on a whole layer. */
+export interface GeometryVerdict {
+  /** Positions in the layer after normalisation (closing positions included). */
+  vertexCount: number;
+  /** The layer's geometry types, sorted (all allowed for the kind once the verdict passed). */
+  geometryTypes: string[];
+  warnings: string[];
+}
+
+/** Judges a layer fed in consecutive chunks; see {@link geometryChecker}. */
+export interface GeometryChecker {
+  /**
+   * Takes the next chunk (features `offset`… of the layer, in order) and returns its normalised features
+   * while the layer can still pass (after a refusal is certain, fewer or none: the verdict throws anyway).
+   */
+  add(features: readonly Feature<Geometry | null>[], offset: number): Feature<KeptGeometry>[];
+  /** After the last chunk: throws the refusal {@link checkGeometries} gives for the whole layer, or returns the figures. */
+  finish(): GeometryVerdict;
+}
+
+/**
+ * The rules of {@link checkGeometries} applied to a layer read in chunks: the figures its messages need
+ * (features without geometry, the tally of types in order of first appearance, the running vertex count,
+ * the first bad coordinates and shapes, heights and closed rings) accumulate across chunks and the verdict
+ * comes after the last one, with the same precedence and the same messages as over the whole layer at once.
+ *
+ * @param kind - the upload kind.
+ * @param context - the layer's name and the running vertex count, as for checkGeometries.
+ * @example
+ * const c = geometryChecker('lease', ctx); c.add(chunk1, 0); c.add(chunk2, chunk1.length); c.finish().vertexCount
+ */
+export function geometryChecker(kind: UploadKind, context: CheckGeometriesContext): GeometryChecker {
   const inLayer = context.multiLayer ? ` in layer “${context.layerName}”` : '';
   const theFile = context.multiLayer ? `Layer “${context.layerName}”` : 'The file';
-  if (features.length === 0) {
-    throw new UploadError(
-      'no_features',
-      `${theFile} holds no features. Check that you exported the right layer (and not an empty selection), then upload again.`,
-      {
-        layer: context.layerName,
-      },
-    );
-  }
-
-  const empty: number[] = [];
-  features.forEach((f, i) => {
-    if (isEmptyGeometry(f.geometry)) empty.push(i);
-  });
-  if (empty.length > 0) {
-    throw new UploadError(
-      'null_geometry',
-      `${formatCount(empty.length)} of the ${formatCount(features.length)} features${inLayer} have no geometry (null or empty): feature${empty.length > 1 ? 's' : ''} ${listSome(empty, 12)} (counting from 0). ` +
-        'Every feature needs a boundary: delete those features or draw their shapes in your GIS, then upload again.',
-      { layer: context.layerName, indexes: empty.slice(0, 1000) },
-    );
-  }
-
   const allowed = ALLOWED_GEOMETRY_TYPES[kind];
+  let total = 0;
+  const empty: number[] = [];
   const byType = new Map<string, number[]>();
-  features.forEach((f, i) => {
-    const t = typeof f.geometry?.type === 'string' ? f.geometry.type : 'unknown';
-    const list = byType.get(t) ?? [];
-    list.push(i);
-    byType.set(t, list);
-  });
-  const bad = [...byType.entries()].filter(([t]) => !allowed.includes(t));
-  if (bad.length > 0) {
-    const counts = Object.fromEntries([...byType.entries()].map(([t, list]) => [t, list.length]));
-    const want = allowed.join(', ').replace(/, ([^,]*)$/, ' or $1');
-    const advice = adviceFor(
-      bad.map(([t]) => t),
-      kind,
-    );
-    if (bad.length === byType.size) {
-      const [type, list] = bad[0];
-      const also =
-        bad.length > 1
-          ? ` (the others: ${bad
-              .slice(1)
-              .map(([t, l]) => `${formatCount(l.length)} ${t}`)
-              .join(', ')})`
-          : '';
-      const share =
-        features.length === 1
-          ? 'it is the only feature'
-          : list.length === features.length
-            ? `all ${formatCount(features.length)} features are ${type}`
-            : `${formatCount(list.length)} of the ${formatCount(features.length)} features are ${type}${also}`;
-      throw new UploadError(
-        'wrong_geometry_type',
-        `Feature ${list[0]}${inLayer} is a ${type}, but ${KIND_LABEL[kind]} needs ${want} features; ${share}. ${advice}`,
-        { layer: context.layerName, counts, firstIndex: list[0] },
-      );
-    }
-    const tally = [...byType.entries()].map(([t, list]) => `${formatCount(list.length)} ${t}`).join(', ');
-    const badIndexes = bad.flatMap(([, list]) => list).sort((a, b) => a - b);
-    throw new UploadError(
-      'mixed_geometry_types',
-      `${theFile} mixes geometry types: ${tally}. ${capitalise(KIND_LABEL[kind])} takes only ${want}: remove the ${bad.map(([t]) => t).join(' and ')} features ` +
-        `(${listSome(badIndexes, 10)}, counting from 0) or upload them separately, then upload again.`,
-      { layer: context.layerName, counts, indexes: badIndexes.slice(0, 1000) },
-    );
-  }
-
+  // Once a feature without geometry or of a type the kind does not take is seen, the verdict is that refusal: stop walking.
+  let refusedByType = false;
+  let vertexLimitAt: number | undefined;
   const state: WalkState = { vertices: context.verticesBefore, threeD: false, closed: 0, limit: context.limits.maxVertices };
   const badCoordinates: string[] = [];
   const badCoordinateIndexes: number[] = [];
   const badShapes: string[] = [];
   const badShapeIndexes: number[] = [];
   let threeDFeatures = 0;
-  const out: Feature<KeptGeometry>[] = [];
-  features.forEach((f, i) => {
-    state.threeD = false;
-    try {
-      const geometry = normalise(f.geometry as KeptGeometry, state);
-      if (state.threeD) threeDFeatures += 1;
-      const feature: Feature<KeptGeometry> = { type: 'Feature', properties: f.properties ?? {}, geometry };
-      if (f.id !== undefined) feature.id = f.id;
-      out.push(feature);
-    } catch (e) {
-      if (e instanceof BadCoordinate) {
-        badCoordinateIndexes.push(i);
-        if (badCoordinates.length < 5) badCoordinates.push(`feature ${i} has ${e.what}`);
-      } else if (e instanceof BadShape) {
-        badShapeIndexes.push(i);
-        if (badShapes.length < 5) badShapes.push(`feature ${i} has ${e.what}`);
-      } else if (e instanceof VertexLimit) {
-        throw vertexLimitError(state.vertices, context.limits, false);
-      } else throw e;
-    }
-  });
-  if (badCoordinateIndexes.length > 0) {
-    throw new UploadError(
-      'invalid_coordinates',
-      `${formatCount(badCoordinateIndexes.length)} feature${badCoordinateIndexes.length > 1 ? 's' : ''}${inLayer} ${badCoordinateIndexes.length > 1 ? 'have' : 'has'} coordinates that are not plain finite numbers: ${badCoordinates.join('; ')}` +
-        `${badCoordinateIndexes.length > badCoordinates.length ? ' …' : ''}. Every coordinate must be a number (not text, null or NaN): fix those features in your GIS or editor and upload again.`,
-      { layer: context.layerName, indexes: badCoordinateIndexes.slice(0, 1000) },
-    );
-  }
-  if (badShapeIndexes.length > 0) {
-    throw new UploadError(
-      'invalid_geometry',
-      `${formatCount(badShapeIndexes.length)} feature${badShapeIndexes.length > 1 ? 's' : ''}${inLayer} cannot form a shape: ${badShapes.join('; ')}` +
-        `${badShapeIndexes.length > badShapes.length ? ' …' : ''}. A polygon ring needs at least 4 positions (3 corners and the closing one) and a line at least 2: ` +
-        'fix or delete those features and upload again.',
-      { layer: context.layerName, indexes: badShapeIndexes.slice(0, 1000) },
-    );
+
+  function add(features: readonly Feature<Geometry | null>[], offset: number): Feature<KeptGeometry>[] {
+    total += features.length;
+    const out: Feature<KeptGeometry>[] = [];
+    features.forEach((f, k) => {
+      const i = offset + k;
+      if (isEmptyGeometry(f.geometry)) {
+        empty.push(i);
+        refusedByType = true;
+        return;
+      }
+      const t = typeof f.geometry?.type === 'string' ? f.geometry.type : 'unknown';
+      const list = byType.get(t) ?? [];
+      list.push(i);
+      byType.set(t, list);
+      if (!allowed.includes(t)) refusedByType = true;
+      if (refusedByType || vertexLimitAt !== undefined) return;
+      state.threeD = false;
+      try {
+        const geometry = normalise(f.geometry as KeptGeometry, state);
+        if (state.threeD) threeDFeatures += 1;
+        const feature: Feature<KeptGeometry> = { type: 'Feature', properties: f.properties ?? {}, geometry };
+        if (f.id !== undefined) feature.id = f.id;
+        out.push(feature);
+      } catch (e) {
+        if (e instanceof BadCoordinate) {
+          badCoordinateIndexes.push(i);
+          if (badCoordinates.length < 5) badCoordinates.push(`feature ${i} has ${e.what}`);
+        } else if (e instanceof BadShape) {
+          badShapeIndexes.push(i);
+          if (badShapes.length < 5) badShapes.push(`feature ${i} has ${e.what}`);
+        } else if (e instanceof VertexLimit) {
+          vertexLimitAt = state.vertices;
+        } else throw e;
+      }
+    });
+    return out;
   }
 
-  const warnings: string[] = [];
-  if (threeDFeatures > 0) {
-    warnings.push(
-      `${formatCount(threeDFeatures)} feature${threeDFeatures > 1 ? 's' : ''}${inLayer} had a third coordinate (height); heights are not used here, so they were dropped.`,
-    );
+  function finish(): GeometryVerdict {
+    if (total === 0) {
+      throw new UploadError(
+        'no_features',
+        `${theFile} holds no features. Check that you exported the right layer (and not an empty selection), then upload again.`,
+        {
+          layer: context.layerName,
+        },
+      );
+    }
+    if (empty.length > 0) {
+      throw new UploadError(
+        'null_geometry',
+        `${formatCount(empty.length)} of the ${formatCount(total)} features${inLayer} have no geometry (null or empty): feature${empty.length > 1 ? 's' : ''} ${listSome(empty, 12)} (counting from 0). ` +
+          'Every feature needs a boundary: delete those features or draw their shapes in your GIS, then upload again.',
+        { layer: context.layerName, indexes: empty.slice(0, 1000) },
+      );
+    }
+
+    const bad = [...byType.entries()].filter(([t]) => !allowed.includes(t));
+    if (bad.length > 0) {
+      const counts = Object.fromEntries([...byType.entries()].map(([t, list]) => [t, list.length]));
+      const want = allowed.join(', ').replace(/, ([^,]*)$/, ' or $1');
+      const advice = adviceFor(
+        bad.map(([t]) => t),
+        kind,
+      );
+      if (bad.length === byType.size) {
+        const [type, list] = bad[0];
+        const also =
+          bad.length > 1
+            ? ` (the others: ${bad
+                .slice(1)
+                .map(([t, l]) => `${formatCount(l.length)} ${t}`)
+                .join(', ')})`
+            : '';
+        const share =
+          total === 1
+            ? 'it is the only feature'
+            : list.length === total
+              ? `all ${formatCount(total)} features are ${type}`
+              : `${formatCount(list.length)} of the ${formatCount(total)} features are ${type}${also}`;
+        throw new UploadError(
+          'wrong_geometry_type',
+          `Feature ${list[0]}${inLayer} is a ${type}, but ${KIND_LABEL[kind]} needs ${want} features; ${share}. ${advice}`,
+          { layer: context.layerName, counts, firstIndex: list[0] },
+        );
+      }
+      const tally = [...byType.entries()].map(([t, list]) => `${formatCount(list.length)} ${t}`).join(', ');
+      const badIndexes = bad.flatMap(([, list]) => list).sort((a, b) => a - b);
+      throw new UploadError(
+        'mixed_geometry_types',
+        `${theFile} mixes geometry types: ${tally}. ${capitalise(KIND_LABEL[kind])} takes only ${want}: remove the ${bad.map(([t]) => t).join(' and ')} features ` +
+          `(${listSome(badIndexes, 10)}, counting from 0) or upload them separately, then upload again.`,
+        { layer: context.layerName, counts, indexes: badIndexes.slice(0, 1000) },
+      );
+    }
+
+    if (vertexLimitAt !== undefined) throw vertexLimitError(vertexLimitAt, context.limits, false);
+    if (badCoordinateIndexes.length > 0) {
+      throw new UploadError(
+        'invalid_coordinates',
+        `${formatCount(badCoordinateIndexes.length)} feature${badCoordinateIndexes.length > 1 ? 's' : ''}${inLayer} ${badCoordinateIndexes.length > 1 ? 'have' : 'has'} coordinates that are not plain finite numbers: ${badCoordinates.join('; ')}` +
+          `${badCoordinateIndexes.length > badCoordinates.length ? ' …' : ''}. Every coordinate must be a number (not text, null or NaN): fix those features in your GIS or editor and upload again.`,
+        { layer: context.layerName, indexes: badCoordinateIndexes.slice(0, 1000) },
+      );
+    }
+    if (badShapeIndexes.length > 0) {
+      throw new UploadError(
+        'invalid_geometry',
+        `${formatCount(badShapeIndexes.length)} feature${badShapeIndexes.length > 1 ? 's' : ''}${inLayer} cannot form a shape: ${badShapes.join('; ')}` +
+          `${badShapeIndexes.length > badShapes.length ? ' …' : ''}. A polygon ring needs at least 4 positions (3 corners and the closing one) and a line at least 2: ` +
+          'fix or delete those features and upload again.',
+        { layer: context.layerName, indexes: badShapeIndexes.slice(0, 1000) },
+      );
+    }
+
+    const warnings: string[] = [];
+    if (threeDFeatures > 0) {
+      warnings.push(
+        `${formatCount(threeDFeatures)} feature${threeDFeatures > 1 ? 's' : ''}${inLayer} had a third coordinate (height); heights are not used here, so they were dropped.`,
+      );
+    }
+    if (state.closed > 0) {
+      warnings.push(
+        `${formatCount(state.closed)} polygon ring${state.closed > 1 ? 's' : ''}${inLayer} did not end where ${state.closed > 1 ? 'they' : 'it'} started; ${state.closed > 1 ? 'they were' : 'it was'} closed by repeating the first position.`,
+      );
+    }
+    return { vertexCount: state.vertices - context.verticesBefore, geometryTypes: [...byType.keys()].sort(), warnings };
   }
-  if (state.closed > 0) {
-    warnings.push(
-      `${formatCount(state.closed)} polygon ring${state.closed > 1 ? 's' : ''}${inLayer} did not end where ${state.closed > 1 ? 'they' : 'it'} started; ${state.closed > 1 ? 'they were' : 'it was'} closed by repeating the first position.`,
-    );
-  }
-  return { features: out, vertexCount: state.vertices - context.verticesBefore, warnings };
+
+  return { add, finish };
 }
 
 /** @private */

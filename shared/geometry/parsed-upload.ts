@@ -32,12 +32,61 @@ export interface ParsedLayer {
   crs: CrsInfo;
   /** Attribute names in file order (.dbf columns; GeoJSON property keys in order of first appearance). */
   fields: string[];
-  /** Features in the SOURCE CRS, 2-D, rings closed, properties JSON-safe. */
+  /** Features in the SOURCE CRS, 2-D, rings closed, properties JSON-safe. Empty when the layer is streamed (see `stream`). */
   features: Feature<Geometry>[];
+  /**
+   * A shapefile layer read with `stream` (readUpload's option): its features are not held but built again, checked and
+   * normalised, one chunk at a time. Not JSON: a parse that is stored (parsed_source) is read without `stream`.
+   */
+  stream?: StreamedFeatures;
   /** Text encoding used for the .dbf (a WHATWG label such as 'utf-8' or 'windows-1252'); absent for GeoJSON. */
   encoding?: string;
   /** Number of positions in the layer (closing positions included). */
   vertexCount: number;
+}
+
+/** The features of a streamed layer: their count and types, and the features themselves chunk by chunk. */
+export interface StreamedFeatures {
+  featureCount: number;
+  /** GeoJSON geometry types, sorted. */
+  geometryTypes: string[];
+  /** The features (as in `features`) in consecutive chunks of at most `size`; can be iterated more than once. */
+  chunks: (size: number) => Generator<Feature<Geometry>[]>;
+}
+
+/**
+ * Number of features of a layer, streamed or not.
+ *
+ * @example
+ * layerFeatureCount({ ...layer, features: [], stream: { featureCount: 3, … } }) // 3
+ */
+export function layerFeatureCount(layer: Pick<ParsedLayer, 'features' | 'stream'>): number {
+  return layer.stream ? layer.stream.featureCount : layer.features.length;
+}
+
+/**
+ * Sorted geometry types of a layer, streamed or not.
+ *
+ * @example
+ * layerGeometryTypes({ features: [polygonFeature] }) // ['Polygon']
+ */
+export function layerGeometryTypes(layer: Pick<ParsedLayer, 'features' | 'stream'>): string[] {
+  if (layer.stream) return layer.stream.geometryTypes;
+  return [...new Set(layer.features.map((f) => f.geometry?.type ?? 'null'))].sort();
+}
+
+/**
+ * A layer's features in consecutive chunks of at most `size` (slices of `features`, or the stream's chunks).
+ *
+ * @example
+ * for (const chunk of layerChunks(layer, 2000)) stageChunk(chunk)
+ */
+export function* layerChunks(layer: Pick<ParsedLayer, 'features' | 'stream'>, size: number): Generator<Feature<Geometry>[]> {
+  if (layer.stream) {
+    yield* layer.stream.chunks(size);
+    return;
+  }
+  for (let at = 0; at < layer.features.length; at += size) yield layer.features.slice(at, at + size);
 }
 
 /** The result of reading one uploaded file. */

@@ -46,6 +46,33 @@ const FIX_ADVICE = 'Export the layer again from your GIS and zip all of its file
  * readDbf(dbfBytes, 'leases.dbf', 'UTF-8').rows[0] // { LEASE_ID: 'FB-014', HOLDER: 'Saltreed Oysters' }
  */
 export function readDbf(bytes: Uint8Array, fileLabel: string, cpg?: string): DbfReading {
+  const table = openDbf(bytes, fileLabel, cpg);
+  return { fields: table.fields, rows: table.rows(0, table.records), encoding: table.encoding, warnings: table.warnings };
+}
+
+/** The result of {@link openDbf}: the checked header, and the rows decoded on demand. */
+export interface DbfTable {
+  fields: string[];
+  encoding: string;
+  warnings: string[];
+  /** Number of rows the header declares (all present: checked). */
+  records: number;
+  /** Decodes rows [from, to) (counting from 0), JSON-safe as in {@link DbfReading}. */
+  rows: (from: number, to: number) => Record<string, string | number | boolean | null>[];
+}
+
+/**
+ * Checks a .dbf's header, chooses its text encoding over the whole table, and returns a reader of row
+ * ranges, so a caller can hold the decoded rows of one range at a time (the streaming shapefile reader).
+ *
+ * @param bytes - the .dbf file (kept by the returned reader).
+ * @param fileLabel - how to name the file in messages.
+ * @param cpg - the .cpg text, when the zip has one.
+ * @throws UploadError corrupt_dbf as {@link readDbf}; the row reader throws it when rows do not decode.
+ * @example
+ * openDbf(dbfBytes, 'leases.dbf').rows(0, 2).length // 2
+ */
+export function openDbf(bytes: Uint8Array, fileLabel: string, cpg?: string): DbfTable {
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   if (bytes.length < 32) {
     throw new UploadError(
@@ -81,34 +108,35 @@ export function readDbf(bytes: Uint8Array, fileLabel: string, cpg?: string): Dbf
   const encoding = chooseEncoding(bytes, fields, headerLength, recordLength, records, fileLabel, cpg, warnings);
   const decoder = new TextDecoder(encoding);
   const names = fields.map((f) => decodeName(f.nameBytes, decoder));
-
-  // The library assumes the standard header length (32 × (fields + 1) + 1); rebuild the header when a writer padded it.
+  // The library assumes the standard header length (32 × (fields + 1) + 1): each range is given a rebuilt header of that length.
   const standard = 32 * (fields.length + 1) + 1;
-  let table = bytes;
-  if (headerLength !== standard) {
-    table = new Uint8Array(standard + (bytes.length - headerLength));
+
+  const rows = (from: number, to: number): Record<string, string | number | boolean | null>[] => {
+    const n = Math.max(0, Math.min(to, records) - from);
+    if (n === 0) return [];
+    const table = new Uint8Array(standard + n * recordLength);
     table.set(bytes.subarray(0, standard - 1), 0);
     table[standard - 1] = 0x0d;
-    table.set(bytes.subarray(headerLength), standard);
-    new DataView(table.buffer).setUint16(8, standard, true);
-  }
-
-  let raw: Record<string, unknown>[];
-  try {
-    raw = (
-      records === 0 ? [] : parseDbf(new DataView(table.buffer, table.byteOffset, table.byteLength) as never, encoding as never)
-    ) as Record<string, unknown>[];
-  } catch {
-    throw new UploadError('corrupt_dbf', `${fileLabel} cannot be read: its rows do not match its header. ${FIX_ADVICE}`, {
-      file: fileLabel,
+    const first = headerLength + from * recordLength;
+    table.set(bytes.subarray(first, first + n * recordLength), standard);
+    const view = new DataView(table.buffer);
+    view.setUint16(8, standard, true);
+    view.setUint32(4, n, true);
+    let raw: Record<string, unknown>[];
+    try {
+      raw = parseDbf(view as never, encoding as never) as Record<string, unknown>[];
+    } catch {
+      throw new UploadError('corrupt_dbf', `${fileLabel} cannot be read: its rows do not match its header. ${FIX_ADVICE}`, {
+        file: fileLabel,
+      });
+    }
+    return raw.map((row) => {
+      const out: Record<string, string | number | boolean | null> = {};
+      for (const [key, value] of Object.entries(row)) out[key] = jsonSafe(value);
+      return out;
     });
-  }
-  const rows = raw.map((row) => {
-    const out: Record<string, string | number | boolean | null> = {};
-    for (const [key, value] of Object.entries(row)) out[key] = jsonSafe(value);
-    return out;
-  });
-  return { fields: names, rows, encoding, warnings };
+  };
+  return { fields: names, encoding, warnings, records, rows };
 }
 
 /**

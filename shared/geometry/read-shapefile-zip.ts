@@ -7,9 +7,9 @@
  */
 import type { Feature, Geometry } from 'geojson';
 import type { CrsInfo } from './parsed-upload';
-import { readDbf } from './read-dbf';
+import { openDbf } from './read-dbf';
 import { readPrj } from './read-prj';
-import { checkShp, parseCheckedShp, type ShpCheck } from './read-shp';
+import { checkShp, parseShpRange, type ShpCheck } from './read-shp';
 import { inflateEntries, isIgnorableEntry, listZipEntries, type ZipEntryInfo } from './unzip-entries';
 import { UploadError } from './upload-error';
 import { featureLimitError, formatCount, listSome, type UploadLimits, vertexLimitError } from './upload-limits';
@@ -19,10 +19,18 @@ export interface ShapefileLayer {
   name: string;
   crs: CrsInfo;
   fields: string[];
+  /** Every feature; empty when read with `lazy` (then use `chunks`). */
   features: Feature<Geometry | null>[];
   encoding: string;
   /** ESRI shape type code of the .shp header. */
   shapeType: number;
+  /** Number of features (records). */
+  count: number;
+  /**
+   * With `lazy`: the features in consecutive chunks of at most `size`, each built from its .shp records and
+   * .dbf rows when asked for, so only one chunk's GeoJSON exists at a time. Can be iterated more than once.
+   */
+  chunks?: (size: number) => Generator<Feature<Geometry | null>[]>;
 }
 
 /** The result of {@link readShapefileZip}. */
@@ -44,6 +52,7 @@ const SIBLINGS = ['shp', 'shx', 'dbf', 'prj', 'cpg'] as const;
  *
  * @param zip - the zip file's bytes (starts with PK\x03\x04).
  * @param limits - all four limits apply (sizes while unzipping, counts before geometries are built).
+ * @param options - `lazy`: build no features now; each layer keeps its inflated .shp and .dbf and offers `chunks`.
  * @returns the layers, features in the source CRS (null geometries kept for the kind checks), and warnings.
  * @throws UploadError for a damaged zip, no .shp, a .shp without its .dbf, corrupt or truncated files,
  *   record counts that differ between .shp and .dbf, and the limits.
@@ -51,7 +60,7 @@ const SIBLINGS = ['shp', 'shx', 'dbf', 'prj', 'cpg'] as const;
  * const { layers } = readShapefileZip(zipBytes, DEFAULT_UPLOAD_LIMITS);
  * layers[0].name // 'leases'
  */
-export function readShapefileZip(zip: Uint8Array, limits: UploadLimits): ShapefileZipReading {
+export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?: { lazy?: boolean }): ShapefileZipReading {
   const all = listZipEntries(zip);
   const files = all.filter((e) => !isIgnorableEntry(e.path));
   const groups = new Map<string, LayerFiles>();
@@ -124,22 +133,34 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits): Shapefi
           'or zip the .prj with the other files and upload again.',
       );
     }
-    const dbf = readDbf(bytes.get(g.entries.dbf!.path)!, g.entries.dbf!.path, text(g.entries.cpg));
-    // The inflated table can be tens of MB (writers pad text columns to their full width): let it go before the shapes are built.
-    bytes.delete(g.entries.dbf!.path);
+    const dbf = openDbf(bytes.get(g.entries.dbf!.path)!, g.entries.dbf!.path, text(g.entries.cpg));
     warnings.push(...dbf.warnings);
-    if (dbf.rows.length !== shp.records) {
+    if (dbf.records !== shp.records) {
       throw new UploadError(
         'record_count_mismatch',
-        `${shpLabel} holds ${formatCount(shp.records)} shapes but ${g.entries.dbf!.path} holds ${formatCount(dbf.rows.length)} rows, so shapes and attributes cannot be paired. ` +
+        `${shpLabel} holds ${formatCount(shp.records)} shapes but ${g.entries.dbf!.path} holds ${formatCount(dbf.records)} rows, so shapes and attributes cannot be paired. ` +
           'The files come from different exports, or one was cut short: export the layer again and zip its files together.',
-        { layer: name, shapes: shp.records, rows: dbf.rows.length },
+        { layer: name, shapes: shp.records, rows: dbf.records },
       );
     }
-    const geometries = parseCheckedShp(shp, shpLabel);
+    const chunks = function* (size: number): Generator<Feature<Geometry | null>[]> {
+      for (let at = 0; at < shp.records; at += size) {
+        const to = Math.min(shp.records, at + size);
+        const rows = dbf.rows(at, to);
+        const geometries = parseShpRange(shp, at, to, shpLabel);
+        yield geometries.map((geometry, k) => ({ type: 'Feature', properties: rows[k], geometry }));
+      }
+    };
+    const layer = { name, crs, fields: dbf.fields, encoding: dbf.encoding, shapeType: shp.shapeType, count: shp.records };
+    if (options?.lazy) {
+      layers.push({ ...layer, features: [], chunks });
+      continue;
+    }
+    // Whole: the inflated table can be tens of MB (writers pad text columns to their full width); let the files go once read.
+    const features = [...chunks(Math.max(1, shp.records))].flat();
+    bytes.delete(g.entries.dbf!.path);
     bytes.delete(g.entries.shp!.path);
-    const features: Feature<Geometry | null>[] = geometries.map((geometry, k) => ({ type: 'Feature', properties: dbf.rows[k], geometry }));
-    layers.push({ name, crs, fields: dbf.fields, features, encoding: dbf.encoding, shapeType: shp.shapeType });
+    layers.push({ ...layer, features });
   }
   return { layers, warnings };
 }

@@ -29,6 +29,8 @@ export interface ShpCheck {
   body: Uint8Array;
   /** Notes for the user (extra bytes after the declared end). */
   warnings: string[];
+  /** Byte offset in `body` of each record's header, then the declared end (records + 1 entries): lets a range be decoded alone. */
+  offsets: Uint32Array;
 }
 
 const FILE_CODE = 9994;
@@ -120,6 +122,7 @@ export function checkShp(bytes: Uint8Array, fileLabel: string): ShpCheck {
   let p = 100;
   let records = 0;
   let vertices = 0;
+  const starts: number[] = [];
   const base = shapeType % 10; // 1 point, 3 polyline, 5 polygon, 8 multipoint (Z and M variants share the layout start)
   while (p < declared) {
     const n = records; // 0-based record index for messages
@@ -159,10 +162,12 @@ export function checkShp(bytes: Uint8Array, fileLabel: string): ShpCheck {
         vertices += points;
       }
     }
+    starts.push(p);
     records += 1;
     p = end;
   }
-  return { shapeType, records, vertices, body: bytes.subarray(0, declared), warnings };
+  starts.push(declared);
+  return { shapeType, records, vertices, body: bytes.subarray(0, declared), warnings, offsets: Uint32Array.from(starts) };
 }
 
 /**
@@ -176,17 +181,43 @@ export function checkShp(bytes: Uint8Array, fileLabel: string): ShpCheck {
  * parseCheckedShp(checkShp(bytes, 'leases.shp'), 'leases.shp')[0].type // 'Polygon'
  */
 export function parseCheckedShp(check: ShpCheck, fileLabel: string): (Geometry | null)[] {
+  return parseShpRange(check, 0, check.records, fileLabel);
+}
+
+/**
+ * Decodes the geometries of records [from, to) of a checked .shp: the 100-byte header and those records are
+ * copied into a small file of their own, so only that range's geometries exist at once (the streaming reader).
+ *
+ * @param check - the result of {@link checkShp}.
+ * @param from - first record (counting from 0).
+ * @param to - one past the last record (at most check.records).
+ * @param fileLabel - how to name the file in messages.
+ * @returns one geometry (or null) per record of the range.
+ * @throws UploadError corrupt_shp when decoding fails.
+ * @example
+ * parseShpRange(checkShp(bytes, 'leases.shp'), 2, 4, 'leases.shp').length // 2
+ */
+export function parseShpRange(check: ShpCheck, from: number, to: number, fileLabel: string): (Geometry | null)[] {
   let geometries: (Geometry | null)[];
+  const wanted = Math.max(0, to - from);
   try {
-    const body = check.body;
+    let body = check.body;
+    if (from > 0 || to < check.records) {
+      const a = check.offsets[from];
+      const b = check.offsets[to];
+      body = new Uint8Array(100 + (b - a));
+      body.set(check.body.subarray(0, 100), 0);
+      body.set(check.body.subarray(a, b), 100);
+      new DataView(body.buffer).setInt32(24, body.length / 2, false);
+    }
     geometries = parseShp(new DataView(body.buffer, body.byteOffset, body.byteLength) as never) as (Geometry | null)[];
   } catch {
     throw new UploadError('corrupt_shp', `${fileLabel} cannot be read: its shapes are damaged. ${FIX_ADVICE}`, { file: fileLabel });
   }
-  if (geometries.length !== check.records) {
+  if (geometries.length !== wanted) {
     throw new UploadError(
       'corrupt_shp',
-      `${fileLabel} cannot be read completely: ${formatCount(geometries.length)} of its ${formatCount(check.records)} shapes decoded. ${FIX_ADVICE}`,
+      `${fileLabel} cannot be read completely: ${formatCount(from + geometries.length)} of its ${formatCount(check.records)} shapes decoded. ${FIX_ADVICE}`,
       {
         file: fileLabel,
       },

@@ -7,7 +7,8 @@
  *
  * Pure and isomorphic: Uint8Array in, plain JSON out; no I/O, clock or randomness.
  */
-import { ALLOWED_GEOMETRY_TYPES, checkGeometries } from './check-geometries';
+import type { Feature, Geometry } from 'geojson';
+import { ALLOWED_GEOMETRY_TYPES, checkGeometries, geometryChecker, type KeptGeometry } from './check-geometries';
 import type { CrsInfo, LayerSummary, ParsedLayer, ParsedUpload, UploadFormat, UploadKind } from './parsed-upload';
 import { type OpenSqlite, readGeoPackage } from './read-geopackage';
 import { readGeoJson } from './read-geojson';
@@ -17,7 +18,8 @@ import { listZipEntries } from './unzip-entries';
 import { isUploadError, UploadError } from './upload-error';
 import { formatBytes, formatCount, resolveUploadLimits, type UploadLimits, UPLOAD_LIMIT_SETTINGS } from './upload-limits';
 
-export type { CrsInfo, LayerSummary, ParsedLayer, ParsedUpload, UploadFormat, UploadKind } from './parsed-upload';
+export type { CrsInfo, LayerSummary, ParsedLayer, ParsedUpload, StreamedFeatures, UploadFormat, UploadKind } from './parsed-upload';
+export { layerChunks, layerFeatureCount, layerGeometryTypes } from './parsed-upload';
 export type { OpenSqlite, SqliteDatabase } from './read-geopackage';
 export { DEFAULT_UPLOAD_LIMITS, type UploadLimits } from './upload-limits';
 
@@ -34,6 +36,42 @@ export interface ReadUploadOptions {
   layer?: string;
   /** GPX: the user confirmed that each track or route outlines an area (lease and zone uploads). */
   tracksAsPolygons?: boolean;
+  /**
+   * Shapefile layers come back streamed (`features` empty, `stream` set): checked here chunk by chunk, then built
+   * again chunk by chunk by whoever stages them, so all of a layer's features never exist at once. The verdicts and
+   * messages are those of the whole read. Other formats are read whole either way.
+   */
+  stream?: boolean;
+}
+
+/** Features built at a time when a streamed shapefile layer is checked. */
+const STREAM_CHUNK = 2_000;
+
+/** @private A layer as a reader returned it: whole, or (a streamed shapefile) as chunks. */
+interface RawLayer {
+  name: string;
+  crs: CrsInfo;
+  fields: string[];
+  features: Feature<Geometry | null>[];
+  encoding?: string;
+  count?: number;
+  chunks?: (size: number) => Generator<Feature<Geometry | null>[]>;
+}
+
+/** @private */
+function rawCount(l: RawLayer): number {
+  return l.chunks ? (l.count ?? 0) : l.features.length;
+}
+
+/** @private Geometry types of a layer as read ('null' for features without geometry), sorted. */
+function rawGeometryTypes(l: RawLayer): string[] {
+  const types = new Set<string>();
+  const add = (features: Feature<Geometry | null>[]) => {
+    for (const f of features) types.add(f.geometry?.type ?? 'null');
+  };
+  if (l.chunks) for (const chunk of l.chunks(STREAM_CHUNK)) add(chunk);
+  else add(l.features);
+  return [...types].sort();
 }
 
 /**
@@ -74,7 +112,7 @@ export async function readUpload(
   }
   const detected = detectFormat(bytes, fileName);
   const warnings: string[] = [];
-  const raw: { name: string; crs: CrsInfo; fields: string[]; features: Parameters<typeof checkGeometries>[0]; encoding?: string }[] = [];
+  const raw: RawLayer[] = [];
   let format: UploadFormat;
   if (detected === 'zip' && isKmz(bytes, fileName)) {
     const xml = readKmlOrGpx(bytes, fileName, kind, lim, true, options);
@@ -83,7 +121,7 @@ export async function readUpload(
     raw.push(...xml.layers);
   } else if (detected === 'zip') {
     format = 'shapefile';
-    const zip = readShapefileZip(bytes, lim);
+    const zip = readShapefileZip(bytes, lim, { lazy: options?.stream === true });
     warnings.push(...zip.warnings);
     raw.push(...zip.layers);
   } else if (detected === 'sqlite') {
@@ -121,7 +159,7 @@ export async function readUpload(
   }
 
   // Shapefile and GeoJSON readers stop at the limit themselves; KML and GPX layers are counted here.
-  const total = raw.reduce((n, l) => n + l.features.length, 0);
+  const total = raw.reduce((n, l) => n + rawCount(l), 0);
   if (total > lim.maxFeatures) {
     throw new UploadError(
       'too_many_features',
@@ -129,11 +167,9 @@ export async function readUpload(
       { features: total, limit: lim.maxFeatures },
     );
   }
-  const layerSummaries: LayerSummary[] = raw.map((l) => ({
-    name: l.name,
-    featureCount: l.features.length,
-    geometryTypes: [...new Set(l.features.map((f) => f.geometry?.type ?? 'null'))].sort(),
-  }));
+  // Only a file of several layers lists them (a streamed layer's types take a pass over its chunks).
+  const layerSummaries: LayerSummary[] =
+    raw.length > 1 ? raw.map((l) => ({ name: l.name, featureCount: rawCount(l), geometryTypes: rawGeometryTypes(l) })) : [];
   let candidates = raw;
   if (options?.layer !== undefined) {
     const picked = raw.find((l) => l.name === options.layer);
@@ -147,19 +183,31 @@ export async function readUpload(
     candidates = [picked];
   }
   // An empty layer beside non-empty ones is dropped; an upload with no features at all is refused by checkGeometries.
-  const nonEmpty = candidates.filter((l) => l.features.length > 0);
+  const nonEmpty = candidates.filter((l) => rawCount(l) > 0);
   const used = nonEmpty.length > 0 ? nonEmpty : candidates.slice(0, 1);
   for (const l of candidates) {
-    if (l.features.length === 0 && nonEmpty.length > 0) warnings.push(`Layer “${l.name}” holds no features and was left out.`);
+    if (rawCount(l) === 0 && nonEmpty.length > 0) warnings.push(`Layer “${l.name}” holds no features and was left out.`);
   }
   const multiLayer = used.length > 1;
   const layers: ParsedLayer[] = [];
   let vertices = 0;
   let firstRefusal: unknown;
   for (const l of used) {
-    let checked: ReturnType<typeof checkGeometries>;
+    let checked: { features: Feature<KeptGeometry>[]; vertexCount: number; warnings: string[]; geometryTypes?: string[] };
     try {
-      checked = checkGeometries(l.features, kind, { layerName: l.name, multiLayer, verticesBefore: vertices, limits: lim });
+      const context = { layerName: l.name, multiLayer, verticesBefore: vertices, limits: lim };
+      if (l.chunks) {
+        // Streamed: each chunk is built, checked and dropped; the verdict on the whole layer comes after the last one.
+        const checker = geometryChecker(kind, context);
+        let at = 0;
+        for (const chunk of l.chunks(STREAM_CHUNK)) {
+          checker.add(chunk, at);
+          at += chunk.length;
+        }
+        checked = { features: [], ...checker.finish() };
+      } else {
+        checked = checkGeometries(l.features, kind, context);
+      }
     } catch (err) {
       // In a file of several layers (KML folders, GeoPackage tables), a layer of pins beside a layer of polygons is
       // left out with a warning rather than refusing the file; the user can still pick the layer in the preview.
@@ -184,10 +232,38 @@ export async function readUpload(
       features: checked.features,
       ...(l.encoding ? { encoding: l.encoding } : {}),
       vertexCount: checked.vertexCount,
+      ...(l.chunks
+        ? { stream: { featureCount: rawCount(l), geometryTypes: checked.geometryTypes ?? [], chunks: normalisedChunks(l.chunks, kind, l.name, multiLayer) } }
+        : {}),
     });
   }
   if (layers.length === 0) throw withFormatHint(firstRefusal, format, kind);
   return { format, layers, warnings, ...(raw.length > 1 ? { layerSummaries } : {}), ...(options?.layer !== undefined ? { selectedLayer: options.layer } : {}) };
+}
+
+/**
+ * @private The chunks of a streamed layer that passed its checks, normalised as checkGeometries does (2-D, rings
+ * closed). A chunk that no longer normalises whole (the bytes cannot change between passes) throws the refusal.
+ */
+function normalisedChunks(
+  source: (size: number) => Generator<Feature<Geometry | null>[]>,
+  kind: UploadKind,
+  layerName: string,
+  multiLayer: boolean,
+): (size: number) => Generator<Feature<Geometry>[]> {
+  return function* (size: number) {
+    const again = geometryChecker(kind, { layerName, multiLayer, verticesBefore: 0, limits: { maxVertices: Number.POSITIVE_INFINITY } });
+    let at = 0;
+    for (const chunk of source(size)) {
+      const out = again.add(chunk, at);
+      if (out.length !== chunk.length) {
+        again.finish();
+        throw new Error(`Layer ${layerName} changed between its check and its staging`);
+      }
+      at += chunk.length;
+      yield out;
+    }
+  };
 }
 
 /** Adds what to do in a globe viewer or GPS app to a geometry-type refusal of a KML/KMZ/GPX upload. */

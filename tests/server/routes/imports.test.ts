@@ -1,6 +1,9 @@
+import { write } from '@mapbox/shp-write';
 import { sql } from 'drizzle-orm';
+import { zipSync } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ellipsoidalArea } from '../../../shared/geometry/polygon-area';
+import { checkShp } from '../../../shared/geometry/read-shp';
 import { createTestApp, signIn, type TestApp } from '../../helpers/test-app';
 import { geojsonBuffer, leaseCollection, rectangle } from '../../helpers/lease-fixtures';
 
@@ -233,6 +236,65 @@ describe('a file larger than one staging chunk (2 000 features)', () => {
     ];
     const before = await counts();
     const res = await upload(grower, geojsonBuffer(fc), 'bad-chunk.geojson').expect(422);
+    expect(res.body.error.code).toBe('coordinates_out_of_range');
+    expect(res.body.error.message).toMatch(/^Feature 4200 has the coordinate \(500000, 4500000\), outside longitude −180…180 and latitude −90…90 \(1 feature in all\)\. The numbers look like metres/);
+    expect(await counts()).toEqual(before);
+  });
+
+  // The same grid as a zipped shapefile, read streamed: its features are built chunk by chunk from the .shp and .dbf.
+  const WGS84_PRJ =
+    'GEOGCS["GCS_WGS_1984",DATUM["D_WGS_1984",SPHEROID["WGS_1984",6378137.0,298.257223563]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]]';
+  function shapefileOf(fc: ReturnType<typeof grid>, patch?: (shp: Uint8Array) => void): Buffer {
+    let files: { shp: Uint8Array; shx: Uint8Array; dbf: Uint8Array } | undefined;
+    write(
+      fc.features.map((f) => f.properties ?? {}),
+      'POLYGON',
+      fc.features.map((f) => f.geometry.coordinates) as object[],
+      (_err, out) => {
+        const bytes = (v: DataView) => new Uint8Array(v.buffer.slice(v.byteOffset, v.byteOffset + v.byteLength));
+        files = { shp: bytes(out.shp as DataView), shx: bytes(out.shx as DataView), dbf: bytes(out.dbf as DataView) };
+      },
+    );
+    patch?.(files!.shp);
+    return Buffer.from(zipSync({ 'grid.shp': files!.shp, 'grid.shx': files!.shx, 'grid.dbf': files!.dbf, 'grid.prj': new TextEncoder().encode(WGS84_PRJ) }));
+  }
+
+  it('stages every feature of a streamed shapefile once, in file order', async () => {
+    const res = await upload(grower, shapefileOf(grid('SHP', 4500)), 'grid.zip').expect(201);
+    expect(res.body).toMatchObject({ format: 'shapefile', featureCount: 4500, geometryTypes: ['Polygon'], fields: ['LEASE_ID'] });
+    expect(res.body.features.map((f: { index: number }) => f.index)).toEqual(Array.from({ length: 4500 }, (_, i) => i));
+    expect(res.body.features[4499].properties).toEqual({ LEASE_ID: 'SHP-4500' });
+    const staged = await t.db.pool.query('select count(*)::int as n, count(distinct feature_index)::int as d from import_features where import_id = $1', [res.body.id]);
+    expect(staged.rows[0]).toEqual({ n: 4500, d: 4500 });
+  });
+
+  it('refuses a streamed shapefile whose last shape is null with the whole-file message, and keeps nothing', async () => {
+    const zip = shapefileOf(grid('NUL', 4500), (shp) => {
+      // The last record's shape type set to 0, a null shape (ESRI Shapefile Technical Description 1998, table 1).
+      const check = checkShp(shp, 'grid.shp');
+      new DataView(shp.buffer).setInt32(check.offsets[4499] + 8, 0, true);
+    });
+    const before = await counts();
+    const res = await upload(grower, zip, 'null-last.zip').expect(422);
+    expect(res.body.error.code).toBe('null_geometry');
+    expect(res.body.error.message).toBe(
+      '1 of the 4 500 features have no geometry (null or empty): feature 4499 (counting from 0). Every feature needs a boundary: delete those features or draw their shapes in your GIS, then upload again.',
+    );
+    expect(await counts()).toEqual(before);
+  });
+
+  it('refuses a streamed shapefile with a projected feature in the third chunk with the whole-file message, and keeps nothing', async () => {
+    const fc = grid('SHB', 4500);
+    fc.features[4200].geometry.coordinates = [
+      [
+        [500000, 4500000],
+        [500000, 4500100],
+        [500100, 4500100],
+        [500000, 4500000],
+      ],
+    ];
+    const before = await counts();
+    const res = await upload(grower, shapefileOf(fc), 'bad-chunk.zip').expect(422);
     expect(res.body.error.code).toBe('coordinates_out_of_range');
     expect(res.body.error.message).toMatch(/^Feature 4200 has the coordinate \(500000, 4500000\), outside longitude −180…180 and latitude −90…90 \(1 feature in all\)\. The numbers look like metres/);
     expect(await counts()).toEqual(before);
