@@ -124,8 +124,21 @@ function nearestOnPath(frame: CoastFrame, p: PlanarPoint, hint?: { readonly s: n
     lo = Math.max(0, upperBound(arc, hint.s - hint.window) - 1);
     hi = Math.min(path.length - 2, upperBound(arc, hint.s + hint.window));
   }
+  const best = nearestSegment(path, arc, p, lo, hi);
+  return { s: best.s, x: Math.sqrt(best.d2) };
+}
+
+/** @private The segment of path[lo..hi+1] nearest p: squared distance, arc length at the nearest point, segment index. */
+function nearestSegment(
+  path: readonly PlanarPoint[],
+  arc: readonly number[],
+  p: PlanarPoint,
+  lo: number,
+  hi: number,
+): { d2: number; s: number; index: number } {
   let bestD2 = Number.POSITIVE_INFINITY;
   let bestS = 0;
+  let best = -1;
   for (let i = lo; i <= hi; i += 1) {
     const a = path[i];
     const b = path[i + 1];
@@ -139,9 +152,10 @@ function nearestOnPath(frame: CoastFrame, p: PlanarPoint, hint?: { readonly s: n
     if (d2 < bestD2) {
       bestD2 = d2;
       bestS = arc[i] + t * (arc[i + 1] - arc[i]);
+      best = i;
     }
   }
-  return { s: bestS, x: Math.sqrt(bestD2) };
+  return { d2: bestD2, s: bestS, index: best };
 }
 
 /** @private First index with arc[i] > v (binary search). */
@@ -294,25 +308,7 @@ export function coastPositionWithin(
   const [loIn, hiIn] = range(sHigh - windowLow, sLow + windowLow);
   const [lo, hi] = range(sLow - windowHigh, sHigh + windowHigh);
   // The loop of nearestOnPath, over the widest window, remembering which segment won.
-  let bestD2 = Number.POSITIVE_INFINITY;
-  let bestS = 0;
-  let best = -1;
-  for (let i = lo; i <= hi; i += 1) {
-    const a = path[i];
-    const b = path[i + 1];
-    const dx = b[0] - a[0];
-    const dy = b[1] - a[1];
-    const len2 = dx * dx + dy * dy;
-    const t = len2 > 0 ? Math.min(1, Math.max(0, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2)) : 0;
-    const qx = a[0] + t * dx - p[0];
-    const qy = a[1] + t * dy - p[1];
-    const d2 = qx * qx + qy * qy;
-    if (d2 < bestD2) {
-      bestD2 = d2;
-      bestS = arc[i] + t * (arc[i + 1] - arc[i]);
-      best = i;
-    }
-  }
+  const { d2: bestD2, s: bestS, index: best } = nearestSegment(path, arc, p, lo, hi);
   if (best < loIn || best > hiIn) return null;
   if (bestS <= 1e-6 && along < 0) return { s: along, x: Math.max(0, out) };
   return { s: bestS, x: Math.sqrt(bestD2) };
