@@ -6,6 +6,7 @@ import { formatBytes } from '#shared/geometry/upload-limits';
 import {
   importConfirmBodySchema,
   importCrsBodySchema,
+  importFeaturePageSchema,
   importLayerBodySchema,
   importPreviewSchema,
   importResponseSchema,
@@ -120,6 +121,23 @@ export function registerImportRoutes(ctx: RouteContext, db: Database, imports: I
     response: importResponseSchema,
     errors: [404],
     handler: ({ user, params }) => imports.get(user!, params.id),
+  });
+
+  defineRoute(ctx, {
+    method: 'get',
+    path: '/imports/:id/features',
+    operationId: 'listImportFeatures',
+    summary: 'A page of the staged features of an upload, in file order (the preview holds only the first ones)',
+    tags: ['imports'],
+    access: { roles: UPLOADERS },
+    params: idParams,
+    query: z.strictObject({
+      offset: z.coerce.number({ error: 'offset must be a whole number from 0' }).int().min(0).default(0),
+      limit: z.coerce.number({ error: 'limit must be a whole number from 1 to 1000' }).int().min(1).max(1000).default(200),
+    }),
+    response: importFeaturePageSchema,
+    errors: [404, 409],
+    handler: ({ user, params, query }) => imports.listFeatures(user!, params.id, query),
   });
 
   defineRoute(ctx, {

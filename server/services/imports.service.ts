@@ -27,8 +27,10 @@ import {
   findEmptyAfterRepair,
   finishImportFeatures,
   flagOnLand,
+  type ImportOverview,
   insertImportFeatureRows,
   summariseImportFeatures,
+  summariseImportOverview,
 } from '../db/repositories/import-features.repo';
 import type { CurrentUser } from '../http/route';
 import { AppError, ConflictError, ForbiddenError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors';
@@ -69,6 +71,19 @@ interface ImportRow {
   [key: string]: unknown;
 }
 
+/** A staged feature as the preview shows it. */
+function featureView(f: Awaited<ReturnType<typeof summariseImportFeatures>>[number]) {
+  return {
+    index: f.index,
+    properties: f.properties,
+    areaM2: f.areaM2,
+    bbox: f.bbox,
+    repaired: f.repaired,
+    invalidReason: f.invalidReason,
+    onLand: f.onLand,
+  };
+}
+
 function toAppError(err: unknown): never {
   if (isUploadError(err)) throw new AppError(err.status, err.code, err.message, err.details);
   throw err;
@@ -83,6 +98,17 @@ function fieldsOf(parsed: ParsedUpload): string[] {
 
 /** Features reprojected, checked and stored at a time: bounds the memory staging takes (see stage). */
 const STAGE_CHUNK = 2_000;
+/** Features the preview carries itself (the file's first); GET /imports/:id/features pages through the rest. */
+export const PREVIEW_FEATURES = 200;
+/** Staged features read back at a time when an upload is confirmed: its memory does not grow with the file. */
+const CONFIRM_PAGE = 5_000;
+const NO_OVERVIEW: ImportOverview = {
+  bbox: null,
+  areaM2: null,
+  repaired: { count: 0, indexes: [] },
+  onLand: { count: 0, indexes: [] },
+  hasPolygons: false,
+};
 
 export function createImportsService(deps: {
   db: Database;
@@ -180,7 +206,10 @@ export function createImportsService(deps: {
   async function describe(id: string) {
     const res = await db.execute<ImportRow>(sql`SELECT * FROM imports WHERE id = ${id}::uuid`);
     const row = res.rows[0];
-    const features = row.status === 'needs-crs' ? [] : await summariseImportFeatures(db, id);
+    const staged = row.status !== 'needs-crs';
+    // The first features and figures over all of them: a 50 000-feature preview is as small as a 500-feature one.
+    const features = staged ? await summariseImportFeatures(db, id, { offset: 0, limit: PREVIEW_FEATURES }) : [];
+    const { hasPolygons: _polygons, ...overview } = staged ? await summariseImportOverview(db, id) : NO_OVERVIEW;
     return {
       id: row.id,
       kind: row.kind,
@@ -196,16 +225,19 @@ export function createImportsService(deps: {
       fields: row.summary.fields,
       warnings: row.summary.warnings,
       suggestedMapping: guessAttributeMapping(row.summary.fields),
-      features: features.map((f) => ({
-        index: f.index,
-        properties: f.properties,
-        areaM2: f.areaM2,
-        bbox: f.bbox,
-        repaired: f.repaired,
-        invalidReason: f.invalidReason,
-        onLand: f.onLand,
-      })),
+      overview,
+      featurePage: { offset: 0, limit: PREVIEW_FEATURES, total: staged ? row.summary.featureCount : 0 },
+      features: features.map(featureView),
     };
+  }
+
+  /** A page of an upload's staged features, in file order (for a preview longer than its first page). */
+  async function listFeatures(user: CurrentUser, id: string, page: { offset: number; limit: number }) {
+    const row = await loadImport(user, id);
+    if (row.status === 'needs-crs')
+      throw new ConflictError('This upload is not read yet: choose its coordinate system first (POST /imports/:id/crs).');
+    const items = await summariseImportFeatures(db, id, page);
+    return { offset: page.offset, limit: page.limit, total: row.summary.featureCount, items: items.map(featureView) };
   }
 
   /** Reads an upload's bytes with the user's choices (layer, GPX tracks as areas). */
@@ -381,91 +413,93 @@ export function createImportsService(deps: {
         );
       }
     }
-    const features = await summariseImportFeatures(db, id);
     const base = row.file_name.replace(/\.(zip|geojson|json|kml|kmz|gpx|gpkg)$/i, '');
-    const text = (props: Record<string, unknown>, field?: string) => {
-      if (!field) return null;
-      const v = props[field];
-      return v === null || v === undefined || v === '' ? null : String(v).trim();
-    };
+    const text = (v: unknown) => (v === null || v === undefined || v === '' ? null : String(v).trim());
+    const value = (field: string | undefined) => (field ? sql`properties -> ${field}` : sql`NULL::jsonb`);
 
     const result = await db.transaction(async (tx) => {
       const ids: string[] = [];
       let created = 0;
       let updated = 0;
+      // What each feature becomes (its code or name, holder, species, status), worked out a page of staged features at
+      // a time and kept in a temporary table: the writes below are then set-based, and the memory this takes is one page's.
+      await tx.execute(sql`
+        CREATE TEMPORARY TABLE confirm_rows (idx int PRIMARY KEY, code text NOT NULL, holder text, species text, status text, replace_id uuid)
+        ON COMMIT DROP`);
+      for (let after = -1; row.kind !== 'coast'; ) {
+        const page = await tx.execute<{ idx: number; code: unknown; holder: unknown; species: unknown; status: unknown }>(sql`
+          SELECT feature_index AS idx, ${value(body.mapping.leaseId)} AS code, ${value(body.mapping.holder)} AS holder,
+                 ${value(body.mapping.species)} AS species, ${value(body.mapping.status)} AS status
+            FROM import_features WHERE import_id = ${id}::uuid AND feature_index > ${after}
+           ORDER BY feature_index LIMIT ${CONFIRM_PAGE}`);
+        if (page.rows.length === 0) break;
+        const rows = page.rows.map((f) => ({
+          idx: f.idx,
+          code: text(f.code) ?? (row.kind === 'zone' ? `${base} zone ${f.idx + 1}` : `${base}-${f.idx + 1}`),
+          holder: text(f.holder),
+          species: text(f.species),
+          status: body.mapping.status ? (normaliseStatus(f.status) ?? 'candidate') : 'candidate',
+        }));
+        await tx.execute(sql`
+          INSERT INTO confirm_rows (idx, code, holder, species, status)
+          SELECT * FROM jsonb_to_recordset(${JSON.stringify(rows)}::jsonb) AS r(idx int, code text, holder text, species text, status text)`);
+        after = page.rows[page.rows.length - 1].idx;
+      }
       if (row.kind === 'lease') {
-        const codes = features.map((f) => text(f.properties, body.mapping.leaseId) ?? `${base}-${f.index + 1}`);
-        const existing = await tx.execute<{ id: string; lease_code: string }>(sql`
-          SELECT id, lease_code FROM leases WHERE owner_id = ${user.id} AND lease_code IN (SELECT jsonb_array_elements_text(${JSON.stringify(codes)}::jsonb))`);
-        const existingByCode = new Map(existing.rows.map((r) => [r.lease_code, r.id]));
-        if (existingByCode.size && !body.onDuplicate) {
+        const existing = await tx.execute<{ lease_code: string }>(sql`
+          SELECT DISTINCT l.lease_code FROM leases l JOIN confirm_rows c ON c.code = l.lease_code
+           WHERE l.owner_id = ${user.id} ORDER BY l.lease_code`);
+        const duplicates = existing.rows.map((r) => r.lease_code);
+        if (duplicates.length && !body.onDuplicate) {
           throw new ConflictError(
-            `${existingByCode.size} lease id${existingByCode.size > 1 ? 's' : ''} already exist among your leases (${[...existingByCode.keys()].slice(0, 10).join(', ')}${existingByCode.size > 10 ? ', …' : ''}). Confirm again with onDuplicate "replace" to update them with the new boundaries, or "keep" to add the new ones beside them.`,
-            { duplicates: [...existingByCode.keys()] },
+            `${duplicates.length} lease id${duplicates.length > 1 ? 's' : ''} already exist among your leases (${duplicates.slice(0, 10).join(', ')}${duplicates.length > 10 ? ', …' : ''}). Confirm again with onDuplicate "replace" to update them with the new boundaries, or "keep" to add the new ones beside them.`,
+            { duplicates },
           );
         }
-        // Set-based writes: one UPDATE for the replaced leases and one INSERT … SELECT per 10 000 new ones, joined to the
+        // Set-based writes: one UPDATE for the replaced leases and one INSERT … SELECT for the new ones, joined to the
         // staged features by index, so a 40 000-lease file costs a few statements instead of 40 000 round trips.
-        const replaced = new Map<string, { idx: number; holder: string | null; species: string | null; status: string; id: string }>();
-        const added: { idx: number; code: string; holder: string | null; species: string | null; status: string }[] = [];
-        for (const [i, f] of features.entries()) {
-          const code = codes[i];
-          const status = body.mapping.status ? (normaliseStatus(f.properties[body.mapping.status]) ?? 'candidate') : 'candidate';
-          const holder = text(f.properties, body.mapping.holder);
-          const species = text(f.properties, body.mapping.species);
-          const replaceId = body.onDuplicate === 'replace' ? existingByCode.get(code) : undefined;
-          if (replaceId) {
-            // Two features with the same code: the later one wins, as when they were written one after the other.
-            replaced.set(replaceId, { idx: f.index, holder, species, status, id: replaceId });
-            ids.push(replaceId);
-            updated++;
-          } else {
-            added.push({ idx: f.index, code, holder, species, status });
-          }
-        }
-
-        if (replaced.size) {
+        if (duplicates.length && body.onDuplicate === 'replace') {
+          await tx.execute(sql`
+            UPDATE confirm_rows c SET replace_id = t.id
+              FROM (SELECT DISTINCT ON (lease_code) lease_code, id FROM leases WHERE owner_id = ${user.id} ORDER BY lease_code, created_at DESC, id) t
+             WHERE t.lease_code = c.code`);
+          // Two features with the same code: the later one wins, as when they were written one after the other.
           await tx.execute(sql`
             UPDATE leases l SET geom = f.geom, area_m2 = f.area_m2, on_land = f.on_land, import_id = ${id}::uuid,
                    holder = r.holder, species = r.species, status = r.status::lease_status, source_properties = f.properties, updated_at = now()
-              FROM jsonb_to_recordset(${JSON.stringify([...replaced.values()])}::jsonb) AS r(idx int, holder text, species text, status text, id uuid)
+              FROM (SELECT DISTINCT ON (replace_id) * FROM confirm_rows WHERE replace_id IS NOT NULL ORDER BY replace_id, idx DESC) r
               JOIN import_features f ON f.import_id = ${id}::uuid AND f.feature_index = r.idx
-             WHERE l.id = r.id`);
+             WHERE l.id = r.replace_id`);
+          const replaced = await tx.execute<{ id: string }>(sql`SELECT replace_id AS id FROM confirm_rows WHERE replace_id IS NOT NULL ORDER BY idx`);
+          for (const r of replaced.rows) ids.push(r.id);
+          updated = replaced.rows.length;
         }
-        const CHUNK = 10_000;
-        for (let at = 0; at < added.length; at += CHUNK) {
-          const res = await tx.execute<{ id: string }>(sql`
-            INSERT INTO leases (lease_code, holder, species, status, owner_id, organisation_id, jurisdiction_id, import_id, source_properties, geom, area_m2, on_land)
-            SELECT r.code, r.holder, r.species, r.status::lease_status,
-                   ${user.id}, ${user.organisationId}::uuid, ${user.jurisdictionId}::uuid, ${id}::uuid, f.properties, f.geom, f.area_m2, f.on_land
-              FROM jsonb_to_recordset(${JSON.stringify(added.slice(at, at + CHUNK))}::jsonb) AS r(idx int, code text, holder text, species text, status text)
-              JOIN import_features f ON f.import_id = ${id}::uuid AND f.feature_index = r.idx
-             ORDER BY r.idx
-            RETURNING id`);
-          for (const r of res.rows) ids.push(r.id);
-          created += res.rows.length;
-        }
+        const res = await tx.execute<{ id: string }>(sql`
+          INSERT INTO leases (lease_code, holder, species, status, owner_id, organisation_id, jurisdiction_id, import_id, source_properties, geom, area_m2, on_land)
+          SELECT r.code, r.holder, r.species, r.status::lease_status,
+                 ${user.id}, ${user.organisationId}::uuid, ${user.jurisdictionId}::uuid, ${id}::uuid, f.properties, f.geom, f.area_m2, f.on_land
+            FROM confirm_rows r JOIN import_features f ON f.import_id = ${id}::uuid AND f.feature_index = r.idx
+           WHERE r.replace_id IS NULL
+           ORDER BY r.idx
+          RETURNING id`);
+        for (const r of res.rows) ids.push(r.id);
+        created = res.rows.length;
         // A lease inside a region's area belongs to that region (and brings a grower of no region into it).
         await assignLeasesToRegions(tx, user, ids);
       } else if (row.kind === 'zone') {
         if (!user.jurisdictionId)
           throw new ValidationError('Your account has no jurisdiction, so closure zones cannot be saved. Ask an administrator to set it.');
-        const named = features.map((f) => ({
-          idx: f.index,
-          name: text(f.properties, body.mapping.leaseId) ?? `${base} zone ${f.index + 1}`,
-        }));
         const res = await tx.execute<{ id: string }>(sql`
           INSERT INTO closure_zones (name, jurisdiction_id, import_id, source_properties, geom, area_m2)
-          SELECT r.name, ${user.jurisdictionId}::uuid, ${id}::uuid, f.properties, f.geom, f.area_m2
-            FROM jsonb_to_recordset(${JSON.stringify(named)}::jsonb) AS r(idx int, name text)
-            JOIN import_features f ON f.import_id = ${id}::uuid AND f.feature_index = r.idx
+          SELECT r.code, ${user.jurisdictionId}::uuid, ${id}::uuid, f.properties, f.geom, f.area_m2
+            FROM confirm_rows r JOIN import_features f ON f.import_id = ${id}::uuid AND f.feature_index = r.idx
            ORDER BY r.idx
           RETURNING id`);
         for (const r of res.rows) ids.push(r.id);
         created = res.rows.length;
       } else {
         // A coastline is stored as one geometry: lines merged, or land polygons unioned.
-        const hasPolygons = features.some((f) => f.geometryType.includes('POLYGON'));
+        const { hasPolygons } = await summariseImportOverview(tx, id);
         const res = await tx.execute<{ id: string }>(sql`
           INSERT INTO coasts (name, form, owner_id, jurisdiction_id, shared, import_id, geom)
           SELECT ${base}, ${hasPolygons ? 'land' : 'line'}, ${user.id}, ${user.jurisdictionId}::uuid, ${user.role === 'regulator'}, ${id}::uuid,
@@ -496,7 +530,7 @@ export function createImportsService(deps: {
     return crsCatalogue();
   }
 
-  return { create, setCrs, pickLayer, get, confirm, crsCatalogue: searchCrsCatalogue };
+  return { create, setCrs, pickLayer, get, listFeatures, confirm, crsCatalogue: searchCrsCatalogue };
 }
 
 export type ImportsService = ReturnType<typeof createImportsService>;

@@ -26,6 +26,32 @@ export const importFeatureSchema = z.object({
   areaM2: z.number().min(0).nullable().describe('Area on the WGS 84 ellipsoid, m²; null for lines'),
   bbox: bboxSchema,
   repaired: z.boolean().describe('True when the geometry was invalid (e.g. a self-intersecting ring) and the database repaired it'),
+  onLand: z.boolean().optional().describe('True when it lies wholly on land according to the coastline'),
+});
+
+const indexListSchema = (what: string) =>
+  z.object({
+    count: z.number().int().min(0).describe(`How many features ${what}`),
+    indexes: z.array(z.number().int().min(0)).describe(`Which (0-based positions in the upload), the first 100 of them`),
+  });
+
+/** Figures over every staged feature of an upload (the preview lists only the first features). */
+export const importOverviewSchema = z.object({
+  bbox: bboxSchema.nullable().describe('Extent of all the staged features; null before the coordinate system is known'),
+  areaM2: z
+    .object({ min: z.number(), max: z.number(), total: z.number() })
+    .nullable()
+    .describe('Smallest, largest and summed area on the WGS 84 ellipsoid, m²; null for lines'),
+  repaired: indexListSchema('were invalid and repaired by the database'),
+  onLand: indexListSchema('lie wholly on land according to the coastline'),
+});
+
+/** A page of an upload's staged features: GET /imports/:id/features. */
+export const importFeaturePageSchema = z.object({
+  offset: z.number().int().min(0).describe('Position of the first feature of this page'),
+  limit: z.number().int().min(1),
+  total: z.number().int().min(0).describe('Features in the upload'),
+  items: z.array(importFeatureSchema),
 });
 
 /** One layer of a multi-layer file, for the preview's layer picker. */
@@ -80,7 +106,11 @@ export const importResponseSchema = z.object({
   geometryTypes: z.array(z.string()).describe("GeoJSON geometry types found, e.g. ['Polygon', 'MultiPolygon']"),
   fields: z.array(z.string()).describe('Attribute names, in file order'),
   warnings: z.array(z.string()).describe('Things the user should know that did not stop the upload'),
-  features: z.array(importFeatureSchema),
+  overview: importOverviewSchema,
+  featurePage: z
+    .object({ offset: z.number().int(), limit: z.number().int(), total: z.number().int() })
+    .describe('Which features `features` holds: the first `limit` of `total`; page through the rest with GET /imports/:id/features'),
+  features: z.array(importFeatureSchema).describe('The first features of the upload (see featurePage)'),
 });
 
 /** The import preview, as sent to the client. */

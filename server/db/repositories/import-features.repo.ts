@@ -91,7 +91,15 @@ export interface ImportFeatureSummary {
   geometryType: string;
 }
 
-export async function summariseImportFeatures(db: Database | Tx, importId: string): Promise<ImportFeatureSummary[]> {
+/**
+ * A page of the staged features in upload order (offset/limit), so a preview of a 50 000-feature file does not
+ * hold or send every feature; {@link summariseImportOverview} gives the figures over all of them.
+ */
+export async function summariseImportFeatures(
+  db: Database | Tx,
+  importId: string,
+  page: { offset: number; limit: number },
+): Promise<ImportFeatureSummary[]> {
   const res = await db.execute<{
     index: number;
     properties: Record<string, unknown>;
@@ -107,7 +115,8 @@ export async function summariseImportFeatures(db: Database | Tx, importId: strin
   }>(sql`
     SELECT feature_index AS index, properties, area_m2, ST_XMin(geom) AS xmin, ST_YMin(geom) AS ymin,
            ST_XMax(geom) AS xmax, ST_YMax(geom) AS ymax, repaired, invalid_reason, on_land, GeometryType(geom) AS gtype
-      FROM import_features WHERE import_id = ${importId}::uuid ORDER BY feature_index`);
+      FROM import_features WHERE import_id = ${importId}::uuid AND feature_index >= ${page.offset}
+     ORDER BY feature_index LIMIT ${page.limit}`);
   return res.rows.map((r) => ({
     index: r.index,
     properties: r.properties,
@@ -118,6 +127,52 @@ export async function summariseImportFeatures(db: Database | Tx, importId: strin
     onLand: r.on_land,
     geometryType: r.gtype,
   }));
+}
+
+/** Features listed by index in an overview's repaired and on-land lists, at most. */
+export const OVERVIEW_INDEX_LIMIT = 100;
+
+export interface ImportOverview {
+  bbox: [number, number, number, number] | null;
+  areaM2: { min: number; max: number; total: number } | null;
+  repaired: { count: number; indexes: number[] };
+  onLand: { count: number; indexes: number[] };
+  /** Some staged feature is a polygon (a coast of land polygons rather than lines). */
+  hasPolygons: boolean;
+}
+
+/** Figures over every staged feature of an upload, computed in PostGIS: its extent, areas, repairs and features on land. */
+export async function summariseImportOverview(db: Database | Tx, importId: string): Promise<ImportOverview> {
+  const res = await db.execute<{
+    xmin: number | null;
+    ymin: number | null;
+    xmax: number | null;
+    ymax: number | null;
+    amin: number | null;
+    amax: number | null;
+    atotal: number | null;
+    repaired: string;
+    repaired_at: number[] | null;
+    on_land: string;
+    on_land_at: number[] | null;
+    polygons: boolean | null;
+  }>(sql`
+    SELECT ST_XMin(e) AS xmin, ST_YMin(e) AS ymin, ST_XMax(e) AS xmax, ST_YMax(e) AS ymax, s.*
+      FROM (SELECT ST_Extent(geom) AS e, min(area_m2) AS amin, max(area_m2) AS amax, sum(area_m2) AS atotal,
+                   count(*) FILTER (WHERE repaired) AS repaired,
+                   (array_agg(feature_index ORDER BY feature_index) FILTER (WHERE repaired))[1:${OVERVIEW_INDEX_LIMIT}] AS repaired_at,
+                   count(*) FILTER (WHERE on_land) AS on_land,
+                   (array_agg(feature_index ORDER BY feature_index) FILTER (WHERE on_land))[1:${OVERVIEW_INDEX_LIMIT}] AS on_land_at,
+                   bool_or(GeometryType(geom) LIKE '%POLYGON') AS polygons
+              FROM import_features WHERE import_id = ${importId}::uuid) s`);
+  const r = res.rows[0];
+  return {
+    bbox: r.xmin === null ? null : [r.xmin, r.ymin!, r.xmax!, r.ymax!],
+    areaM2: r.amin === null ? null : { min: r.amin, max: r.amax!, total: r.atotal! },
+    repaired: { count: Number(r.repaired), indexes: r.repaired_at ?? [] },
+    onLand: { count: Number(r.on_land), indexes: r.on_land_at ?? [] },
+    hasPolygons: r.polygons ?? false,
+  };
 }
 
 /** The staged features as GeoJSON for the preview map, simplified to about a metre. */

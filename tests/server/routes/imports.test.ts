@@ -34,6 +34,16 @@ async function counts() {
   return r.rows[0] as { imports: number; features: number; leases: number };
 }
 
+/** Every staged feature of an upload, read page by page as a client would (the preview holds only the first 200). */
+async function everyStagedFeature(id: string): Promise<{ index: number; properties: Record<string, unknown> }[]> {
+  const all: { index: number; properties: Record<string, unknown> }[] = [];
+  for (let offset = 0; ; offset += 1000) {
+    const page = await grower.get(`/api/v1/imports/${id}/features?offset=${offset}&limit=1000`).expect(200);
+    all.push(...page.body.items);
+    if (page.body.items.length < 1000) return all;
+  }
+}
+
 function upload(agent: typeof grower, buffer: Buffer, name: string, kind = 'lease') {
   return agent.post('/api/v1/imports').field('kind', kind).attach('file', buffer, name);
 }
@@ -117,6 +127,7 @@ describe('uploading leases as GeoJSON', () => {
     const res = await upload(grower, geojsonBuffer(bowTie), 'bow.geojson').expect(201);
     expect(res.body.features[0].repaired).toBe(true);
     expect(res.body.features[0].areaM2).toBeGreaterThan(0);
+    expect(res.body.overview.repaired).toEqual({ count: 1, indexes: [0] });
   });
 
   it('refuses a mapping field the file does not have', async () => {
@@ -217,8 +228,32 @@ describe('a file larger than one staging chunk (2 000 features)', () => {
   it('stages every feature once, in file order, across the chunks', async () => {
     const res = await upload(grower, geojsonBuffer(grid('CHK', 4500)), 'chunks.geojson').expect(201);
     expect(res.body.featureCount).toBe(4500);
-    expect(res.body.features.map((f: { index: number }) => f.index)).toEqual(Array.from({ length: 4500 }, (_, i) => i));
-    expect(res.body.features[4499].properties).toEqual({ LEASE_ID: 'CHK-4500' });
+    // The preview holds the first 200 features and figures over all 4 500; the rest are paged.
+    expect(res.body.featurePage).toEqual({ offset: 0, limit: 200, total: 4500 });
+    expect(res.body.features.map((f: { index: number }) => f.index)).toEqual(Array.from({ length: 200 }, (_, i) => i));
+    const features = await everyStagedFeature(res.body.id);
+    expect(features.map((f) => f.index)).toEqual(Array.from({ length: 4500 }, (_, i) => i));
+    expect(features[4499].properties).toEqual({ LEASE_ID: 'CHK-4500' });
+    // The extent and areas over every feature agree with PostGIS over the staged rows.
+    const figures = await t.db.pool.query(
+      `select min(area_m2) as amin, max(area_m2) as amax, st_xmin(st_extent(geom)) as x0, st_ymax(st_extent(geom)) as y1,
+              count(*) filter (where on_land)::int as on_land, (array_agg(feature_index order by feature_index) filter (where on_land))[1:100] as first_on_land
+         from import_features where import_id = $1`,
+      [res.body.id],
+    );
+    // Part of the grid runs over the demo region's land: the count is over all 4 500, the list the first 100.
+    expect(res.body.overview.repaired).toEqual({ count: 0, indexes: [] });
+    expect(res.body.overview.onLand).toEqual({ count: figures.rows[0].on_land, indexes: figures.rows[0].first_on_land ?? [] });
+    expect(res.body.overview.areaM2.min).toBeCloseTo(figures.rows[0].amin, 6);
+    expect(res.body.overview.areaM2.max).toBeCloseTo(figures.rows[0].amax, 6);
+    expect(res.body.overview.bbox[0]).toBeCloseTo(figures.rows[0].x0, 9);
+    expect(res.body.overview.bbox[3]).toBeCloseTo(figures.rows[0].y1, 9);
+    // Someone else's upload is not there for them; a page past the end is empty.
+    await grower2.get(`/api/v1/imports/${res.body.id}/features`).expect(404);
+    const past = await grower.get(`/api/v1/imports/${res.body.id}/features?offset=4500`).expect(200);
+    expect(past.body).toMatchObject({ offset: 4500, total: 4500, items: [] });
+    const bad = await grower.get(`/api/v1/imports/${res.body.id}/features?limit=5000`).expect(400);
+    expect(bad.body.error.message).toMatch(/limit/);
     const staged = await t.db.pool.query('select count(*)::int as n, count(distinct feature_index)::int as d from import_features where import_id = $1', [res.body.id]);
     expect(staged.rows[0]).toEqual({ n: 4500, d: 4500 });
   });
@@ -262,8 +297,9 @@ describe('a file larger than one staging chunk (2 000 features)', () => {
   it('stages every feature of a streamed shapefile once, in file order', async () => {
     const res = await upload(grower, shapefileOf(grid('SHP', 4500)), 'grid.zip').expect(201);
     expect(res.body).toMatchObject({ format: 'shapefile', featureCount: 4500, geometryTypes: ['Polygon'], fields: ['LEASE_ID'] });
-    expect(res.body.features.map((f: { index: number }) => f.index)).toEqual(Array.from({ length: 4500 }, (_, i) => i));
-    expect(res.body.features[4499].properties).toEqual({ LEASE_ID: 'SHP-4500' });
+    const features = await everyStagedFeature(res.body.id);
+    expect(features.map((f) => f.index)).toEqual(Array.from({ length: 4500 }, (_, i) => i));
+    expect(features[4499].properties).toEqual({ LEASE_ID: 'SHP-4500' });
     const staged = await t.db.pool.query('select count(*)::int as n, count(distinct feature_index)::int as d from import_features where import_id = $1', [res.body.id]);
     expect(staged.rows[0]).toEqual({ n: 4500, d: 4500 });
   });

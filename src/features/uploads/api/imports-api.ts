@@ -14,6 +14,12 @@ export interface ImportFeature {
   invalidReason?: string | null;
 }
 
+/** How many features have a trait, and the first 100 of them (0-based positions in the upload). */
+export interface FeatureIndexList {
+  count: number;
+  indexes: number[];
+}
+
 export interface ImportResult {
   id: string;
   kind: UploadKind;
@@ -29,6 +35,15 @@ export interface ImportResult {
   geometryTypes: string[];
   fields: string[];
   warnings: string[];
+  /** Figures over every staged feature (the preview carries only the first features themselves). */
+  overview: {
+    bbox: [number, number, number, number] | null;
+    areaM2: { min: number; max: number; total: number } | null;
+    repaired: FeatureIndexList;
+    onLand: FeatureIndexList;
+  };
+  /** Which features `features` holds: the first `limit` of `total`. */
+  featurePage: { offset: number; limit: number; total: number };
   features: ImportFeature[];
   suggestedMapping: { leaseId?: string; holder?: string; species?: string; status?: string };
 }

@@ -197,9 +197,8 @@ function PreviewAndConfirm({
       }
     },
   });
-  const areas = result.features.map((f) => f.areaM2).filter((a): a is number => a !== null);
-  const repaired = result.features.filter((f) => f.repaired);
-  const onLand = result.features.filter((f) => f.onLand);
+  // Figures over every feature of the file, from the server: the preview carries only the first features themselves.
+  const { areaM2: areas, repaired, onLand, bbox } = result.overview;
   const words = KIND_WORDS[result.kind];
   const coasts = useQuery(importKeys.coasts());
   const layers = useMemo(
@@ -209,10 +208,7 @@ function PreviewAndConfirm({
     ],
     [preview.data, coasts.data, result.fileName, words.plural],
   );
-  const all = result.features.map((f) => f.bbox);
-  const centre = all.length
-    ? [(Math.min(...all.map((b) => b[0])) + Math.max(...all.map((b) => b[2]))) / 2, (Math.min(...all.map((b) => b[1])) + Math.max(...all.map((b) => b[3]))) / 2]
-    : null;
+  const centre = bbox ? [(bbox[0] + bbox[2]) / 2, (bbox[1] + bbox[3]) / 2] : null;
 
   if (pickCrs) return <ChooseCrs result={result} onChosen={(r) => { setPickCrs(false); onChangeCrs(r); }} />;
 
@@ -254,18 +250,18 @@ function PreviewAndConfirm({
           {centre ? `${Math.abs(centre[1]).toFixed(3)}° ${centre[1] >= 0 ? 'N' : 'S'}, ${Math.abs(centre[0]).toFixed(3)}° ${centre[0] >= 0 ? 'E' : 'W'}` : '—'}
         </dd>
         <dt className="font-semibold">Area</dt>
-        <dd>{areas.length ? `${formatArea(Math.min(...areas))} to ${formatArea(Math.max(...areas))}` : '—'}</dd>
+        <dd>{areas ? `${formatArea(areas.min)} to ${formatArea(areas.max)}` : '—'}</dd>
       </dl>
       {(result.layers?.length ?? 0) > 1 && <LayerPicker result={result} onPicked={onChangeCrs} />}
       {result.warnings.length > 0 && <Warnings warnings={result.warnings} />}
-      {repaired.length > 0 && (
-        <Notice tone="info" title={`${repaired.length} feature${repaired.length > 1 ? 's were' : ' was'} repaired`}>
-          Invalid outlines (for example a ring that crosses itself) were made valid: features {repaired.map((f) => f.index + 1).join(', ')}. Check them on the map.
+      {repaired.count > 0 && (
+        <Notice tone="info" title={`${repaired.count} feature${repaired.count > 1 ? 's were' : ' was'} repaired`}>
+          Invalid outlines (for example a ring that crosses itself) were made valid: features {featureList(repaired)}. Check them on the map.
         </Notice>
       )}
-      {onLand.length > 0 && (
-        <Notice tone="problem" title={`${onLand.length} on land`}>
-          Features {onLand.map((f) => f.index + 1).join(', ')} lie wholly on land according to the coastline. Check the file or the coordinate system.
+      {onLand.count > 0 && (
+        <Notice tone="problem" title={`${onLand.count} on land`}>
+          Features {featureList(onLand)} lie wholly on land according to the coastline. Check the file or the coordinate system.
         </Notice>
       )}
       {preview.isPending ? <Loading what="Drawing the preview…" /> : <LazyVectorMap layers={layers} height={280} ariaLabel={`Map of the ${words.plural} read from ${result.fileName}`} />}
@@ -296,6 +292,12 @@ function PreviewAndConfirm({
       )}
     </section>
   );
+}
+
+/** Feature numbers as the user counts them (from 1), with how many more there are beyond the listed ones. */
+function featureList(list: { count: number; indexes: number[] }): string {
+  const shown = list.indexes.map((i) => i + 1).join(', ');
+  return list.count > list.indexes.length ? `${shown} and ${list.count - list.indexes.length} more` : shown;
 }
 
 function cleanMapping(m: ConfirmBody['mapping']): ConfirmBody['mapping'] {
