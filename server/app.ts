@@ -3,6 +3,7 @@
  */
 import { ExpressAuth } from '@auth/express';
 import express, { type Express } from 'express';
+import compression from 'compression';
 import helmet from 'helmet';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
@@ -101,6 +102,10 @@ export function createApp(deps: AppDeps): Express {
       },
     }),
   );
+
+  // JSON, the client's scripts and the tiles gzipped for clients that ask (every browser does). A kept answer of the result
+  // cache arrives gzipped already (defineRoute), and compression leaves an encoded body alone.
+  app.use(compression({ threshold: 1024 }));
 
   // Throttles on the sign-in family and the calculators only; counters shared by every app process.
   const limits = createRateLimits({

@@ -5,6 +5,7 @@
  */
 import type { OpenAPIRegistry, ResponseConfig, ZodMediaTypeObject } from '@asteasolutions/zod-to-openapi';
 import type { NextFunction, Request, RequestHandler, Response, Router } from 'express';
+import { gzipSync } from 'node:zlib';
 import { z } from 'zod';
 import type { Role } from '#shared/schemas/roles';
 import { AppError, ForbiddenError, UnauthenticatedError, ValidationError } from '../lib/errors';
@@ -334,9 +335,34 @@ const ERROR_DESCRIPTIONS: Record<number, string> = {
  */
 export class JsonText {
   readonly text: string;
+  #gzipped: Buffer | undefined;
   constructor(text: string) {
     this.text = text;
   }
+  /** The text gzipped, made once: a kept answer is compressed for its first caller only, not for every one. */
+  gzipped(): Buffer {
+    this.#gzipped ??= gzipSync(this.text);
+    return this.#gzipped;
+  }
+}
+
+/** Below this many characters an answer is sent as it is (compression's own threshold in app.ts). */
+const GZIP_FROM_CHARS = 1024;
+
+/** Sends a serialised answer, gzipped once and kept when the client accepts gzip (every browser does). */
+function sendJsonText(req: Request, res: Response, status: number, answer: JsonText): void {
+  res.status(status).type('application/json');
+  if (answer.text.length < GZIP_FROM_CHARS) {
+    res.send(answer.text);
+    return;
+  }
+  res.vary('Accept-Encoding');
+  if (req.acceptsEncodings('gzip', 'identity') !== 'gzip') {
+    res.send(answer.text);
+    return;
+  }
+  res.setHeader('Content-Encoding', 'gzip');
+  res.send(answer.gzipped());
 }
 
 /** Fails when a JSON answer, as serialised, does not match the declared schema (see RouteContext.checkResponses). */
@@ -396,7 +422,7 @@ export function defineRoute<
       }
       if (spec.response === null) throw new Error(`${spec.method.toUpperCase()} ${spec.path} is declared with no content (response: null) but returned a body.`);
       if (ctx.checkResponses) checkResponse(spec.method, spec.path, spec.response, result);
-      if (result instanceof JsonText) res.status(spec.successStatus ?? 200).type('application/json').send(result.text);
+      if (result instanceof JsonText) sendJsonText(req, res, spec.successStatus ?? 200, result);
       else res.status(spec.successStatus ?? 200).json(result);
     } catch (err) {
       next(err);

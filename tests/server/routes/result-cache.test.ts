@@ -129,6 +129,21 @@ describe('kept list answers', () => {
     expect(await has()).toBe(false);
   });
 
+  it('sends a kept answer gzipped to a client that asks for it (as browsers do), and as it is to one that does not', async () => {
+    const plain = await grower.get('/api/v1/screenings?limit=100').set('Accept-Encoding', 'identity').expect(200);
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    const zipped = await grower.get('/api/v1/screenings?limit=100').set('Accept-Encoding', 'gzip, deflate, br').expect(200);
+    expect(zipped.headers['content-encoding']).toBe('gzip');
+    expect(zipped.headers.vary).toMatch(/Accept-Encoding/i);
+    // supertest inflates the body: the same answer either way.
+    expect(zipped.body).toEqual(plain.body);
+    // An answer read fresh (no result cache) is gzipped by the compression middleware instead.
+    const agent = (await signIn(uncached.app, 'grower@brackline.test')).agent;
+    const fresh = await agent.get('/api/v1/screenings?limit=100').set('Accept-Encoding', 'gzip').expect(200);
+    expect(fresh.headers['content-encoding']).toBe('gzip');
+    expect(fresh.body.items.length).toBe(plain.body.items.length);
+  });
+
   it('with RESULT_CACHE=false reads every time and answers the same', async () => {
     const agent = (await signIn(uncached.app, 'grower@brackline.test')).agent;
     const a = await agent.get('/api/v1/screenings/annual').expect(200);
