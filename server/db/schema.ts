@@ -194,8 +194,6 @@ export const imports = pgTable(
     fileBytes: bytea('file_bytes').notNull(),
     status: importStatusEnum('status').notNull(),
     crs: jsonb('crs').$type<{ found: boolean; epsg?: number; wkt?: string; name?: string }>().notNull(),
-    /** The parsed layers in the source CRS, kept while the CRS is unknown. */
-    parsedSource: jsonb('parsed_source'),
     summary: jsonb('summary')
       .$type<{ featureCount: number; geometryTypes: string[]; fields: string[]; warnings: string[]; format: string }>()
       .notNull(),

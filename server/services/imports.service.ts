@@ -54,7 +54,6 @@ interface ImportRow {
   file_name: string;
   status: 'needs-crs' | 'ready' | 'confirmed';
   crs: { found: boolean; epsg?: number; wkt?: string; name?: string };
-  parsed_source: ParsedUpload | null;
   summary: {
     featureCount: number;
     geometryTypes: string[];
@@ -284,10 +283,10 @@ export function createImportsService(deps: {
     choices: { layer?: string; tracksAsPolygons?: boolean },
   ): Promise<string> {
     const bytes = new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength);
-    // Streamed (a shapefile's features built chunk by chunk while staging); a parse kept for a CRS choice is read whole.
-    let parsed = await read(bytes, file.originalname, kind, choices, true);
+    // Streamed where the format allows (features built chunk by chunk while staging). An upload whose coordinate system
+    // must be chosen keeps only the file: the choice reads it again (setCrs), so no parse is stored.
+    const parsed = await read(bytes, file.originalname, kind, choices, true);
     const crsFound = parsed.layers.every((l) => l.crs.found);
-    if (!crsFound && parsed.layers.some((l) => l.stream)) parsed = await read(bytes, file.originalname, kind, choices);
     const firstCrs = parsed.layers[0].crs;
     const summary = {
       featureCount: parsed.layers.reduce((n, l) => n + layerFeatureCount(l), 0),
@@ -302,10 +301,10 @@ export function createImportsService(deps: {
     const sha = createHash('sha256').update(file.buffer).digest('hex');
     return db.transaction(async (tx) => {
       const inserted = await tx.execute<{ id: string }>(sql`
-        INSERT INTO imports (kind, owner_id, jurisdiction_id, file_name, file_sha256, file_bytes, status, crs, parsed_source, summary)
+        INSERT INTO imports (kind, owner_id, jurisdiction_id, file_name, file_sha256, file_bytes, status, crs, summary)
         VALUES (${kind}, ${user.id}, ${user.jurisdictionId}::uuid, ${file.originalname}, ${sha}, ${file.buffer},
                 ${crsFound ? 'ready' : 'needs-crs'}, ${JSON.stringify(crsFound ? firstCrs : { ...firstCrs, found: false })}::jsonb,
-                ${crsFound ? null : JSON.stringify(parsed)}::jsonb, ${JSON.stringify(summary)}::jsonb)
+                ${JSON.stringify(summary)}::jsonb)
         RETURNING id`);
       const importId = inserted.rows[0].id;
       if (crsFound) {
@@ -332,22 +331,22 @@ export function createImportsService(deps: {
     const definition = crsDefinition(crsCatalogue(), epsg);
     if (!definition)
       throw new ValidationError(`epsg: EPSG:${epsg} is not a coordinate system Brackline knows. Search by name to find the right code.`);
-    let parsed = row.parsed_source;
-    if (!parsed) {
-      // Already staged with the file's own CRS: read the kept original again.
-      const file = await db.execute<{ file_bytes: Buffer }>(sql`SELECT file_bytes FROM imports WHERE id = ${id}::uuid`);
-      parsed = await read(new Uint8Array(file.rows[0].file_bytes), row.file_name, row.kind, {
-        layer: row.summary.layer,
-        tracksAsPolygons: row.summary.tracksAsPolygons,
-      });
-    }
+    // The kept original read again (streamed where the format allows), with the user's earlier choices.
+    const file = await db.execute<{ file_bytes: Buffer }>(sql`SELECT file_bytes FROM imports WHERE id = ${id}::uuid`);
+    const parsed = await read(
+      new Uint8Array(file.rows[0].file_bytes),
+      row.file_name,
+      row.kind,
+      { layer: row.summary.layer, tracksAsPolygons: row.summary.tracksAsPolygons },
+      true,
+    );
     const summary = { ...row.summary, warnings: row.summary.warnings.filter((w) => !/coordinate system/.test(w)) };
     await db.transaction(async (tx) => {
       const warnings = await stage(tx, row, parsed, { epsg });
       summary.warnings.push(...warnings);
       await tx.execute(sql`
         UPDATE imports SET status = 'ready', crs = ${JSON.stringify({ found: true, epsg, name: definition.name })}::jsonb,
-               summary = ${JSON.stringify(summary)}::jsonb, parsed_source = ${JSON.stringify(parsed)}::jsonb
+               summary = ${JSON.stringify(summary)}::jsonb
          WHERE id = ${id}::uuid`);
     });
     return describe(id);
@@ -361,15 +360,18 @@ export function createImportsService(deps: {
     const row = await loadImport(user, id);
     if (row.status === 'confirmed') throw new ConflictError('This upload is already saved. Upload the file again to pick another layer.');
     const file = await db.execute<{ file_bytes: Buffer }>(sql`SELECT file_bytes FROM imports WHERE id = ${id}::uuid`);
-    const parsed = await read(new Uint8Array(file.rows[0].file_bytes), row.file_name, row.kind, {
-      layer,
-      tracksAsPolygons: row.summary.tracksAsPolygons,
-    });
+    const parsed = await read(
+      new Uint8Array(file.rows[0].file_bytes),
+      row.file_name,
+      row.kind,
+      { layer, tracksAsPolygons: row.summary.tracksAsPolygons },
+      true,
+    );
     const chosenEpsg = row.status === 'ready' && !parsed.layers.every((l) => l.crs.found) && row.crs.found ? row.crs.epsg : undefined;
     const crsFound = parsed.layers.every((l) => l.crs.found) || chosenEpsg !== undefined;
     const summary = {
       ...row.summary,
-      featureCount: parsed.layers.reduce((n, l) => n + l.features.length, 0),
+      featureCount: parsed.layers.reduce((n, l) => n + layerFeatureCount(l), 0),
       geometryTypes: geometryTypesOf(parsed),
       fields: fieldsOf(parsed),
       warnings: [...parsed.warnings],
@@ -386,8 +388,7 @@ export function createImportsService(deps: {
       }
       await tx.execute(sql`
         UPDATE imports SET summary = ${JSON.stringify(summary)}::jsonb, status = ${crsFound ? 'ready' : 'needs-crs'},
-               crs = ${JSON.stringify(chosenEpsg !== undefined ? row.crs : crsFound ? parsed.layers[0].crs : { ...parsed.layers[0].crs, found: false })}::jsonb,
-               parsed_source = ${crsFound ? null : JSON.stringify(parsed)}::jsonb
+               crs = ${JSON.stringify(chosenEpsg !== undefined ? row.crs : crsFound ? parsed.layers[0].crs : { ...parsed.layers[0].crs, found: false })}::jsonb
          WHERE id = ${id}::uuid`);
     });
     return describe(id);
@@ -509,7 +510,7 @@ export function createImportsService(deps: {
         ids.push(res.rows[0].id);
         created = 1;
       }
-      await tx.execute(sql`UPDATE imports SET status = 'confirmed', confirmed_at = now(), parsed_source = NULL WHERE id = ${id}::uuid`);
+      await tx.execute(sql`UPDATE imports SET status = 'confirmed', confirmed_at = now() WHERE id = ${id}::uuid`);
       await recordAudit(tx, {
         actorId: user.id,
         action: `${row.kind}.import`,

@@ -36,7 +36,7 @@ export interface ParsedLayer {
   features: Feature<Geometry>[];
   /**
    * A shapefile layer read with `stream` (readUpload's option): its features are not held but built again, checked and
-   * normalised, one chunk at a time. Not JSON: a parse that is stored (parsed_source) is read without `stream`.
+   * normalised, one chunk at a time. Not JSON.
    */
   stream?: StreamedFeatures;
   /** Text encoding used for the .dbf (a WHATWG label such as 'utf-8' or 'windows-1252'); absent for GeoJSON. */
