@@ -1,8 +1,8 @@
 /**
  * @module shared/geometry/parsed-upload
  * The shapes {@link readUpload} returns. Features stay in the file's own (source) CRS until
- * `reprojectLayer` turns them into EPSG:4326; everything here is plain JSON (no Dates, no NaN), so a
- * parsed upload can be stored as jsonb while the user picks a CRS.
+ * `reprojectLayer` turns them into EPSG:4326. Features and properties are plain JSON (no Dates, no NaN): they
+ * go to PostGIS as JSON text when staged.
  */
 import type { Feature, Geometry } from 'geojson';
 
