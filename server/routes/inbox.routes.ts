@@ -18,7 +18,7 @@ export function registerInboxRoutes(ctx: RouteContext, inbox: InboxService): voi
     query: inboxQuerySchema,
     response: inboxListSchema,
     handler: async ({ user, query }) => {
-      const [rows, unread] = await Promise.all([inbox.list(user!.id, query.limit), inbox.unreadCount(user!.id)]);
+      const { rows, unread } = await inbox.list(user!.id, query.limit);
       return {
         unread,
         items: rows.map((r) => ({

@@ -3,7 +3,7 @@
  * Writes run inside the caller's transaction; a repeated dedupe key for the same user is ignored,
  * so a retried job never shows the same message twice.
  */
-import { and, desc, eq, isNull, sql } from 'drizzle-orm';
+import { and, desc, eq, sql } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { inboxMessages } from '../db/schema';
 
@@ -31,15 +31,18 @@ export async function deliverToInbox(tx: Tx | Database, messages: InboxDelivery[
 
 export function createInboxService(db: Database) {
   return {
-    async list(userId: string, limit = 50) {
-      return db.select().from(inboxMessages).where(eq(inboxMessages.userId, userId)).orderBy(desc(inboxMessages.createdAt)).limit(limit);
-    },
-    async unreadCount(userId: string): Promise<number> {
-      const [row] = await db
-        .select({ n: sql<number>`count(*)::int` })
+    /**
+     * The newest messages and the count of unread ones, in one statement: the count is a window over all the user's
+     * messages (windows are worked out before LIMIT), so a busy page costs one pool connection, not two.
+     */
+    async list(userId: string, limit = 50): Promise<{ rows: (typeof inboxMessages.$inferSelect)[]; unread: number }> {
+      const rows = await db
+        .select({ message: inboxMessages, unread: sql<number>`(count(*) FILTER (WHERE ${inboxMessages.readAt} IS NULL) OVER ())::int` })
         .from(inboxMessages)
-        .where(and(eq(inboxMessages.userId, userId), isNull(inboxMessages.readAt)));
-      return row?.n ?? 0;
+        .where(eq(inboxMessages.userId, userId))
+        .orderBy(desc(inboxMessages.createdAt))
+        .limit(limit);
+      return { rows: rows.map((r) => r.message), unread: rows[0]?.unread ?? 0 };
     },
     /** Marks one of the user's own messages read; false when it is not theirs or does not exist. */
     async markRead(userId: string, id: string): Promise<boolean> {

@@ -50,6 +50,10 @@ describe('inbox', () => {
     const after = await grower.get('/api/v1/inbox').expect(200);
     expect(after.body.unread).toBe(1);
     expect(after.body.items[0].readAt).not.toBeNull();
+    // The count is over every message, not only the page: the unread one is beyond a one-message page.
+    const page = await grower.get('/api/v1/inbox?limit=1').expect(200);
+    expect(page.body.items.map((m: { readAt: string | null }) => m.readAt !== null)).toEqual([true]);
+    expect(page.body.unread).toBe(1);
   });
 
   it('refuses a malformed id and a limit out of range with messages naming the field', async () => {
