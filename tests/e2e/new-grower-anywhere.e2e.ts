@@ -124,6 +124,8 @@ describe('a new grower anywhere gets an answer', () => {
     await table.waitFor();
     const row = table.locator('tbody tr', { hasText: 'DUNE-1' });
     await row.waitFor();
+    // Listed at once; its yearly rating arrives when the queued screening is done (the page looks again every 10 s).
+    await row.locator('[data-rating]').waitFor({ timeout: 120_000 });
     expect(await row.textContent()).toMatch(/Low|Moderate|High|Severe/);
     // The Overview combines every river; the lease's own page names the river that rated it.
     await row.getByRole('link', { name: 'DUNE-1' }).click();

@@ -1,14 +1,14 @@
 import { useQuery } from '@tanstack/react-query';
+import { useState } from 'react';
 import { Link } from 'react-router-dom';
-import { annualRating, combineAnnualFigures, compareAnnualWorstFirst } from '#shared/scoring/annual-rating';
-import type { Rating } from '#shared/scoring/score-lease';
+import { Button } from '../../components/ui/button';
 import { Cautions } from '../../components/ui/cautions';
 import { PageHeader } from '../../components/ui/page-header';
 import { AnnualRatingExplainer, chanceWords, closureDaysWords } from '../../components/ui/annual-rating';
 import { RatingBadge, RatingLegend } from '../../components/ui/rating-badge';
 import { Empty, LoadError, Loading } from '../../components/ui/states';
 import { useMe } from '../../features/account/api/get-me';
-import { type AnnualRow, exposureKeys } from '../../lib/exposure-api';
+import { leaseKeys } from '../../features/leases/api/leases-api';
 import { fmtDateTime, fmtNumber } from '../../lib/format';
 import { inboxKeys } from '../../lib/inbox-api';
 import { regionKeys } from '../../lib/regions-api';
@@ -20,54 +20,28 @@ const QUESTION = {
   admin: 'Who is using Brackline, and is everything running?',
 } as const;
 
-interface LeaseSummary {
-  leaseId: string;
-  leaseCode: string;
-  annualRating: Rating | null;
-  closureDaysPerYear: number | null;
-  harmfulSalinityChancePerYear: number | null;
-  daysBelowTolerance: number;
-}
-
-/**
- * One row per lease: its yearly figures over every river (closure days added, chances combined as independent
- * rivers, as the server's leases list does) and the yearly rating set from them; worst first.
- */
-function summariseAnnual(rows: AnnualRow[]): LeaseSummary[] {
-  const byLease = new Map<string, AnnualRow[]>();
-  for (const r of rows) byLease.set(r.leaseId, [...(byLease.get(r.leaseId) ?? []), r]);
-  const out: LeaseSummary[] = [];
-  for (const [leaseId, list] of byLease) {
-    const rated = list.every((r) => r.closureDaysPerYear !== null && r.harmfulSalinityChancePerYear !== null);
-    const figures = rated
-      ? combineAnnualFigures(
-          list.map((r) => ({
-            closureDaysPerYear: r.closureDaysPerYear ?? 0,
-            harmfulSalinityChancePerYear: r.harmfulSalinityChancePerYear ?? 0,
-          })),
-        )
-      : null;
-    out.push({
-      leaseId,
-      leaseCode: list[0].leaseCode,
-      annualRating: figures ? annualRating(figures) : null,
-      closureDaysPerYear: figures?.closureDaysPerYear ?? null,
-      harmfulSalinityChancePerYear: figures?.harmfulSalinityChancePerYear ?? null,
-      daysBelowTolerance: list.reduce((sum, r) => sum + (r.expectedDaysPerYear ?? 0), 0),
-    });
-  }
-  return out.sort((a, b) => compareAnnualWorstFirst(a, b) || a.leaseCode.localeCompare(b.leaseCode));
-}
+/** Leases a page of the ranking shows: a jurisdiction of 20 000 leases is read 25 at a time, not all at once. */
+const RANKING_PAGE = 25;
+/** How often the ranking is read again while a lease on the page has no yearly rating yet. */
+const UNRATED_REFRESH_MS = 10_000;
 
 function LeasesByRating() {
-  // Leases uploaded or rivers screened since the last visit change this list: read it again on every visit.
-  const annual = useQuery({ ...exposureKeys.annual(), refetchOnMount: 'always' });
-  if (annual.isPending) return <Loading what="Loading your leases’ ratings…" />;
-  if (annual.isError) return <LoadError error={annual.error} retry={() => annual.refetch()} />;
-  const rows = summariseAnnual(annual.data.items);
-  if (!rows.length) {
+  const [offset, setOffset] = useState(0);
+  // The server ranks (GET /leases?sort=annualRating: the yearly rating over every river, then closure days, then the
+  // chance); leases uploaded or rivers screened since the last visit change it, so it is read again on every visit.
+  const ranked = useQuery({
+    ...leaseKeys.list({ sort: 'annualRating', order: 'desc', limit: RANKING_PAGE, offset }),
+    refetchOnMount: 'always',
+    // A lease just uploaded, or one whose river is being re-screened, gets its rating within a minute or so: look again
+    // while the page shows one without it (a kept answer on the server, so this costs little).
+    refetchInterval: (query) => (query.state.data?.items.some((l) => !l.annualRating) ? UNRATED_REFRESH_MS : false),
+  });
+  if (ranked.isPending) return <Loading what="Loading your leases’ ratings…" />;
+  if (ranked.isError) return <LoadError error={ranked.error} retry={() => ranked.refetch()} />;
+  const { items, total } = ranked.data;
+  if (!total) {
     return (
-      <Empty title="No screened leases yet">
+      <Empty title="No leases yet">
         Upload your lease boundaries on the{' '}
         <Link className="font-semibold text-deep-700 underline" to="/leases">
           Leases
@@ -76,36 +50,57 @@ function LeasesByRating() {
       </Empty>
     );
   }
+  const last = Math.min(offset + items.length, total);
   return (
-    <div className="overflow-x-auto rounded-lg border border-sand-200 bg-white">
-      <table className="w-full border-collapse text-sm" aria-label="Leases by yearly rating">
-        <thead>
-          <tr className="border-b border-sand-200 text-left">
-            <th className="p-2">Lease</th>
-            <th className="p-2">Yearly rating</th>
-            <th className="p-2">Expected closure days a year</th>
-            <th className="p-2">Chance a year of a harmful salinity event</th>
-            <th className="p-2">Expected days a year below salinity tolerance</th>
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((r) => (
-            <tr key={r.leaseId} className="border-b border-shell-100 hover:bg-sand-50">
-              <td className="whitespace-nowrap p-2">
-                <Link className="font-semibold text-deep-700 underline" to={`/leases/${r.leaseId}`}>
-                  {r.leaseCode}
-                </Link>
-              </td>
-              <td className="p-2">
-                {r.annualRating ? <RatingBadge rating={r.annualRating} /> : <span className="text-shell-700">Being re-screened</span>}
-              </td>
-              <td className="p-2">{closureDaysWords(r.closureDaysPerYear)}</td>
-              <td className="p-2">{chanceWords(r.harmfulSalinityChancePerYear)}</td>
-              <td className="p-2">{fmtNumber(r.daysBelowTolerance, r.daysBelowTolerance < 10 ? 1 : 0)}</td>
+    <div className="space-y-2">
+      <div className="overflow-x-auto rounded-lg border border-sand-200 bg-white">
+        <table className="w-full border-collapse text-sm" aria-label="Leases by yearly rating">
+          <thead>
+            <tr className="border-b border-sand-200 text-left">
+              <th className="p-2">Lease</th>
+              <th className="p-2">Yearly rating</th>
+              <th className="p-2">Expected closure days a year</th>
+              <th className="p-2">Chance a year of a harmful salinity event</th>
+              <th className="p-2">Expected days a year below salinity tolerance</th>
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {items.map((r) => (
+              <tr key={r.id} className="border-b border-shell-100 hover:bg-sand-50">
+                <td className="whitespace-nowrap p-2">
+                  <Link className="font-semibold text-deep-700 underline" to={`/leases/${r.id}`}>
+                    {r.leaseId}
+                  </Link>
+                </td>
+                <td className="p-2">
+                  {r.annualRating ? (
+                    <RatingBadge rating={r.annualRating} />
+                  ) : (
+                    <span className="text-shell-700">{r.worstRating ? 'Being re-screened' : 'Not screened by any river yet'}</span>
+                  )}
+                </td>
+                <td className="p-2">{closureDaysWords(r.closureDaysPerYear)}</td>
+                <td className="p-2">{chanceWords(r.harmfulSalinityChancePerYear)}</td>
+                <td className="p-2">{r.expectedDaysPerYear === null ? '—' : fmtNumber(r.expectedDaysPerYear, r.expectedDaysPerYear < 10 ? 1 : 0)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <nav className="flex flex-wrap items-center gap-3 text-sm" aria-label="Pages of the ranking">
+        <span data-testid="ranking-range">
+          {offset + 1}–{last} of {total}
+        </span>
+        <Button type="button" variant="secondary" disabled={offset === 0} onClick={() => setOffset(Math.max(0, offset - RANKING_PAGE))}>
+          Previous {RANKING_PAGE}
+        </Button>
+        <Button type="button" variant="secondary" disabled={last >= total} onClick={() => setOffset(offset + RANKING_PAGE)}>
+          Next {RANKING_PAGE}
+        </Button>
+        <Link className="font-semibold text-deep-700 underline" to="/leases">
+          Every lease, with filters and export
+        </Link>
+      </nav>
     </div>
   );
 }

@@ -1,56 +1,70 @@
 // @vitest-environment jsdom
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { cleanup, render, screen, waitFor, within } from '@testing-library/react';
+import { cleanup, fireEvent, render, screen, waitFor, within } from '@testing-library/react';
 import { MemoryRouter } from 'react-router-dom';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { OverviewPage } from '../../../src/app/routes/overview-page';
 
-const item = (
+const lease = (
+  id: string,
   leaseId: string,
-  leaseCode: string,
-  riverName: string,
+  annualRating: string | null,
   closureDaysPerYear: number | null,
   harmfulSalinityChancePerYear: number | null,
+  worstRating: string | null = annualRating,
 ) => ({
+  id,
   leaseId,
-  leaseCode,
-  riverId: riverName,
-  riverName,
-  expectedDaysPerYear: 1,
-  probabilityAnyExposure: 0.1,
-  indicatorDaysPerYear: closureDaysPerYear,
-  probabilityIndicatorAboveStandard: 0.1,
-  worstRating: 'severe',
+  holder: null,
+  species: 'pacific-oyster',
+  status: 'held',
+  notes: null,
+  ownerId: 'u',
+  ownerName: 'Ida',
+  areaM2: 10000,
+  onLand: false,
+  importId: null,
+  createdAt: '',
+  updatedAt: '',
+  worstRating,
+  expectedDaysPerYear: closureDaysPerYear,
+  probabilityAnyExposure: harmfulSalinityChancePerYear,
+  annualRating,
   closureDaysPerYear,
   harmfulSalinityChancePerYear,
-  annualRating: null, // the page rates each lease over all its rivers itself
-  details: {},
 });
 
-// Hand-made figures; the expected ratings follow the issue #14 cut points (30/10/2 days, 0.5/0.2/0.05 a year).
-const ANNUAL = {
-  items: [
-    item('a', 'FB-LOW', 'Amberlin River', 0.5, 0.01), // low
-    item('b', 'FB-HIGH-DAYS', 'Amberlin River', 12, 0), // high, 12 days
-    item('c', 'FB-SEVERE', 'Amberlin River', 31, 0), // severe
-    item('d', 'FB-HIGH-CHANCE', 'Amberlin River', 12, 0.2), // high, 12 days, higher chance than FB-HIGH-DAYS
-    // Two rivers: 1 + 1.5 closure days = 2.5 → moderate; chances 0.02 and 0.02 → 1 − 0.98² = 0.0396
-    item('e', 'FB-TWO-RIVERS', 'Amberlin River', 1, 0.02),
-    item('e', 'FB-TWO-RIVERS', 'Tolley Brook', 1.5, 0.02),
-    item('f', 'FB-PENDING', 'Amberlin River', null, null), // stored before the yearly rating: last
-  ],
-};
+// The server ranks (tests/server/routes/rivers-screening.test.ts checks its order); the page shows its pages as they come.
+const RANKED = [
+  lease('c', 'FB-SEVERE', 'severe', 31, 0),
+  lease('d', 'FB-HIGH-CHANCE', 'high', 12, 0.2),
+  lease('e', 'FB-TWO-RIVERS', 'moderate', 2.5, 0.0396),
+  lease('f', 'FB-PENDING', null, null, null, 'high'),
+  lease('g', 'FB-FAR', null, null, null, null),
+];
+/** 60 leases in all: the first page holds the five above and twenty more. */
+const TOTAL = 60;
+const requested: URL[] = [];
 
 beforeEach(() => {
+  requested.length = 0;
   vi.stubGlobal(
     'fetch',
     vi.fn(async (url: string) => {
-      const path = new URL(url, 'http://localhost').pathname;
+      const u = new URL(url, 'http://localhost');
+      requested.push(u);
+      const path = u.pathname;
+      const offset = Number(u.searchParams.get('offset') ?? 0);
       const body =
         path === '/api/v1/account/me'
           ? { id: 'u', email: 'grower@brackline.test', name: 'Ida', role: 'grower' }
-          : path === '/api/v1/screenings/annual'
-            ? ANNUAL
+          : path === '/api/v1/leases'
+            ? {
+                total: TOTAL,
+                items: Array.from({ length: Math.min(25, TOTAL - offset) }, (_, k) =>
+                  offset + k < RANKED.length ? RANKED[offset + k] : lease(`x${offset + k}`, `FB-L${offset + k}`, 'low', 0.1, 0.001),
+                ),
+              }
             : path === '/api/v1/overview/closures'
               ? { distanceM: 5000, items: [] }
               : { items: [] };
@@ -75,27 +89,31 @@ function renderOverview() {
 }
 
 describe('Overview', () => {
-  it('ranks leases by the yearly rating, then closure days, then the chance, unrated last', async () => {
+  it('shows the server’s ranking a page of 25 at a time, with the figures the rating comes from', async () => {
     renderOverview();
     const table = await screen.findByRole('table', { name: 'Leases by yearly rating' });
+    const ask = requested.find((u) => u.pathname === '/api/v1/leases')!;
+    expect(Object.fromEntries(ask.searchParams)).toMatchObject({ sort: 'annualRating', order: 'desc', limit: '25', offset: '0', withGeometry: 'false' });
     const rows = within(table).getAllByRole('row').slice(1);
-    expect(rows.map((r) => within(r).getByRole('link').textContent)).toEqual([
-      'FB-SEVERE',
-      'FB-HIGH-CHANCE',
-      'FB-HIGH-DAYS',
-      'FB-TWO-RIVERS',
-      'FB-LOW',
-      'FB-PENDING',
-    ]);
+    expect(rows).toHaveLength(25);
+    expect(rows.slice(0, 5).map((r) => within(r).getByRole('link').textContent)).toEqual(['FB-SEVERE', 'FB-HIGH-CHANCE', 'FB-TWO-RIVERS', 'FB-PENDING', 'FB-FAR']);
     const ratingOf = (r: HTMLElement) => r.querySelector('[data-rating]')?.getAttribute('data-rating') ?? null;
-    expect(rows.map(ratingOf)).toEqual(['severe', 'high', 'high', 'moderate', 'low', null]);
-    // The figures the rating comes from sit beside it.
-    const two = within(rows[3])
+    expect(rows.slice(0, 5).map(ratingOf)).toEqual(['severe', 'high', 'moderate', null, null]);
+    const two = within(rows[2])
       .getAllByRole('cell')
       .map((c) => c.textContent);
     expect(two[2]).toBe('2.5 days');
     expect(two[3]).toBe('4.0% a year (about 1 year in 25)');
-    expect(within(rows[5]).getByText('Being re-screened')).toBeTruthy();
+    expect(within(rows[3]).getByText('Being re-screened')).toBeTruthy();
+    expect(within(rows[4]).getByText('Not screened by any river yet')).toBeTruthy();
+    expect(screen.getByTestId('ranking-range').textContent).toBe('1–25 of 60');
+    // The next page is read from the server, not sliced from a list already held.
+    fireEvent.click(screen.getByRole('button', { name: 'Next 25' }));
+    await waitFor(() => expect(screen.getByTestId('ranking-range').textContent).toBe('26–50 of 60'));
+    expect(requested.some((u) => u.pathname === '/api/v1/leases' && u.searchParams.get('offset') === '25')).toBe(true);
+    fireEvent.click(screen.getByRole('button', { name: 'Next 25' }));
+    await waitFor(() => expect(screen.getByTestId('ranking-range').textContent).toBe('51–60 of 60'));
+    expect((screen.getByRole('button', { name: 'Next 25' }) as HTMLButtonElement).disabled).toBe(true);
   });
 
   it('says how the yearly rating is set, with the cut points and their reasons', async () => {
