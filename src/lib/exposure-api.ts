@@ -5,7 +5,6 @@
  */
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { FeatureCollection } from 'geojson';
-import type { AnnualItem } from '#shared/schemas/annual';
 import type { MapSettings, ZoneMap } from '#shared/schemas/closures';
 import type { Lease } from '#shared/schemas/lease';
 import type { River, Scenario } from '#shared/schemas/river';
@@ -45,8 +44,6 @@ export interface ScreeningRow {
   computedAt: string;
 }
 
-/** One lease × river of GET /screenings/annual (shared/schemas/annual.ts), worst yearly rating first. */
-export type AnnualRow = AnnualItem;
 
 export interface FootprintProperties {
   footprintId: string;
@@ -81,12 +78,6 @@ export const exposureKeys = {
         for (const [k, v] of Object.entries(filter)) if (v) search.set(k, v);
         return api<{ items: ScreeningRow[]; total: number }>(`/screenings?${search}`);
       },
-      staleTime: 30_000,
-    }),
-  annual: () =>
-    queryOptions({
-      queryKey: ['screenings', 'annual'] as const,
-      queryFn: () => api<{ items: AnnualRow[] }>('/screenings/annual'),
       staleTime: 30_000,
     }),
   /** A footprint for a scenario, or for any flow (m³/s): the server builds it once and caches it. */
