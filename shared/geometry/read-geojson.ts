@@ -92,8 +92,8 @@ export function readGeoJson(
   return { layer: { name: layerName(fileName), crs, fields: fields.names, features, count: features.length }, warnings };
 }
 
-/** Bytes handed to the streaming parser at a time. */
-const SLICE = 1 << 20;
+/** Bytes handed to the streaming parser at a time (64 KiB: a slice of features at a time, and a slice of text to check). */
+const SLICE = 1 << 16;
 
 /** What the streaming parser hands over: the root's `type`, `crs` and `features` members, and each item of `features`. */
 const PATHS = ['$.type', '$.crs', '$.features', '$.features.*'];
@@ -138,6 +138,8 @@ function readStreamed(bytes: Uint8Array, fileName: string, limits: Pick<UploadLi
     }
     drop(parent, key);
     current.count++;
+    // Past the first bad item or the limit, items are only counted: the limit's message tells the file's count, and
+    // the rest of the file must still be read for a later syntax error, which the whole read would report first.
     if (current.refusal || current.count > limits.maxFeatures) return;
     try {
       current.fields.add(toFeature(value, key as number).properties);
@@ -159,6 +161,8 @@ function readStreamed(bytes: Uint8Array, fileName: string, limits: Pick<UploadLi
     // Not UTF-8 or not JSON: the whole read tells which, and where.
     return asLazy(readGeoJson(bytes, fileName, limits));
   }
+  // The whole read's verdicts in its order: the root (checkRoot reads only its `type`), the features array, the limit,
+  // the first bad item.
   if (root === 'array') checkRoot([]);
   checkRoot({ type });
   const features = last;
