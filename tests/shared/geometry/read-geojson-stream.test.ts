@@ -54,12 +54,12 @@ function outcome(bytes: Uint8Array, lazy: boolean, limits = LIMITS) {
   }
 }
 
-/** Many features with text that is not ASCII, so that the 1 MiB slices the parser is fed cut through characters. */
+/** Many features with text that is not ASCII, so that the 64 KiB slices the parser is fed cut through characters. */
 function large(count: number): string {
   const features = Array.from({ length: count }, (_, i) => ({
     type: 'Feature',
     id: i,
-    properties: { LEASE_ID: `GRÜN-${i}`, HOLDER: i % 2 ? 'Huîtres de la Vasière' : '牡蠣養殖', NOTE: '✓'.repeat(i % 5) },
+    properties: { LEASE_ID: `GRÜN-${i}`, HOLDER: i % 2 ? 'Huîtres de la Vasière' : '牡蠣養殖場'.repeat(12), NOTE: '✓'.repeat(i % 5) },
     geometry: square(-2.9 + (i % 100) * 0.002, 47.5 + Math.floor(i / 100) * 0.002),
   }));
   return JSON.stringify({ type: 'FeatureCollection', name: 'grün', features });
@@ -106,7 +106,7 @@ const accepted: Record<string, string> = {
   'an empty features array': '{"type":"FeatureCollection","features":[]}',
   'a byte-order mark, whitespace and escapes': `\ufeff \n\t{ "type" : "FeatureCollection" ,\r\n "features" : [ { "type" : "Feature" , "properties" : { "n\\u00e9e" : "a\\"b\\\\c\\/d\\n\\u2713\\ud83d\\ude00" , "e" : 1E3 , "f" : -0 } , "geometry" : null } ] } \n`,
   'U+FEFF inside a property value and a key': `{"type":"FeatureCollection","features":[{"type":"Feature","properties":{"\ufeffLEASE_ID":"\ufeffFB-1","x":"é\ufeff"},"geometry":null}]}`,
-  'several thousand features with text that is not ASCII, past 1 MiB': large(6_000),
+  'several thousand features with text that is not ASCII, over many slices': large(6_000),
 };
 
 describe('streamed GeoJSON read: the same layer as the whole read', () => {
@@ -135,7 +135,7 @@ describe('streamed GeoJSON read: the same layer as the whole read', () => {
     }
   });
 
-  it('states the features as the whole read does for the fixtures that need it', () => {
+  it('keeps ids, field order, a __proto__ key, the last features member, a late crs and U+FEFF', () => {
     const ids = readGeoJson(enc(accepted['string and number ids kept, other ids dropped']), 'a.geojson', LIMITS, { lazy: true });
     expect(gathered(ids, 10)[0].map((f) => f.id)).toEqual(['a-1', 7, undefined, undefined, -0.5]);
     const mixed = readGeoJson(enc(accepted['fields in mixed order, first appearance counting']), 'a.geojson', LIMITS, { lazy: true });
@@ -151,6 +151,14 @@ describe('streamed GeoJSON read: the same layer as the whole read', () => {
     expect(late.warnings).toHaveLength(1);
     const bom = readGeoJson(enc(accepted['U+FEFF inside a property value and a key']), 'a.geojson', LIMITS, { lazy: true });
     expect(gathered(bom, 1)[0][0].properties).toEqual({ '\ufeffLEASE_ID': '\ufeffFB-1', x: 'é\ufeff' });
+  });
+
+  it('has a large fixture whose 64 KiB slices (the reader’s) cut through characters', () => {
+    const bytes = enc(accepted['several thousand features with text that is not ASCII, over many slices']);
+    const cuts = Array.from({ length: Math.floor(bytes.length / 65_536) }, (_, k) => bytes[(k + 1) * 65_536]).filter(
+      (b) => (b & 0xc0) === 0x80,
+    );
+    expect(cuts.length).toBeGreaterThan(0);
   });
 
   it('builds the features again on every pass, from the bytes', () => {
