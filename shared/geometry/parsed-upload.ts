@@ -35,8 +35,8 @@ export interface ParsedLayer {
   /** Features in the SOURCE CRS, 2-D, rings closed, properties JSON-safe. Empty when the layer is streamed (see `stream`). */
   features: Feature<Geometry>[];
   /**
-   * A shapefile layer read with `stream` (readUpload's option): its features are not held but built again, checked and
-   * normalised, one chunk at a time. Not JSON.
+   * A shapefile or GeoJSON layer read with `stream` (readUpload's option): its features are not held but built again,
+   * checked and normalised, one chunk at a time. Not JSON.
    */
   stream?: StreamedFeatures;
   /** Text encoding used for the .dbf (a WHATWG label such as 'utf-8' or 'windows-1252'); absent for GeoJSON. */

@@ -37,17 +37,17 @@ export interface ReadUploadOptions {
   /** GPX: the user confirmed that each track or route outlines an area (lease and zone uploads). */
   tracksAsPolygons?: boolean;
   /**
-   * Shapefile layers come back streamed (`features` empty, `stream` set): checked here chunk by chunk, then built
-   * again chunk by chunk by whoever stages them, so all of a layer's features never exist at once. The verdicts and
-   * messages are those of the whole read. Other formats are read whole either way.
+   * Shapefile and GeoJSON layers come back streamed (`features` empty, `stream` set): checked here chunk by chunk, then
+   * built again chunk by chunk by whoever stages them, so all of a layer's features never exist at once. The verdicts
+   * and messages are those of the whole read. Other formats are read whole either way.
    */
   stream?: boolean;
 }
 
-/** Features built at a time when a streamed shapefile layer is checked. */
+/** Features built at a time when a streamed layer is checked. */
 const STREAM_CHUNK = 2_000;
 
-/** @private A layer as a reader returned it: whole, or (a streamed shapefile) as chunks. */
+/** @private A layer as a reader returned it: whole, or (a streamed shapefile or GeoJSON file) as chunks. */
 interface RawLayer {
   name: string;
   crs: CrsInfo;
@@ -151,7 +151,7 @@ export async function readUpload(
       raw.push(...xml.layers);
     } else {
       format = 'geojson';
-      const json = readGeoJson(bytes, fileName, lim);
+      const json = readGeoJson(bytes, fileName, lim, { lazy: options?.stream === true });
       warnings.push(...json.warnings);
       raw.push(json.layer);
       if (/\.zip$/i.test(fileName)) warnings.push(`${fileName} is named .zip but holds GeoJSON text; it was read as GeoJSON.`);

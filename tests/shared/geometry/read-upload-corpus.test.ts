@@ -32,49 +32,57 @@ interface ManifestEntry {
 const root = path.resolve(import.meta.dirname, '../../fixtures/uploads');
 const load = (folder: string): ManifestEntry[] => JSON.parse(readFileSync(path.join(root, folder, 'manifest.json'), 'utf8'));
 
-describe.each(['bad', 'needs-crs', 'repairable', 'warnings', 'good'])('upload corpus: %s/', (folder) => {
-  const manifest = load(folder);
+const folders = ['bad', 'needs-crs', 'repairable', 'warnings', 'good'];
 
-  it('has a manifest line for every file and a file for every line', async () => {
-    const { readdirSync } = await import('node:fs');
-    const files = readdirSync(path.join(root, folder)).filter((f) => f !== 'manifest.json');
-    expect(manifest.map((m) => m.file).sort()).toEqual(files.sort());
-  });
+// Every file read whole, and read streamed as the server reads it (shapefile and GeoJSON layers chunk by chunk): the
+// same outcome either way.
+describe.each(folders.flatMap((folder) => [false, true].map((stream) => ({ folder, stream, mode: stream ? 'streamed' : 'whole' }))))(
+  'upload corpus: $folder/ ($mode)',
+  ({ folder, stream }) => {
+    const manifest = load(folder);
 
-  it.each(manifest.map((m) => [m.file, m] as const))('%s', async (_file, entry) => {
-    const bytes = new Uint8Array(readFileSync(path.join(root, folder, entry.file)));
-    const result = await runUploadPipeline(bytes, entry.file, entry.kind, entry.limits, entry.expectedBbox, entry.options);
-    if (entry.expectStatus !== 200) {
-      expect(result.error, `${entry.file} should fail: ${entry.why}`).toBeDefined();
-      expect(result.error!.status).toBe(entry.expectStatus);
-      expect(result.error!.code).toBe(entry.expectCode);
-      expect(result.error!.message).toMatch(new RegExp(entry.expectMessage!));
-      return;
-    }
-    expect(result.error?.message, `${entry.file} should be accepted: ${entry.why}`).toBeUndefined();
-    const parsed = result.parsed!;
-    if (entry.expectCrsFound !== undefined) expect(parsed.layers.every((l) => l.crs.found === entry.expectCrsFound)).toBe(true);
-    if (entry.expectEpsg !== undefined) expect(parsed.layers[0].crs.epsg).toBe(entry.expectEpsg);
-    if (entry.expectLayers !== undefined) expect(parsed.layers).toHaveLength(entry.expectLayers);
-    if (entry.expectFeatureCount !== undefined)
-      expect(parsed.layers.reduce((n, l) => n + l.features.length, 0)).toBe(entry.expectFeatureCount);
-    if (entry.expectProperty) {
-      const p = entry.expectProperty;
-      expect(parsed.layers[p.layer ?? 0].features[p.index].properties?.[p.field]).toBe(p.value);
-    }
-    if (entry.expectWarning)
-      expect(
-        result.warnings.some((w) => new RegExp(entry.expectWarning!).test(w)),
-        result.warnings.join('\n'),
-      ).toBe(true);
-    if (entry.expectNoWarning) expect(result.warnings.filter((w) => new RegExp(entry.expectNoWarning!).test(w))).toEqual([]);
-  });
-});
+    it('has a manifest line for every file and a file for every line', async () => {
+      const { readdirSync } = await import('node:fs');
+      const files = readdirSync(path.join(root, folder)).filter((f) => f !== 'manifest.json');
+      expect(manifest.map((m) => m.file).sort()).toEqual(files.sort());
+    });
+
+    it.each(manifest.map((m) => [m.file, m] as const))('%s', async (_file, entry) => {
+      const bytes = new Uint8Array(readFileSync(path.join(root, folder, entry.file)));
+      const result = await runUploadPipeline(bytes, entry.file, entry.kind, entry.limits, entry.expectedBbox, entry.options, stream);
+      if (entry.expectStatus !== 200) {
+        expect(result.error, `${entry.file} should fail: ${entry.why}`).toBeDefined();
+        expect(result.error!.status).toBe(entry.expectStatus);
+        expect(result.error!.code).toBe(entry.expectCode);
+        expect(result.error!.message).toMatch(new RegExp(entry.expectMessage!));
+        return;
+      }
+      expect(result.error?.message, `${entry.file} should be accepted: ${entry.why}`).toBeUndefined();
+      const parsed = result.parsed!;
+      if (entry.expectCrsFound !== undefined) expect(parsed.layers.every((l) => l.crs.found === entry.expectCrsFound)).toBe(true);
+      if (entry.expectEpsg !== undefined) expect(parsed.layers[0].crs.epsg).toBe(entry.expectEpsg);
+      if (entry.expectLayers !== undefined) expect(parsed.layers).toHaveLength(entry.expectLayers);
+      if (entry.expectFeatureCount !== undefined)
+        expect(parsed.layers.reduce((n, l) => n + l.features.length, 0)).toBe(entry.expectFeatureCount);
+      if (entry.expectProperty) {
+        const p = entry.expectProperty;
+        expect(parsed.layers[p.layer ?? 0].features[p.index].properties?.[p.field]).toBe(p.value);
+      }
+      if (entry.expectWarning)
+        expect(
+          result.warnings.some((w) => new RegExp(entry.expectWarning!).test(w)),
+          result.warnings.join('\n'),
+        ).toBe(true);
+      if (entry.expectNoWarning) expect(result.warnings.filter((w) => new RegExp(entry.expectNoWarning!).test(w))).toEqual([]);
+    });
+  },
+);
 
 describe('upload corpus: size', () => {
   it('has at least 10 bad files of each open format (KML, KMZ, GPX, GeoPackage)', () => {
     const files = load('bad').map((m) => m.file);
-    for (const ext of ['.kml', '.kmz', '.gpx', '.gpkg']) expect(files.filter((f) => f.endsWith(ext)).length, ext).toBeGreaterThanOrEqual(10);
+    for (const ext of ['.kml', '.kmz', '.gpx', '.gpkg'])
+      expect(files.filter((f) => f.endsWith(ext)).length, ext).toBeGreaterThanOrEqual(10);
   });
 
   it('has at least 25 bad files, and a needs-crs, repairable, warnings and good folder', () => {

@@ -1,7 +1,7 @@
 /**
- * The streamed shapefile read (readUpload's `stream` option): features built chunk by chunk from the .shp
- * records and .dbf rows must be the features the whole read returns, and a refusal found in the last chunk
- * must be the whole read's refusal, word for word. Byte layouts: ESRI Shapefile Technical Description (1998) —
+ * The streamed shapefile and GeoJSON reads (readUpload's `stream` option): features built chunk by chunk from the
+ * .shp records and .dbf rows, or parsed again from the GeoJSON text, must be the features the whole read returns, and
+ * a refusal found in the last chunk must be the whole read's refusal, word for word. Byte layouts: ESRI Shapefile Technical Description (1998) —
  * a record header is 8 bytes (number, content length; big-endian), then the shape type (int32 LE), 0 for a
  * null shape; dBASE III table: 32-byte header, 32-byte field descriptors, 0x0D, then fixed-width rows.
  */
@@ -134,5 +134,65 @@ describe('streamed shapefile read', () => {
       wholeError = e;
     }
     expect(() => limited.finish()).toThrow((wholeError as Error).message);
+  });
+});
+
+describe('streamed GeoJSON read', () => {
+  const square = (x: number, y: number, d: number) => [
+    [x, y],
+    [x + d, y],
+    [x + d, y + d],
+    [x, y + d],
+    [x, y],
+  ];
+  /** `count` squares in EPSG:3857 (an old-style crs member), every 9th one a MultiPolygon of two; feature `nullAt` has no geometry. */
+  const collection = (count: number, nullAt?: number) => {
+    const features = Array.from({ length: count }, (_, i) => {
+      const x = -330_000 + i * 50;
+      const geometry =
+        i === nullAt
+          ? null
+          : i % 9
+            ? { type: 'Polygon', coordinates: [square(x, 6_000_000, 40)] }
+            : { type: 'MultiPolygon', coordinates: [[square(x, 6_000_000, 40)], [square(x, 6_000_100, 20)]] };
+      return {
+        type: 'Feature',
+        id: `L-${i}`,
+        properties: i % 4 ? { LEASE_ID: `STR-${i + 1}`, HOLDER: 'Huîtres Vasière' } : null,
+        geometry,
+      };
+    });
+    return enc(JSON.stringify({ type: 'FeatureCollection', features, crs: { type: 'name', properties: { name: 'EPSG:3857' } } }));
+  };
+
+  it('yields the same features, counts, types and warnings as the whole read, in chunks no larger than asked', async () => {
+    const bytes = collection(4_500);
+    const whole = await readUpload(bytes, 'leases.geojson', 'lease');
+    const streamed = await readUpload(bytes, 'leases.geojson', 'lease', undefined, { stream: true });
+    expect(streamed.format).toBe('geojson');
+    expect(streamed.layers[0].features).toEqual([]);
+    expect([...layerChunks(streamed.layers[0], 2_000)].map((c) => c.length)).toEqual([2_000, 2_000, 500]);
+    expect(everyFeature(streamed, 2_000)).toEqual(whole.layers[0].features);
+    expect(everyFeature(streamed, 333)).toEqual(whole.layers[0].features);
+    expect(layerFeatureCount(streamed.layers[0])).toBe(4_500);
+    expect(layerGeometryTypes(streamed.layers[0])).toEqual(['MultiPolygon', 'Polygon']);
+    expect(streamed.layers[0].vertexCount).toBe(whole.layers[0].vertexCount);
+    expect(streamed.warnings).toEqual(whole.warnings);
+    expect(streamed.warnings[0]).toMatch(/"crs" member says its coordinates are in EPSG:3857/);
+    expect({ ...streamed.layers[0], features: undefined, stream: undefined }).toEqual({ ...whole.layers[0], features: undefined });
+  });
+
+  it('refuses a null geometry in the last chunk with the whole read’s message', async () => {
+    const bytes = collection(4_500, 4_499);
+    const whole = await refusal(readUpload(bytes, 'leases.geojson', 'lease'));
+    const streamed = await refusal(readUpload(bytes, 'leases.geojson', 'lease', undefined, { stream: true }));
+    expect(streamed).toEqual(whole);
+    expect(streamed.code).toBe('null_geometry');
+  });
+
+  it('reads GeoJSON whole without the option', async () => {
+    const parsed = await readUpload(collection(3), 'leases.geojson', 'lease');
+    expect(parsed.layers[0].stream).toBeUndefined();
+    expect(parsed.layers[0].features).toHaveLength(3);
   });
 });

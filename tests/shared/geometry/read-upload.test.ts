@@ -8,7 +8,13 @@ import { describe, expect, it } from 'vitest';
 import { readDbf, encodingFromCpg } from '../../../shared/geometry/read-dbf';
 import { readPrj, wktAuthorityCode, wktName } from '../../../shared/geometry/read-prj';
 import { checkShp, parseCheckedShp } from '../../../shared/geometry/read-shp';
-import { DEFAULT_UPLOAD_LIMITS, detectFormat, readUpload } from '../../../shared/geometry/read-upload';
+import {
+  DEFAULT_UPLOAD_LIMITS,
+  detectFormat,
+  layerChunks,
+  type ParsedUpload,
+  readUpload,
+} from '../../../shared/geometry/read-upload';
 import { crc32, inflateEntries, isIgnorableEntry, listZipEntries } from '../../../shared/geometry/unzip-entries';
 import { isUploadError, UploadError } from '../../../shared/geometry/upload-error';
 import { formatBytes, formatCount, listSome, resolveUploadLimits } from '../../../shared/geometry/upload-limits';
@@ -105,8 +111,10 @@ describe('limits and number formats', () => {
     expect(() => resolveUploadLimits({ maxFeatures: 0 })).toThrow(RangeError);
     expect(() => resolveUploadLimits({ maxVertices: Number.NaN })).toThrow(RangeError);
   });
-  it('states the example message of the brief for 61 204 features', async () => {
-    const e = await failure(readUpload(fc(Array.from({ length: 61_204 }, () => feature(null))), 'big.geojson', 'lease'));
+  it.each([false, true])('states the example message of the brief for 61 204 features (streamed: %s)', async (stream) => {
+    const e = await failure(
+      readUpload(fc(Array.from({ length: 61_204 }, () => feature(null))), 'big.geojson', 'lease', undefined, { stream }),
+    );
     expect(e.message).toBe(
       'The file has 61 204 features; this server takes at most 50 000 per upload (setting UPLOAD_MAX_FEATURES). Split the file and upload the parts.',
     );
@@ -141,9 +149,19 @@ describe('detectFormat (zip local header "PK\\x03\\x04", APPNOTE 4.3.7; JSON tex
   });
 });
 
-describe('readUpload: GeoJSON details', () => {
+// Every case read whole, and streamed as the server reads it (the features gathered from the layer's chunks).
+describe.each([
+  { mode: 'whole', stream: false },
+  { mode: 'streamed', stream: true },
+])('readUpload: GeoJSON details ($mode)', ({ stream }) => {
+  async function read(...[bytes, fileName, kind, limits, options]: Parameters<typeof readUpload>): Promise<ParsedUpload> {
+    const parsed = await readUpload(bytes, fileName, kind, limits, { ...options, stream });
+    for (const l of parsed.layers) expect(l.stream !== undefined).toBe(stream);
+    return { ...parsed, layers: parsed.layers.map((l) => ({ ...l, features: [...layerChunks(l, 2)].flat() })) };
+  }
+
   it('keeps ids, turns null properties into {}, lists fields in order of first appearance', async () => {
-    const parsed = await readUpload(
+    const parsed = await read(
       fc([
         feature(square(), { LEASE_ID: 'FB-014', HOLDER: 'Saltreed Oysters' }, 'a'),
         feature(square(-2.9), null, 7),
@@ -163,31 +181,31 @@ describe('readUpload: GeoJSON details', () => {
     expect(layer.encoding).toBeUndefined();
   });
   it('accepts OGC CRS84 silently, warns about an unrecognised crs member', async () => {
-    const crs84 = await readUpload(
+    const crs84 = await read(
       fc([feature(square())], { crs: { type: 'name', properties: { name: 'urn:ogc:def:crs:OGC:1.3:CRS84' } } }),
       'a.geojson',
       'lease',
     );
     expect(crs84.warnings).toEqual([]);
-    const odd = await readUpload(fc([feature(square())], { crs: { type: 'link', properties: { href: 'x' } } }), 'a.geojson', 'lease');
+    const odd = await read(fc([feature(square())], { crs: { type: 'link', properties: { href: 'x' } } }), 'a.geojson', 'lease');
     expect(odd.warnings[0]).toMatch(/old-style "crs" member that does not name an EPSG code/);
     expect(odd.layers[0].crs.epsg).toBe(4326);
   });
   it('refuses items that are not Features and a collection without features', async () => {
-    expect((await failure(readUpload(fc([square()]), 'a.geojson', 'lease'))).message).toMatch(
+    expect((await failure(read(fc([square()]), 'a.geojson', 'lease'))).message).toMatch(
       /^Item 0 of "features" \(counting from 0\) is not a GeoJSON Feature: it is of type "Polygon"/,
     );
-    expect((await failure(readUpload(enc('{"type":"FeatureCollection"}'), 'a.geojson', 'lease'))).code).toBe('invalid_geojson');
-    expect((await failure(readUpload(fc([feature(square(), 'x' as never)]), 'a.geojson', 'lease'))).message).toMatch(
+    expect((await failure(read(enc('{"type":"FeatureCollection"}'), 'a.geojson', 'lease'))).code).toBe('invalid_geojson');
+    expect((await failure(read(fc([feature(square(), 'x' as never)]), 'a.geojson', 'lease'))).message).toMatch(
       /"properties" that are not an object/,
     );
   });
   it('refuses GeometryCollections for every kind', async () => {
     const gc = { type: 'GeometryCollection', geometries: [square()] };
-    expect((await failure(readUpload(fc([feature(gc)]), 'a.geojson', 'coast'))).code).toBe('wrong_geometry_type');
+    expect((await failure(read(fc([feature(gc)]), 'a.geojson', 'coast'))).code).toBe('wrong_geometry_type');
   });
   it('lets a coast mix lines and polygons, and checks line lengths', async () => {
-    const ok = await readUpload(
+    const ok = await read(
       fc([
         feature(square()),
         feature({
@@ -204,21 +222,21 @@ describe('readUpload: GeoJSON details', () => {
       'coast',
     );
     expect(ok.layers[0].features).toHaveLength(2);
-    const e = await failure(readUpload(fc([feature({ type: 'LineString', coordinates: [[0, 0]] })]), 'a.geojson', 'coast'));
+    const e = await failure(read(fc([feature({ type: 'LineString', coordinates: [[0, 0]] })]), 'a.geojson', 'coast'));
     expect(e.code).toBe('invalid_geometry');
     expect(e.message).toMatch(/its line with only 1 position/);
   });
   it('warns when GeoJSON arrives under a .zip name', async () => {
-    const parsed = await readUpload(fc([feature(square())]), 'leases.zip', 'lease');
+    const parsed = await read(fc([feature(square())]), 'leases.zip', 'lease');
     expect(parsed.warnings).toContain('leases.zip is named .zip but holds GeoJSON text; it was read as GeoJSON.');
   });
   it('refuses an unknown kind as a programming error', async () => {
-    await expect(readUpload(fc([feature(square())]), 'a.geojson', 'river' as never)).rejects.toThrow(RangeError);
+    await expect(read(fc([feature(square())]), 'a.geojson', 'river' as never)).rejects.toThrow(RangeError);
   });
   it('does not change the caller’s bytes', async () => {
     const bytes = fc([feature(square())]);
     const copy = bytes.slice();
-    await readUpload(bytes, 'a.geojson', 'lease');
+    await read(bytes, 'a.geojson', 'lease');
     expect(bytes).toEqual(copy);
   });
 });
