@@ -156,7 +156,7 @@ export function createImportsService(deps: {
         toAppError(err);
       }
       let at = 0;
-      // A streamed shapefile layer builds each chunk's features here, from the file's bytes: they never all exist at once.
+      // A streamed layer (shapefile, GeoJSON) builds each chunk's features here, from the file's bytes: they never all exist at once.
       for (const source of layerChunks(layer, STAGE_CHUNK)) {
         let chunk: Feature<Geometry>[];
         try {
