@@ -95,6 +95,9 @@ function fieldsOf(parsed: ParsedUpload): string[] {
   return [...new Set(parsed.layers.flatMap((l) => l.fields))];
 }
 
+/** Every column of an import but the file itself: the file is read only when it must be parsed again. */
+const IMPORT_COLUMNS = sql.raw('id, kind, owner_id, jurisdiction_id, file_name, status, crs, summary');
+
 /** Features reprojected, checked and stored at a time: bounds the memory staging takes (see stage). */
 const STAGE_CHUNK = 2_000;
 /** Features the preview carries itself (the file's first); GET /imports/:id/features pages through the rest. */
@@ -122,7 +125,7 @@ export function createImportsService(deps: {
   };
 
   async function loadImport(user: CurrentUser, id: string): Promise<ImportRow> {
-    const res = await db.execute<ImportRow>(sql`SELECT * FROM imports WHERE id = ${id}::uuid`);
+    const res = await db.execute<ImportRow>(sql`SELECT ${IMPORT_COLUMNS} FROM imports WHERE id = ${id}::uuid`);
     const row = res.rows[0];
     // Someone else's upload answers 404, as if it did not exist.
     if (!row || row.owner_id !== user.id) throw new NotFoundError('No upload with this id belongs to you. Upload the file again.');
@@ -203,7 +206,7 @@ export function createImportsService(deps: {
   }
 
   async function describe(id: string) {
-    const res = await db.execute<ImportRow>(sql`SELECT * FROM imports WHERE id = ${id}::uuid`);
+    const res = await db.execute<ImportRow>(sql`SELECT ${IMPORT_COLUMNS} FROM imports WHERE id = ${id}::uuid`);
     const row = res.rows[0];
     const staged = row.status !== 'needs-crs';
     // The first features and figures over all of them: a 50 000-feature preview is as small as a 500-feature one.

@@ -70,7 +70,7 @@ export async function findEmptyAfterRepair(tx: Tx, importId: string): Promise<{ 
 /** Flags leases or zones that lie wholly on land, where the owner can see a land-polygon coast. */
 export async function flagOnLand(tx: Tx, importId: string, ownerId: string, jurisdictionId: string | null): Promise<number> {
   const res = await tx.execute(sql`
-    WITH land AS (
+    WITH land AS MATERIALIZED (
       SELECT ST_Union(geom) AS g FROM coasts
        WHERE form = 'land' AND (owner_id = ${ownerId} OR (shared AND jurisdiction_id IS NOT DISTINCT FROM ${jurisdictionId}::uuid))
     )
