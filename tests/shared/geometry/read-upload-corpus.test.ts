@@ -3,7 +3,8 @@
  * and checks each file's outcome through the whole pipeline (read, reproject, coordinate checks): the
  * status, the error code, the message (a regex from the manifest) and, for accepted files, the CRS,
  * counts, a decoded property and the warnings. Reference for every expectation: the manifest line's
- * `why`, which states the rule (RFC 7946, the ESRI shapefile technical description, dBASE, APPNOTE).
+ * `why`, which states the rule (RFC 7946, the ESRI shapefile technical description, dBASE, APPNOTE). Every file
+ * goes through both reads: whole, and streamed (readUpload's `stream`, zipped shapefiles inflated range by range).
  */
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
@@ -41,9 +42,10 @@ describe.each(['bad', 'needs-crs', 'repairable', 'warnings', 'good'])('upload co
     expect(manifest.map((m) => m.file).sort()).toEqual(files.sort());
   });
 
-  it.each(manifest.map((m) => [m.file, m] as const))('%s', async (_file, entry) => {
+  it.each(manifest.flatMap((m) => (['whole', 'streamed'] as const).map((read) => [m.file, read, m] as const)))('%s (%s read)', async (_file, read, entry) => {
     const bytes = new Uint8Array(readFileSync(path.join(root, folder, entry.file)));
-    const result = await runUploadPipeline(bytes, entry.file, entry.kind, entry.limits, entry.expectedBbox, entry.options);
+    const options = { ...entry.options, stream: read === 'streamed' };
+    const result = await runUploadPipeline(bytes, entry.file, entry.kind, entry.limits, entry.expectedBbox, options);
     if (entry.expectStatus !== 200) {
       expect(result.error, `${entry.file} should fail: ${entry.why}`).toBeDefined();
       expect(result.error!.status).toBe(entry.expectStatus);
