@@ -122,24 +122,24 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?
   const wanted = layersFiles.flatMap((g) =>
     SIBLINGS.filter((ext) => ext !== 'shx').flatMap((ext) => (g.entries[ext] ? [g.entries[ext]!] : [])),
   );
-  const opened = options?.lazy ? openStreamed(zip, layersFiles, wanted, limits) : openWhole(zip, layersFiles, wanted, limits);
+  const openedLayers = options?.lazy ? openStreamed(zip, layersFiles, wanted, limits) : openWhole(zip, layersFiles, wanted, limits);
 
   // Structure first, for every layer: counts are known before any geometry is built.
   const checked: { files: LayerFiles; name: string; shp: ShpCheck; opened: OpenedLayer }[] = [];
   let featureTotal = 0;
   let vertexTotal = 0;
   for (let i = 0; i < layersFiles.length; i++) {
-    const shp = opened[i].checkShp();
+    const shp = openedLayers[i].checkShp();
     warnings.push(...shp.warnings);
     featureTotal += shp.records;
     vertexTotal += shp.vertices;
-    checked.push({ files: layersFiles[i], name: names[i], shp, opened: opened[i] });
+    checked.push({ files: layersFiles[i], name: names[i], shp, opened: openedLayers[i] });
   }
   if (featureTotal > limits.maxFeatures) throw featureLimitError(featureTotal, limits);
   if (vertexTotal > limits.maxVertices) throw vertexLimitError(vertexTotal, limits, true);
 
   const layers: ShapefileLayer[] = [];
-  for (const { files: g, name, shp, opened: files } of checked) {
+  for (const { files: g, name, shp, opened } of checked) {
     const shpLabel = g.entries.shp!.path;
     if (!g.entries.shx) {
       warnings.push(
@@ -148,7 +148,7 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?
     }
     let crs: CrsInfo;
     if (g.entries.prj) {
-      const reading = readPrj(files.text(g.entries.prj)!, g.entries.prj.path);
+      const reading = readPrj(opened.text(g.entries.prj)!, g.entries.prj.path);
       crs = reading.crs;
       warnings.push(...reading.warnings);
     } else {
@@ -158,7 +158,7 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?
           'or zip the .prj with the other files and upload again.',
       );
     }
-    const dbf = files.openDbf(files.text(g.entries.cpg));
+    const dbf = opened.openDbf(opened.text(g.entries.cpg));
     warnings.push(...dbf.warnings);
     if (dbf.records !== shp.records) {
       throw new UploadError(
@@ -169,7 +169,7 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?
       );
     }
     const chunks = function* (size: number): Generator<Feature<Geometry | null>[]> {
-      const sources = files.sources();
+      const sources = opened.sources();
       for (let at = 0; at < shp.records; at += size) {
         const to = Math.min(shp.records, at + size);
         const rows = dbf.rows(at, to, sources.dbf);
@@ -184,7 +184,7 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?
     }
     // Whole: the inflated table can be tens of MB (writers pad text columns to their full width); let the files go once read.
     const features = [...chunks(Math.max(1, shp.records))].flat();
-    files.release();
+    opened.release();
     layers.push({ ...layer, features });
   }
   return { layers, warnings };
@@ -239,7 +239,7 @@ function openStreamed(zip: Uint8Array, layers: LayerFiles[], wanted: ZipEntryInf
     return outcome;
   };
   const keepText = (reader: EntryReader) => new TextDecoder('utf-8').decode(reader.subarray(0, reader.length));
-  const opened = layers.map((g): OpenedLayer => {
+  return layers.map((g): OpenedLayer => {
     const shpEntry = g.entries.shp!;
     const dbfEntry = g.entries.dbf!;
     const shp = pass(shpEntry, (reader) => checkShp(reader, shpEntry.path))!;
@@ -257,7 +257,6 @@ function openStreamed(zip: Uint8Array, layers: LayerFiles[], wanted: ZipEntryInf
       release: () => {},
     };
   });
-  return opened;
 }
 
 /** @private */
