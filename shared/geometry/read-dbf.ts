@@ -3,7 +3,8 @@
  * Reads a shapefile's attribute table (.dbf, dBASE III/IV level 5) into plain JSON rows. The header is
  * checked first (so a truncated or corrupt table is refused with its file named, instead of yielding
  * garbage), the text encoding is chosen (.cpg if present, otherwise UTF-8, falling back to windows-1252
- * when the bytes are not UTF-8), and the rows are decoded by the shapefile library's parseDbf.
+ * when the bytes are not UTF-8), and the rows are decoded by the shapefile library's parseDbf. The checks read the
+ * table once, forward, from a {@link ByteSource}: the inflated file, or a zip entry read range by range.
  *
  * Layout (dBASE file header, ESRI Shapefile Technical Description 1998 + dBASE III PLUS format, (a)):
  * byte 0 version, 4–7 record count (uint32 LE), 8–9 header length, 10–11 record length, then 32-byte
@@ -11,6 +12,7 @@
  * a deletion flag byte.
  */
 import { parseDbf } from 'shpjs';
+import type { ByteSource } from './byte-source';
 import { UploadError } from './upload-error';
 import { formatCount } from './upload-limits';
 
@@ -25,13 +27,33 @@ export interface DbfReading {
   warnings: string[];
 }
 
-/** One field descriptor. @private */
-interface FieldDescriptor {
+/** One field descriptor. */
+export interface DbfField {
+  /** The name as stored (NULs cut off), not yet decoded. */
   nameBytes: Uint8Array;
+  /** dBASE type letter, upper case: C character, N numeric, D date, L logical… */
   type: string;
+  /** Width in the record [bytes]. */
   length: number;
 }
 
+/** The result of {@link checkDbf}: what one pass over a .dbf keeps to choose its encoding and decode its rows. */
+export interface DbfCheck {
+  /** Rows the header declares (all present: checked). */
+  records: number;
+  /** Header length [bytes] (offset of the first row). */
+  headerLength: number;
+  /** Row length [bytes], the deletion flag included. */
+  recordLength: number;
+  /** The header's bytes (a copy): the 32-byte file header, the field descriptors and their 0x0D end. */
+  header: Uint8Array;
+  fields: DbfField[];
+  /** The text (column names and character columns): all ASCII, valid UTF-8 with other characters, or not UTF-8. */
+  text: 'ascii' | 'utf8' | 'invalid';
+}
+
+/** Rows are classified in blocks of about this many bytes [bytes] (at least one row). */
+const TEXT_BLOCK_BYTES = 65_536;
 const FIX_ADVICE = 'Export the layer again from your GIS and zip all of its files (.shp, .shx, .dbf, .prj, .cpg) together.';
 
 /**
@@ -45,7 +67,7 @@ const FIX_ADVICE = 'Export the layer again from your GIS and zip all of its file
  * @example
  * readDbf(dbfBytes, 'leases.dbf', 'UTF-8').rows[0] // { LEASE_ID: 'FB-014', HOLDER: 'Saltreed Oysters' }
  */
-export function readDbf(bytes: Uint8Array, fileLabel: string, cpg?: string): DbfReading {
+export function readDbf(bytes: ByteSource, fileLabel: string, cpg?: string): DbfReading {
   const table = openDbf(bytes, fileLabel, cpg);
   return { fields: table.fields, rows: table.rows(0, table.records), encoding: table.encoding, warnings: table.warnings };
 }
@@ -57,36 +79,58 @@ export interface DbfTable {
   warnings: string[];
   /** Number of rows the header declares (all present: checked). */
   records: number;
-  /** Decodes rows [from, to) (counting from 0), JSON-safe as in {@link DbfReading}. */
-  rows: (from: number, to: number) => Record<string, string | number | boolean | null>[];
+  /**
+   * Decodes rows [from, to) (counting from 0), JSON-safe as in {@link DbfReading}, read from `source` (by default
+   * the bytes the table was opened on; required when it was opened from a check alone).
+   */
+  rows: (from: number, to: number, source?: ByteSource) => Record<string, string | number | boolean | null>[];
 }
 
 /**
  * Checks a .dbf's header, chooses its text encoding over the whole table, and returns a reader of row
  * ranges, so a caller can hold the decoded rows of one range at a time (the streaming shapefile reader).
  *
- * @param bytes - the .dbf file (kept by the returned reader).
+ * @param bytes - the .dbf file, or a source of its bytes (kept by the returned reader).
  * @param fileLabel - how to name the file in messages.
  * @param cpg - the .cpg text, when the zip has one.
  * @throws UploadError corrupt_dbf as {@link readDbf}; the row reader throws it when rows do not decode.
  * @example
  * openDbf(dbfBytes, 'leases.dbf').rows(0, 2).length // 2
  */
-export function openDbf(bytes: Uint8Array, fileLabel: string, cpg?: string): DbfTable {
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  if (bytes.length < 32) {
+export function openDbf(bytes: ByteSource, fileLabel: string, cpg?: string): DbfTable {
+  return openCheckedDbf(checkDbf(bytes, fileLabel), fileLabel, cpg, bytes);
+}
+
+/**
+ * Checks a .dbf's header and classifies its text as UTF-8 or not, in one forward pass over the file (the header,
+ * then the rows in blocks), keeping only the header and the classification.
+ *
+ * @param bytes - the .dbf file, or a source of its bytes (read once, in increasing order).
+ * @param fileLabel - how to name the file in messages.
+ * @returns what {@link openCheckedDbf} needs to choose the encoding and decode rows.
+ * @throws UploadError corrupt_dbf when the header or the table is truncated or inconsistent.
+ * @example
+ * checkDbf(dbfBytes, 'leases.dbf') // { records: 4, headerLength: 129, recordLength: 201, text: 'ascii', … }
+ */
+export function checkDbf(bytes: ByteSource, fileLabel: string): DbfCheck {
+  const length = bytes.length;
+  if (length < 32) {
     throw new UploadError(
       'corrupt_dbf',
-      `${fileLabel} is only ${formatCount(bytes.length)} bytes long, shorter than the 32-byte header every .dbf starts with: the file is truncated or damaged. ${FIX_ADVICE}`,
-      { file: fileLabel, bytes: bytes.length },
+      `${fileLabel} is only ${formatCount(length)} bytes long, shorter than the 32-byte header every .dbf starts with: the file is truncated or damaged. ${FIX_ADVICE}`,
+      { file: fileLabel, bytes: length },
     );
   }
+  const top = bytes.subarray(0, 32);
+  const view = new DataView(top.buffer, top.byteOffset, top.byteLength);
   const records = view.getUint32(4, true);
   const headerLength = view.getUint16(8, true);
   const recordLength = view.getUint16(10, true);
-  const fields = readDescriptors(bytes, headerLength, fileLabel);
+  const limit = Math.min(headerLength, length);
+  const header = bytes.subarray(0, Math.max(32, limit)).slice();
+  const fields = readDescriptors(header, limit, fileLabel);
   const widthSum = fields.reduce((s, f) => s + f.length, 1);
-  if (headerLength > bytes.length || recordLength !== widthSum) {
+  if (headerLength > length || recordLength !== widthSum) {
     throw new UploadError(
       'corrupt_dbf',
       `${fileLabel} has a damaged header (its record length, ${recordLength} bytes, does not match its ${fields.length} columns, or the header is longer than the file). ${FIX_ADVICE}`,
@@ -94,31 +138,50 @@ export function openDbf(bytes: Uint8Array, fileLabel: string, cpg?: string): Dbf
     );
   }
   const needed = headerLength + records * recordLength;
-  if (needed > bytes.length) {
-    const whole = Math.max(0, Math.floor((bytes.length - headerLength) / recordLength));
+  if (needed > length) {
+    const whole = Math.max(0, Math.floor((length - headerLength) / recordLength));
     throw new UploadError(
       'corrupt_dbf',
       `${fileLabel} is truncated: its header declares ${formatCount(records)} rows of ${recordLength} bytes, but the file holds only ${formatCount(whole)} whole rows ` +
-        `(${formatCount(bytes.length)} of ${formatCount(needed)} bytes). The copy or the export was cut short. ${FIX_ADVICE}`,
+        `(${formatCount(length)} of ${formatCount(needed)} bytes). The copy or the export was cut short. ${FIX_ADVICE}`,
       { file: fileLabel, declaredRows: records, wholeRows: whole },
     );
   }
+  const text = textIsUtf8(bytes, fields, headerLength, recordLength, records);
+  return { records, headerLength, recordLength, header, fields, text };
+}
 
+/**
+ * Chooses a checked .dbf's encoding (the .cpg when it can be followed, otherwise by its text) and returns a reader
+ * of row ranges.
+ *
+ * @param check - the result of {@link checkDbf}.
+ * @param fileLabel - how to name the file in messages.
+ * @param cpg - the .cpg text, when the zip has one.
+ * @param source - the bytes rows are read from by default; without it, each `rows` call is given its source.
+ * @returns the table: column names, encoding, warnings (encoding assumed, .cpg not usable) and the row reader.
+ * @example
+ * const check = checkDbf(reader, 'leases.dbf');
+ * openCheckedDbf(check, 'leases.dbf', 'UTF-8').rows(0, 2, openEntryReader(zip, dbfEntry, limits)).length // 2
+ */
+export function openCheckedDbf(check: DbfCheck, fileLabel: string, cpg?: string, source?: ByteSource): DbfTable {
+  const { records, headerLength, recordLength, header, fields } = check;
   const warnings: string[] = [];
-  const encoding = chooseEncoding(bytes, fields, headerLength, recordLength, records, fileLabel, cpg, warnings);
+  const encoding = chooseEncoding(check.text, fileLabel, cpg, warnings);
   const decoder = new TextDecoder(encoding);
   const names = fields.map((f) => decodeName(f.nameBytes, decoder));
   // The library assumes the standard header length (32 × (fields + 1) + 1): each range is given a rebuilt header of that length.
   const standard = 32 * (fields.length + 1) + 1;
 
-  const rows = (from: number, to: number): Record<string, string | number | boolean | null>[] => {
+  const rows = (from: number, to: number, rowSource = source): Record<string, string | number | boolean | null>[] => {
     const n = Math.max(0, Math.min(to, records) - from);
     if (n === 0) return [];
+    if (!rowSource) throw new RangeError(`rows: ${fileLabel} was opened from its check alone; pass a source of its bytes`);
     const table = new Uint8Array(standard + n * recordLength);
-    table.set(bytes.subarray(0, standard - 1), 0);
+    table.set(header.subarray(0, standard - 1), 0);
     table[standard - 1] = 0x0d;
     const first = headerLength + from * recordLength;
-    table.set(bytes.subarray(first, first + n * recordLength), standard);
+    table.set(rowSource.subarray(first, first + n * recordLength), standard);
     const view = new DataView(table.buffer);
     view.setUint16(8, standard, true);
     view.setUint32(4, n, true);
@@ -174,11 +237,10 @@ export function encodingFromCpg(cpg: string): string | null {
   }
 }
 
-/** @private Reads the field descriptors up to the 0x0D terminator. */
-function readDescriptors(bytes: Uint8Array, headerLength: number, fileLabel: string): FieldDescriptor[] {
-  const fields: FieldDescriptor[] = [];
+/** @private Reads the field descriptors up to the 0x0D terminator, within the header's first `limit` bytes. */
+function readDescriptors(bytes: Uint8Array, limit: number, fileLabel: string): DbfField[] {
+  const fields: DbfField[] = [];
   let p = 32;
-  const limit = Math.min(headerLength, bytes.length);
   while (p < limit && bytes[p] !== 0x0d) {
     if (p + 32 > limit) break;
     const type = String.fromCharCode(bytes[p + 11]);
@@ -203,17 +265,7 @@ function readDescriptors(bytes: Uint8Array, headerLength: number, fileLabel: str
 }
 
 /** @private Picks the text encoding, adding a warning whenever it was assumed or the .cpg could not be followed. */
-function chooseEncoding(
-  bytes: Uint8Array,
-  fields: FieldDescriptor[],
-  headerLength: number,
-  recordLength: number,
-  records: number,
-  fileLabel: string,
-  cpg: string | undefined,
-  warnings: string[],
-): string {
-  const utf8 = textIsUtf8(bytes, fields, headerLength, recordLength, records);
+function chooseEncoding(utf8: DbfCheck['text'], fileLabel: string, cpg: string | undefined, warnings: string[]): string {
   const cpgFile = fileLabel.replace(/\.dbf$/i, '.cpg');
   if (cpg !== undefined) {
     const declared = encodingFromCpg(cpg);
@@ -250,11 +302,11 @@ function chooseEncoding(
 /**
  * @private Classifies the table's text bytes (column names and character columns): 'ascii', 'utf8' (valid,
  * with non-ASCII), or 'invalid'. A multi-byte sequence cut off at the end of a field counts as valid, since
- * writers truncate UTF-8 text to the column width.
+ * writers truncate UTF-8 text to the column width. The rows are read in blocks of about {@link TEXT_BLOCK_BYTES}.
  */
 function textIsUtf8(
-  bytes: Uint8Array,
-  fields: FieldDescriptor[],
+  bytes: ByteSource,
+  fields: DbfField[],
   headerLength: number,
   recordLength: number,
   records: number,
@@ -271,12 +323,18 @@ function textIsUtf8(
     if (f.type === 'C' || f.type === 'M' || f.type === 'V') offsets.push({ start: o, length: f.length });
     o += f.length;
   }
-  for (let r = 0; r < records; r++) {
-    const base = headerLength + r * recordLength;
-    for (const { start, length } of offsets) {
-      const s = utf8Status(bytes, base + start, base + start + length);
-      if (s === 'invalid') return 'invalid';
-      if (s === 'utf8') nonAscii = true;
+  if (offsets.length === 0) return nonAscii ? 'utf8' : 'ascii';
+  const perBlock = Math.max(1, Math.floor(TEXT_BLOCK_BYTES / recordLength));
+  for (let r = 0; r < records; r += perBlock) {
+    const n = Math.min(perBlock, records - r);
+    const block = bytes.subarray(headerLength + r * recordLength, headerLength + (r + n) * recordLength);
+    for (let k = 0; k < n; k++) {
+      const base = k * recordLength;
+      for (const { start, length } of offsets) {
+        const s = utf8Status(block, base + start, base + start + length);
+        if (s === 'invalid') return 'invalid';
+        if (s === 'utf8') nonAscii = true;
+      }
     }
   }
   return nonAscii ? 'utf8' : 'ascii';

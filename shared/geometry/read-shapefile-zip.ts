@@ -3,14 +3,25 @@
  * Reads every shapefile layer in a zip. A layer is a `.shp` with its siblings of the same basename in the
  * same folder (any folder depth; extensions in any case): `.dbf` required, `.shx` expected (the reader
  * does not need it, so a missing one is only reported), `.prj` and `.cpg` optional. `__MACOSX/` and other
- * system clutter are ignored. Only the files of the layers are inflated, under the upload limits.
+ * system clutter are ignored. Only the files of the layers are inflated, under the upload limits. Read `lazy`, no
+ * inflated .shp or .dbf is kept: each is checked in one forward pass as it inflates, and inflated again, range by
+ * range, whenever its features are asked for.
  */
 import type { Feature, Geometry } from 'geojson';
+import type { ByteSource } from './byte-source';
 import type { CrsInfo } from './parsed-upload';
-import { openDbf } from './read-dbf';
+import { checkDbf, type DbfTable, openCheckedDbf, openDbf } from './read-dbf';
 import { readPrj } from './read-prj';
 import { checkShp, parseShpRange, type ShpCheck } from './read-shp';
-import { inflateEntries, isIgnorableEntry, listZipEntries, type ZipEntryInfo } from './unzip-entries';
+import {
+  checkDeclaredSizes,
+  type EntryReader,
+  inflateEntries,
+  isIgnorableEntry,
+  listZipEntries,
+  openEntryReader,
+  type ZipEntryInfo,
+} from './unzip-entries';
 import { UploadError } from './upload-error';
 import { featureLimitError, formatCount, listSome, type UploadLimits, vertexLimitError } from './upload-limits';
 
@@ -28,7 +39,8 @@ export interface ShapefileLayer {
   count: number;
   /**
    * With `lazy`: the features in consecutive chunks of at most `size`, each built from its .shp records and
-   * .dbf rows when asked for, so only one chunk's GeoJSON exists at a time. Can be iterated more than once.
+   * .dbf rows when asked for, so only one chunk's GeoJSON exists at a time. Can be iterated more than once; each
+   * iteration inflates the .shp and .dbf again, forward, holding only the current chunk's bytes.
    */
   chunks?: (size: number) => Generator<Feature<Geometry | null>[]>;
 }
@@ -48,11 +60,26 @@ interface LayerFiles {
 const SIBLINGS = ['shp', 'shx', 'dbf', 'prj', 'cpg'] as const;
 
 /**
+ * @private A layer's files, opened whole or streamed: its checks (each throws the file's refusal), its small text
+ * files, and where one pass over its records reads the .shp and .dbf bytes.
+ */
+interface OpenedLayer {
+  checkShp: () => ShpCheck;
+  openDbf: (cpg: string | undefined) => DbfTable;
+  text: (entry: ZipEntryInfo | undefined) => string | undefined;
+  /** Sources for one pass over the records; none when the checked bytes are kept (whole read). */
+  sources: () => { shp?: ByteSource; dbf?: ByteSource };
+  /** Lets the inflated .shp and .dbf go (whole read). */
+  release: () => void;
+}
+
+/**
  * Reads all shapefile layers of a zip.
  *
  * @param zip - the zip file's bytes (starts with PK\x03\x04).
  * @param limits - all four limits apply (sizes while unzipping, counts before geometries are built).
- * @param options - `lazy`: build no features now; each layer keeps its inflated .shp and .dbf and offers `chunks`.
+ * @param options - `lazy`: build no features now and keep no inflated .shp or .dbf; each layer offers `chunks`.
+ *   The refusals, their messages and their order are the whole read's.
  * @returns the layers, features in the source CRS (null geometries kept for the kind checks), and warnings.
  * @throws UploadError for a damaged zip, no .shp, a .shp without its .dbf, corrupt or truncated files,
  *   record counts that differ between .shp and .dbf, and the limits.
@@ -95,26 +122,24 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?
   const wanted = layersFiles.flatMap((g) =>
     SIBLINGS.filter((ext) => ext !== 'shx').flatMap((ext) => (g.entries[ext] ? [g.entries[ext]!] : [])),
   );
-  const bytes = inflateEntries(zip, wanted, limits);
-  const text = (entry: ZipEntryInfo | undefined) => (entry ? new TextDecoder('utf-8').decode(bytes.get(entry.path)) : undefined);
+  const openedLayers = options?.lazy ? openStreamed(zip, layersFiles, wanted, limits) : openWhole(zip, layersFiles, wanted, limits);
 
   // Structure first, for every layer: counts are known before any geometry is built.
-  const checked: { files: LayerFiles; name: string; shp: ShpCheck }[] = [];
+  const checked: { files: LayerFiles; name: string; shp: ShpCheck; opened: OpenedLayer }[] = [];
   let featureTotal = 0;
   let vertexTotal = 0;
   for (let i = 0; i < layersFiles.length; i++) {
-    const g = layersFiles[i];
-    const shp = checkShp(bytes.get(g.entries.shp!.path)!, g.entries.shp!.path);
+    const shp = openedLayers[i].checkShp();
     warnings.push(...shp.warnings);
     featureTotal += shp.records;
     vertexTotal += shp.vertices;
-    checked.push({ files: g, name: names[i], shp });
+    checked.push({ files: layersFiles[i], name: names[i], shp, opened: openedLayers[i] });
   }
   if (featureTotal > limits.maxFeatures) throw featureLimitError(featureTotal, limits);
   if (vertexTotal > limits.maxVertices) throw vertexLimitError(vertexTotal, limits, true);
 
   const layers: ShapefileLayer[] = [];
-  for (const { files: g, name, shp } of checked) {
+  for (const { files: g, name, shp, opened } of checked) {
     const shpLabel = g.entries.shp!.path;
     if (!g.entries.shx) {
       warnings.push(
@@ -123,7 +148,7 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?
     }
     let crs: CrsInfo;
     if (g.entries.prj) {
-      const reading = readPrj(text(g.entries.prj)!, g.entries.prj.path);
+      const reading = readPrj(opened.text(g.entries.prj)!, g.entries.prj.path);
       crs = reading.crs;
       warnings.push(...reading.warnings);
     } else {
@@ -133,7 +158,7 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?
           'or zip the .prj with the other files and upload again.',
       );
     }
-    const dbf = openDbf(bytes.get(g.entries.dbf!.path)!, g.entries.dbf!.path, text(g.entries.cpg));
+    const dbf = opened.openDbf(opened.text(g.entries.cpg));
     warnings.push(...dbf.warnings);
     if (dbf.records !== shp.records) {
       throw new UploadError(
@@ -144,10 +169,11 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?
       );
     }
     const chunks = function* (size: number): Generator<Feature<Geometry | null>[]> {
+      const sources = opened.sources();
       for (let at = 0; at < shp.records; at += size) {
         const to = Math.min(shp.records, at + size);
-        const rows = dbf.rows(at, to);
-        const geometries = parseShpRange(shp, at, to, shpLabel);
+        const rows = dbf.rows(at, to, sources.dbf);
+        const geometries = parseShpRange(shp, at, to, shpLabel, sources.shp);
         yield geometries.map((geometry, k) => ({ type: 'Feature', properties: rows[k], geometry }));
       }
     };
@@ -158,11 +184,79 @@ export function readShapefileZip(zip: Uint8Array, limits: UploadLimits, options?
     }
     // Whole: the inflated table can be tens of MB (writers pad text columns to their full width); let the files go once read.
     const features = [...chunks(Math.max(1, shp.records))].flat();
-    bytes.delete(g.entries.dbf!.path);
-    bytes.delete(g.entries.shp!.path);
+    opened.release();
     layers.push({ ...layer, features });
   }
   return { layers, warnings };
+}
+
+/** @private The whole read: every file of every layer inflated first (inflateEntries), then checked in place. */
+function openWhole(zip: Uint8Array, layers: LayerFiles[], wanted: ZipEntryInfo[], limits: UploadLimits): OpenedLayer[] {
+  const bytes = inflateEntries(zip, wanted, limits);
+  const text = (entry: ZipEntryInfo | undefined) => (entry ? new TextDecoder('utf-8').decode(bytes.get(entry.path)) : undefined);
+  return layers.map((g) => {
+    const shpPath = g.entries.shp!.path;
+    const dbfPath = g.entries.dbf!.path;
+    return {
+      checkShp: () => checkShp(bytes.get(shpPath)!, shpPath),
+      openDbf: (cpg) => openDbf(bytes.get(dbfPath)!, dbfPath, cpg),
+      text,
+      sources: () => ({}),
+      release: () => {
+        bytes.delete(dbfPath);
+        bytes.delete(shpPath);
+      },
+    };
+  });
+}
+
+/**
+ * @private The lazy read. Every file is inflated once, in the whole read's order, through a reader that checks its
+ * size and CRC-32 at its end: the .shp and .dbf structure checks run on the bytes as they pass (their refusals are
+ * held back, since the whole read refuses a damaged zip before any damaged .shp or .dbf), the .prj and .cpg are
+ * kept as text. Only the checks' results are kept; each pass over the records opens new readers.
+ */
+function openStreamed(zip: Uint8Array, layers: LayerFiles[], wanted: ZipEntryInfo[], limits: UploadLimits): OpenedLayer[] {
+  checkDeclaredSizes(wanted, limits);
+  let inflated = 0;
+  const before = new Map<ZipEntryInfo, number>();
+  const texts = new Map<ZipEntryInfo, string>();
+  const pass = <T>(entry: ZipEntryInfo | undefined, check: (reader: EntryReader) => T): (() => T) | undefined => {
+    if (!entry) return undefined;
+    const reader = openEntryReader(zip, entry, limits, { inflatedBefore: inflated, verify: true });
+    let outcome: () => T;
+    try {
+      const value = check(reader);
+      outcome = () => value;
+    } catch (e) {
+      if (reader.failed) throw e;
+      outcome = () => {
+        throw e;
+      };
+    }
+    before.set(entry, inflated);
+    inflated += reader.finish();
+    return outcome;
+  };
+  const keepText = (reader: EntryReader) => new TextDecoder('utf-8').decode(reader.subarray(0, reader.length));
+  return layers.map((g): OpenedLayer => {
+    const shpEntry = g.entries.shp!;
+    const dbfEntry = g.entries.dbf!;
+    const shp = pass(shpEntry, (reader) => checkShp(reader, shpEntry.path))!;
+    const dbf = pass(dbfEntry, (reader) => checkDbf(reader, dbfEntry.path))!;
+    for (const entry of [g.entries.prj, g.entries.cpg]) {
+      const text = pass(entry, keepText);
+      if (entry && text) texts.set(entry, text());
+    }
+    const reopen = (entry: ZipEntryInfo) => openEntryReader(zip, entry, limits, { inflatedBefore: before.get(entry) });
+    return {
+      checkShp: shp,
+      openDbf: (cpg) => openCheckedDbf(dbf(), dbfEntry.path, cpg),
+      text: (entry) => (entry ? texts.get(entry) : undefined),
+      sources: () => ({ shp: reopen(shpEntry), dbf: reopen(dbfEntry) }),
+      release: () => {},
+    };
+  });
 }
 
 /** @private */

@@ -5,7 +5,8 @@
  * real one, record lengths, part and point counts — so a truncated or corrupt file is refused with its
  * name and the place it breaks, rather than silently losing its last shapes. The check also counts
  * records and vertices, so the limits are applied before any geometry is built. The geometry itself is
- * decoded by the shapefile library's parseShp (no .prj passed: reprojection happens later).
+ * decoded by the shapefile library's parseShp (no .prj passed: reprojection happens later). Both read from a
+ * {@link ByteSource}: the inflated file, or a zip entry read range by range in one forward pass.
  *
  * Layout: ESRI Shapefile Technical Description, July 1998 (a) — header 100 bytes: file code 9994
  * (int32 BE at 0), file length in 16-bit words (int32 BE at 24), version 1000 (int32 LE at 28), shape
@@ -14,6 +15,7 @@
  */
 import type { Geometry } from 'geojson';
 import { parseShp } from 'shpjs';
+import { type ByteSource, int32BE, int32LE } from './byte-source';
 import { UploadError } from './upload-error';
 import { formatCount } from './upload-limits';
 
@@ -25,8 +27,13 @@ export interface ShpCheck {
   records: number;
   /** Number of points over all records (what parseShp will allocate). */
   vertices: number;
-  /** The bytes to parse: the file cut to its declared length. */
-  body: Uint8Array;
+  /** The file's 100-byte header (a copy). */
+  header: Uint8Array;
+  /**
+   * The bytes to parse, the file cut to its declared length, when it was checked as a plain `Uint8Array`; absent
+   * when checked from another source (pass one to {@link parseShpRange}).
+   */
+  body?: Uint8Array;
   /** Notes for the user (extra bytes after the declared end). */
   warnings: string[];
   /** Byte offset in `body` of each record's header, then the declared end (records + 1 entries): lets a range be decoded alone. */
@@ -58,9 +65,10 @@ const TYPE_NAMES: Record<number, string> = {
 };
 
 /**
- * Checks a .shp's header and record structure without building geometries.
+ * Checks a .shp's header and record structure without building geometries, in one forward pass over the file
+ * (the header, then each record's header, shape header and list of parts; never the points themselves).
  *
- * @param bytes - the .shp file.
+ * @param bytes - the .shp file, or a source of its bytes (read once, in increasing order).
  * @param fileLabel - how to name the file in messages, e.g. 'export/leases.shp'.
  * @returns shape type, record and vertex counts, and the bytes to parse.
  * @throws UploadError corrupt_shp (too short, not a .shp, broken record), shp_length_mismatch (header declares
@@ -68,17 +76,18 @@ const TYPE_NAMES: Record<number, string> = {
  * @example
  * checkShp(shpBytes, 'leases.shp') // { shapeType: 5, records: 4, vertices: 46, … }
  */
-export function checkShp(bytes: Uint8Array, fileLabel: string): ShpCheck {
-  if (bytes.length < 100) {
+export function checkShp(bytes: ByteSource, fileLabel: string): ShpCheck {
+  const length = bytes.length;
+  if (length < 100) {
     throw new UploadError(
       'corrupt_shp',
-      `${fileLabel} is only ${formatCount(bytes.length)} bytes long, shorter than the 100-byte header every .shp starts with: the file is truncated or damaged. ${FIX_ADVICE}`,
-      { file: fileLabel, bytes: bytes.length },
+      `${fileLabel} is only ${formatCount(length)} bytes long, shorter than the 100-byte header every .shp starts with: the file is truncated or damaged. ${FIX_ADVICE}`,
+      { file: fileLabel, bytes: length },
     );
   }
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  const fileCode = view.getInt32(0, false);
-  const version = view.getInt32(28, true);
+  const header = bytes.subarray(0, 100).slice();
+  const fileCode = int32BE(header, 0);
+  const version = int32LE(header, 28);
   if (fileCode !== FILE_CODE || version !== VERSION) {
     throw new UploadError(
       'corrupt_shp',
@@ -86,13 +95,13 @@ export function checkShp(bytes: Uint8Array, fileLabel: string): ShpCheck {
       { file: fileLabel },
     );
   }
-  const declared = view.getInt32(24, false) * 2;
-  if (declared > bytes.length) {
+  const declared = int32BE(header, 24) * 2;
+  if (declared > length) {
     throw new UploadError(
       'shp_length_mismatch',
-      `${fileLabel} is incomplete: its header declares ${formatCount(declared)} bytes but the file holds ${formatCount(bytes.length)}. ` +
+      `${fileLabel} is incomplete: its header declares ${formatCount(declared)} bytes but the file holds ${formatCount(length)}. ` +
         `The copy or export was cut short. ${FIX_ADVICE}`,
-      { file: fileLabel, declaredBytes: declared, actualBytes: bytes.length },
+      { file: fileLabel, declaredBytes: declared, actualBytes: length },
     );
   }
   if (declared < 100) {
@@ -101,10 +110,10 @@ export function checkShp(bytes: Uint8Array, fileLabel: string): ShpCheck {
     });
   }
   const warnings: string[] = [];
-  if (declared < bytes.length) {
-    warnings.push(`${fileLabel} has ${formatCount(bytes.length - declared)} bytes after the end its header declares; they were ignored.`);
+  if (declared < length) {
+    warnings.push(`${fileLabel} has ${formatCount(length - declared)} bytes after the end its header declares; they were ignored.`);
   }
-  const shapeType = view.getInt32(32, true);
+  const shapeType = int32LE(header, 32);
   if (shapeType === 31) {
     throw new UploadError(
       'unsupported_shape_type',
@@ -127,11 +136,13 @@ export function checkShp(bytes: Uint8Array, fileLabel: string): ShpCheck {
   while (p < declared) {
     const n = records; // 0-based record index for messages
     if (p + 8 > declared) throw brokenRecord(fileLabel, n, 'its record header is cut off');
-    const contentLength = view.getInt32(p + 4, false) * 2;
+    const contentLength = int32BE(bytes.subarray(p, p + 8), 4) * 2;
     const start = p + 8;
     const end = start + contentLength;
     if (contentLength < 4 || end > declared) throw brokenRecord(fileLabel, n, 'it runs past the end of the file');
-    const recordType = view.getInt32(start, true);
+    // The shape's own header: type, box, then NumParts and NumPoints (or NumPoints alone for a multipoint).
+    const shape = bytes.subarray(start, start + Math.min(contentLength, 44));
+    const recordType = int32LE(shape, 0);
     if (recordType !== 0) {
       if (recordType !== shapeType)
         throw brokenRecord(fileLabel, n, `its shape type (${recordType}) differs from the file’s (${shapeType})`);
@@ -140,19 +151,20 @@ export function checkShp(bytes: Uint8Array, fileLabel: string): ShpCheck {
         vertices += 1;
       } else if (base === 8) {
         if (contentLength < 40) throw brokenRecord(fileLabel, n, 'it is shorter than its header');
-        const points = view.getInt32(start + 36, true);
+        const points = int32LE(shape, 36);
         if (points < 0 || 40 + 16 * points > contentLength) throw brokenRecord(fileLabel, n, 'it declares more points than it holds');
         vertices += points;
       } else {
         if (contentLength < 44) throw brokenRecord(fileLabel, n, 'it is shorter than its header');
-        const parts = view.getInt32(start + 36, true);
-        const points = view.getInt32(start + 40, true);
+        const parts = int32LE(shape, 36);
+        const points = int32LE(shape, 40);
         if (parts < 0 || points < 0 || 44 + 4 * parts + 16 * points > contentLength) {
           throw brokenRecord(fileLabel, n, 'it declares more parts or points than it holds');
         }
+        const firsts = parts > 0 ? bytes.subarray(start + 44, start + 44 + 4 * parts) : shape.subarray(0, 0);
         let previous = -1;
         for (let k = 0; k < parts; k++) {
-          const first = view.getInt32(start + 44 + 4 * k, true);
+          const first = int32LE(firsts, 4 * k);
           if (first < 0 || first >= points || first <= previous || (k === 0 && first !== 0)) {
             throw brokenRecord(fileLabel, n, 'its list of parts is inconsistent');
           }
@@ -167,7 +179,15 @@ export function checkShp(bytes: Uint8Array, fileLabel: string): ShpCheck {
     p = end;
   }
   starts.push(declared);
-  return { shapeType, records, vertices, body: bytes.subarray(0, declared), warnings, offsets: Uint32Array.from(starts) };
+  return {
+    shapeType,
+    records,
+    vertices,
+    header,
+    ...(bytes instanceof Uint8Array ? { body: bytes.subarray(0, declared) } : {}),
+    warnings,
+    offsets: Uint32Array.from(starts),
+  };
 }
 
 /**
@@ -192,24 +212,34 @@ export function parseCheckedShp(check: ShpCheck, fileLabel: string): (Geometry |
  * @param from - first record (counting from 0).
  * @param to - one past the last record (at most check.records).
  * @param fileLabel - how to name the file in messages.
+ * @param source - where to read the records: by default the bytes checked (`check.body`); required when the
+ *   check was made from another source (e.g. a new reader of the same zip entry).
  * @returns one geometry (or null) per record of the range.
- * @throws UploadError corrupt_shp when decoding fails.
+ * @throws UploadError corrupt_shp when decoding fails; RangeError when there is nothing to read from.
  * @example
  * parseShpRange(checkShp(bytes, 'leases.shp'), 2, 4, 'leases.shp').length // 2
  */
-export function parseShpRange(check: ShpCheck, from: number, to: number, fileLabel: string): (Geometry | null)[] {
+export function parseShpRange(
+  check: ShpCheck,
+  from: number,
+  to: number,
+  fileLabel: string,
+  source: ByteSource | undefined = check.body,
+): (Geometry | null)[] {
+  if (!source) throw new RangeError(`parseShpRange: ${fileLabel} was checked from a reader; pass a source of its bytes`);
   let geometries: (Geometry | null)[];
   const wanted = Math.max(0, to - from);
+  let body: Uint8Array;
+  if (from <= 0 && to >= check.records && source instanceof Uint8Array) body = source.subarray(0, check.offsets[check.records]);
+  else {
+    const a = check.offsets[from];
+    const b = check.offsets[to];
+    body = new Uint8Array(100 + (b - a));
+    body.set(check.header, 0);
+    body.set(source.subarray(a, b), 100);
+    new DataView(body.buffer).setInt32(24, body.length / 2, false);
+  }
   try {
-    let body = check.body;
-    if (from > 0 || to < check.records) {
-      const a = check.offsets[from];
-      const b = check.offsets[to];
-      body = new Uint8Array(100 + (b - a));
-      body.set(check.body.subarray(0, 100), 0);
-      body.set(check.body.subarray(a, b), 100);
-      new DataView(body.buffer).setInt32(24, body.length / 2, false);
-    }
     geometries = parseShp(new DataView(body.buffer, body.byteOffset, body.byteLength) as never) as (Geometry | null)[];
   } catch {
     throw new UploadError('corrupt_shp', `${fileLabel} cannot be read: its shapes are damaged. ${FIX_ADVICE}`, { file: fileLabel });

@@ -3,13 +3,15 @@
  * Reads a zip's table of contents (central directory) and inflates only the entries asked for, refusing
  * zip bombs twice: by the sizes the entries declare, before inflating anything, and by the bytes actually
  * inflated, counted while streaming (an entry that lies about its size is stopped as soon as it passes
- * the limit). CRC-32 is checked on every inflated entry.
+ * the limit). CRC-32 is checked on every inflated entry. An entry can also be read in bounded memory, range by
+ * range ({@link openEntryReader}), under the same refusals.
  *
  * Format: PKWARE APPNOTE.TXT 6.3.x (a) — local file header 0x04034b50, central directory header
  * 0x02014b50, end of central directory 0x06054b50, ZIP64 records 0x06064b50 / locator 0x07064b50,
  * ZIP64 extra field 0x0001, general-purpose flag bit 0 = encrypted, bit 11 = UTF-8 names.
  */
 import { Inflate } from 'fflate';
+import type { ByteSource } from './byte-source';
 import { UploadError } from './upload-error';
 import { formatBytes, type UploadLimits, UPLOAD_LIMIT_SETTINGS } from './upload-limits';
 
@@ -165,6 +167,32 @@ export function inflateEntries(
   entries: readonly ZipEntryInfo[],
   limits: Pick<UploadLimits, 'maxUncompressedBytes'>,
 ): Map<string, Uint8Array> {
+  checkDeclaredSizes(entries, limits);
+  const max = limits.maxUncompressedBytes;
+  const out = new Map<string, Uint8Array>();
+  let inflatedTotal = 0;
+  for (const entry of entries) {
+    const data = entryData(zip, entry);
+    const budget = max - inflatedTotal;
+    const bytes = entry.method === 0 ? storedEntry(data, entry, budget, max) : inflateCapped(data, entry, budget, max);
+    inflatedTotal += bytes.length;
+    if (crc32(bytes) !== entry.crc32 >>> 0) throw badChecksum(entry);
+    out.set(entry.path, bytes);
+  }
+  return out;
+}
+
+/**
+ * Refuses entries whose declared sizes add up to more than `limits.maxUncompressedBytes`, before anything is
+ * inflated (the first of {@link inflateEntries}' refusals, for callers that read entries with {@link openEntryReader}).
+ *
+ * @param entries - every entry the caller will inflate.
+ * @param limits - uses maxUncompressedBytes.
+ * @throws UploadError uncompressed_too_large (413).
+ * @example
+ * checkDeclaredSizes(listZipEntries(zip), DEFAULT_UPLOAD_LIMITS) // throws for a declared zip bomb
+ */
+export function checkDeclaredSizes(entries: readonly ZipEntryInfo[], limits: Pick<UploadLimits, 'maxUncompressedBytes'>): void {
   const max = limits.maxUncompressedBytes;
   const declaredTotal = entries.reduce((sum, e) => sum + e.declaredSize, 0);
   if (declaredTotal > max) {
@@ -177,62 +205,288 @@ export function inflateEntries(
       { declaredBytes: declaredTotal, limitBytes: max, largestEntry: biggest.path },
     );
   }
-  const view = new DataView(zip.buffer, zip.byteOffset, zip.byteLength);
-  const out = new Map<string, Uint8Array>();
-  let inflatedTotal = 0;
-  for (const entry of entries) {
-    if (entry.flags & 0x1) {
-      throw new UploadError(
-        'encrypted_zip',
-        `${entry.path} in the zip is password-protected, and encrypted files cannot be read. Make the zip again without a password and upload it.`,
-        { entry: entry.path },
-      );
-    }
-    if (entry.method !== 0 && entry.method !== 8) {
-      throw new UploadError(
-        'unsupported_zip_compression',
-        `${entry.path} in the zip is compressed with method ${entry.method}, which this server does not unpack (it reads "stored" and "deflate", ` +
-          'the standard zip methods). Make the zip again with standard compression and upload it.',
-        { entry: entry.path, method: entry.method },
-      );
-    }
-    const h = entry.localHeaderOffset;
-    if (h + 30 > view.byteLength || view.getUint32(h, true) !== SIG_LOCAL) {
-      throw new UploadError(
-        'corrupt_zip',
-        `The zip file is damaged: ${entry.path} cannot be found where its table of contents says. ${CORRUPT_ADVICE}`,
-        {
-          entry: entry.path,
-        },
-      );
-    }
-    const dataStart = h + 30 + view.getUint16(h + 26, true) + view.getUint16(h + 28, true);
-    const dataEnd = dataStart + entry.compressedSize;
-    if (dataEnd > view.byteLength) {
-      throw new UploadError(
-        'corrupt_zip',
-        `The zip file is incomplete: ${entry.path} is cut short (was the upload or the copy interrupted?). ${CORRUPT_ADVICE}`,
-        {
-          entry: entry.path,
-        },
-      );
-    }
-    const data = zip.subarray(dataStart, dataEnd);
-    const budget = max - inflatedTotal;
-    const bytes = entry.method === 0 ? storedEntry(data, entry, budget, max) : inflateCapped(data, entry, budget, max);
-    inflatedTotal += bytes.length;
-    if (crc32(bytes) !== entry.crc32 >>> 0) {
-      throw new UploadError('corrupt_zip', `The zip file is damaged: ${entry.path} fails its checksum. ${CORRUPT_ADVICE}`, {
-        entry: entry.path,
-      });
-    }
-    out.set(entry.path, bytes);
+}
+
+/** A zip entry read range by range: see {@link openEntryReader}. */
+export interface EntryReader extends ByteSource {
+  /** The entry's declared size [bytes] (a different real size is refused when reached, or by `finish`). */
+  readonly length: number;
+  /** True once the reader has thrown one of the zip's refusals (it throws the same one again on any later call). */
+  readonly failed: boolean;
+  /**
+   * Inflates on to the entry's end, keeping nothing, and refuses it if its real size is not its declared one or
+   * (when verifying) its CRC-32 is wrong; then lets its buffer go.
+   *
+   * @returns the entry's real size [bytes].
+   */
+  finish(): number;
+}
+
+/**
+ * Opens one entry for reading in bounded memory: `subarray(begin, end)` inflates (fflate's streaming `Inflate`,
+ * {@link PUSH_BYTES} compressed bytes at a time) only up to `end`, and keeps only the bytes from `begin` on, so the
+ * reader holds what the current range needs plus one push's output. Ranges are meant to be asked for in
+ * increasing order; a range that starts before the kept window restarts the inflation from the entry's first byte.
+ * A stored entry is handed out as views of the zip itself. The refusals are {@link inflateEntries}' for this entry,
+ * in the same order (the declared sizes of all entries are refused beforehand with {@link checkDeclaredSizes}):
+ * encrypted, unsupported method, damaged local header and cut-short data on opening; the budget
+ * (maxUncompressedBytes less what was inflated before) and damaged DEFLATE data while inflating; a real size that is
+ * not the declared one when the data ends; and, with `verify`, the CRC-32 in `finish`.
+ *
+ * @param zip - the whole zip file (kept by the reader).
+ * @param entry - the entry (from {@link listZipEntries}).
+ * @param limits - uses maxUncompressedBytes.
+ * @param options - `inflatedBefore`: bytes the upload's earlier entries inflated to [bytes, default 0];
+ *   `verify`: compute the CRC-32 as the bytes pass, for `finish` to check (the first pass over an entry).
+ * @throws UploadError encrypted_zip, unsupported_zip_compression, corrupt_zip, uncompressed_too_large (413).
+ * @example
+ * const reader = openEntryReader(zip, shpEntry, DEFAULT_UPLOAD_LIMITS, { verify: true });
+ * reader.subarray(0, 100); // the .shp header, having inflated little more than that
+ * reader.finish(); // the .shp's size, once its CRC-32 is checked
+ */
+export function openEntryReader(
+  zip: Uint8Array,
+  entry: ZipEntryInfo,
+  limits: Pick<UploadLimits, 'maxUncompressedBytes'>,
+  options: { inflatedBefore?: number; verify?: boolean } = {},
+): EntryReader {
+  const data = entryData(zip, entry);
+  const max = limits.maxUncompressedBytes;
+  const budget = max - (options.inflatedBefore ?? 0);
+  if (entry.method === 0) {
+    checkStoredSize(data, entry, budget, max);
+    return new StoredEntryReader(data, entry, options.verify === true);
   }
-  return out;
+  return new InflatingEntryReader(data, entry, budget, max, options.verify === true);
+}
+
+/** @private A stored entry: its bytes are the zip's own, handed out as views. */
+class StoredEntryReader implements EntryReader {
+  readonly length: number;
+  readonly failed = false;
+  private readonly data: Uint8Array;
+  private readonly entry: ZipEntryInfo;
+  private readonly verify: boolean;
+
+  constructor(data: Uint8Array, entry: ZipEntryInfo, verify: boolean) {
+    this.data = data;
+    this.entry = entry;
+    this.verify = verify;
+    this.length = data.length;
+  }
+
+  subarray(begin: number, end: number): Uint8Array {
+    return this.data.subarray(begin, end);
+  }
+
+  finish(): number {
+    if (this.verify && crc32(this.data) !== this.entry.crc32 >>> 0) throw badChecksum(this.entry);
+    return this.data.length;
+  }
+}
+
+/** @private A deflated entry, inflated on demand into a window that keeps only the bytes from the last range's start. */
+class InflatingEntryReader implements EntryReader {
+  readonly length: number;
+  private inflater!: Inflate;
+  /** Compressed bytes pushed so far. */
+  private pushed = 0;
+  /** True once the last compressed piece is pushed. */
+  private ended = false;
+  /** Bytes inflated since the (re)start. */
+  private produced = 0;
+  /** Inflated bytes before this entry offset are not kept. */
+  private keepFrom = 0;
+  /** Kept bytes: buffer[bufferStart, bufferEnd) is the entry from offset windowStart. */
+  private buffer = new Uint8Array(0);
+  private bufferStart = 0;
+  private bufferEnd = 0;
+  private windowStart = 0;
+  /** CRC-32 of the entry's bytes [0, crcEnd), when verifying. */
+  private crc = 0;
+  private crcEnd = 0;
+  private overBudget = false;
+  private failure: UploadError | null = null;
+  private readonly data: Uint8Array;
+  private readonly entry: ZipEntryInfo;
+  /** Bytes this entry may inflate to: maxUncompressedBytes less what the upload's earlier entries took. */
+  private readonly budget: number;
+  private readonly max: number;
+  private readonly verify: boolean;
+
+  constructor(data: Uint8Array, entry: ZipEntryInfo, budget: number, max: number, verify: boolean) {
+    this.data = data;
+    this.entry = entry;
+    this.budget = budget;
+    this.max = max;
+    this.verify = verify;
+    this.length = entry.declaredSize;
+    this.restart();
+  }
+
+  get failed(): boolean {
+    return this.failure !== null;
+  }
+
+  subarray(begin: number, end: number): Uint8Array {
+    if (this.failure) throw this.failure;
+    if (begin < this.windowStart) this.restart();
+    this.forget(begin);
+    while (this.windowStart + (this.bufferEnd - this.bufferStart) < end && !this.ended) this.pump();
+    if (this.windowStart + (this.bufferEnd - this.bufferStart) < end) throw this.fail(sizeMismatch(this.entry, this.produced));
+    const at = this.bufferStart - this.windowStart;
+    return this.buffer.subarray(at + begin, at + end);
+  }
+
+  finish(): number {
+    if (this.failure) throw this.failure;
+    this.forget(Number.POSITIVE_INFINITY);
+    while (!this.ended) this.pump();
+    if (this.produced !== this.entry.declaredSize) throw this.fail(sizeMismatch(this.entry, this.produced));
+    if (this.verify && this.crc !== this.entry.crc32 >>> 0) throw this.fail(badChecksum(this.entry));
+    this.buffer = new Uint8Array(0);
+    this.bufferStart = 0;
+    this.bufferEnd = 0;
+    return this.produced;
+  }
+
+  /** @private Back to the entry's first byte (the CRC already computed is kept: bytes are counted once). */
+  private restart(): void {
+    this.inflater = new Inflate((chunk) => this.append(chunk));
+    this.pushed = 0;
+    this.ended = false;
+    this.produced = 0;
+    this.keepFrom = 0;
+    this.bufferStart = 0;
+    this.bufferEnd = 0;
+    this.windowStart = 0;
+  }
+
+  /** @private Drops the kept bytes before entry offset `begin`, and keeps none inflated later before it. */
+  private forget(begin: number): void {
+    this.keepFrom = begin;
+    const windowEnd = this.windowStart + (this.bufferEnd - this.bufferStart);
+    if (begin >= windowEnd) {
+      this.bufferStart = 0;
+      this.bufferEnd = 0;
+      this.windowStart = begin;
+    } else if (begin > this.windowStart) {
+      this.bufferStart += begin - this.windowStart;
+      this.windowStart = begin;
+    }
+  }
+
+  /** @private Pushes the next compressed piece, as inflateCapped does, turning the inflater's failures into refusals. */
+  private pump(): void {
+    const data = this.data;
+    try {
+      if (data.length === 0) {
+        this.ended = true;
+        this.inflater.push(new Uint8Array(0), true);
+        return;
+      }
+      const next = Math.min(this.pushed + PUSH_BYTES, data.length);
+      const last = next >= data.length;
+      const piece = data.subarray(this.pushed, next);
+      this.pushed = next;
+      this.ended = last;
+      this.inflater.push(piece, last);
+    } catch {
+      if (this.overBudget) throw this.fail(tooLargeWhileInflating(this.entry, this.max));
+      throw this.fail(cannotUnpack(this.entry));
+    }
+  }
+
+  /** @private The inflater's output: counted against the budget, added to the CRC, and kept from `keepFrom` on. */
+  private append(chunk: Uint8Array): void {
+    const start = this.produced;
+    if (start + chunk.length > this.budget) {
+      this.overBudget = true;
+      throw new Error('inflate stopped: over budget');
+    }
+    this.produced += chunk.length;
+    if (this.verify && this.produced > this.crcEnd) {
+      this.crc = crc32(chunk.subarray(this.crcEnd - start), this.crc);
+      this.crcEnd = this.produced;
+    }
+    const skip = this.keepFrom - start;
+    if (skip >= chunk.length) return;
+    const piece = skip > 0 ? chunk.subarray(skip) : chunk;
+    if (this.bufferEnd + piece.length > this.buffer.length) {
+      const live = this.bufferEnd - this.bufferStart;
+      if (live + piece.length <= this.buffer.length) this.buffer.copyWithin(0, this.bufferStart, this.bufferEnd);
+      else {
+        const grown = new Uint8Array(Math.max(live + piece.length, 2 * live));
+        grown.set(this.buffer.subarray(this.bufferStart, this.bufferEnd));
+        this.buffer = grown;
+      }
+      this.bufferStart = 0;
+      this.bufferEnd = live;
+    }
+    this.buffer.set(piece, this.bufferEnd);
+    this.bufferEnd += piece.length;
+  }
+
+  /** @private Remembers the refusal, so later calls throw it again. */
+  private fail(error: UploadError): UploadError {
+    this.failure = error;
+    return error;
+  }
+}
+
+/**
+ * @private An entry's compressed bytes, after the refusals that need no inflating (in inflateEntries' order):
+ * encrypted, unsupported method, local header not where the directory says, data running past the zip's end.
+ */
+function entryData(zip: Uint8Array, entry: ZipEntryInfo): Uint8Array {
+  const view = new DataView(zip.buffer, zip.byteOffset, zip.byteLength);
+  if (entry.flags & 0x1) {
+    throw new UploadError(
+      'encrypted_zip',
+      `${entry.path} in the zip is password-protected, and encrypted files cannot be read. Make the zip again without a password and upload it.`,
+      { entry: entry.path },
+    );
+  }
+  if (entry.method !== 0 && entry.method !== 8) {
+    throw new UploadError(
+      'unsupported_zip_compression',
+      `${entry.path} in the zip is compressed with method ${entry.method}, which this server does not unpack (it reads "stored" and "deflate", ` +
+        'the standard zip methods). Make the zip again with standard compression and upload it.',
+      { entry: entry.path, method: entry.method },
+    );
+  }
+  const h = entry.localHeaderOffset;
+  if (h + 30 > view.byteLength || view.getUint32(h, true) !== SIG_LOCAL) {
+    throw new UploadError(
+      'corrupt_zip',
+      `The zip file is damaged: ${entry.path} cannot be found where its table of contents says. ${CORRUPT_ADVICE}`,
+      {
+        entry: entry.path,
+      },
+    );
+  }
+  const dataStart = h + 30 + view.getUint16(h + 26, true) + view.getUint16(h + 28, true);
+  const dataEnd = dataStart + entry.compressedSize;
+  if (dataEnd > view.byteLength) {
+    throw new UploadError(
+      'corrupt_zip',
+      `The zip file is incomplete: ${entry.path} is cut short (was the upload or the copy interrupted?). ${CORRUPT_ADVICE}`,
+      {
+        entry: entry.path,
+      },
+    );
+  }
+  return zip.subarray(dataStart, dataEnd);
 }
 
 /** @private */
 function storedEntry(data: Uint8Array, entry: ZipEntryInfo, budget: number, max: number): Uint8Array {
+  checkStoredSize(data, entry, budget, max);
+  return data.slice();
+}
+
+/** @private A stored entry's size against the budget, then against its declared size. */
+function checkStoredSize(data: Uint8Array, entry: ZipEntryInfo, budget: number, max: number): void {
   if (data.length > budget) throw tooLargeWhileInflating(entry, max);
   if (data.length !== entry.declaredSize) {
     throw new UploadError(
@@ -243,7 +497,6 @@ function storedEntry(data: Uint8Array, entry: ZipEntryInfo, budget: number, max:
       },
     );
   }
-  return data.slice();
 }
 
 /**
@@ -279,18 +532,33 @@ function inflateCapped(data: Uint8Array, entry: ZipEntryInfo, budget: number, ma
     }
   } catch {
     if (overBudget) throw tooLargeWhileInflating(entry, max);
-    throw new UploadError('corrupt_zip', `The zip file is damaged: ${entry.path} cannot be unpacked. ${CORRUPT_ADVICE}`, {
-      entry: entry.path,
-    });
+    throw cannotUnpack(entry);
   }
-  if (total !== entry.declaredSize || !out) {
-    throw new UploadError(
-      'corrupt_zip',
-      `The zip file is damaged: ${entry.path} unpacks to ${formatBytes(total)}, not the ${formatBytes(entry.declaredSize)} its table of contents declares. ${CORRUPT_ADVICE}`,
-      { entry: entry.path, declaredBytes: entry.declaredSize, inflatedBytes: total },
-    );
-  }
+  if (total !== entry.declaredSize || !out) throw sizeMismatch(entry, total);
   return out;
+}
+
+/** @private */
+function cannotUnpack(entry: ZipEntryInfo): UploadError {
+  return new UploadError('corrupt_zip', `The zip file is damaged: ${entry.path} cannot be unpacked. ${CORRUPT_ADVICE}`, {
+    entry: entry.path,
+  });
+}
+
+/** @private A deflated entry whose real size is not its declared one. */
+function sizeMismatch(entry: ZipEntryInfo, total: number): UploadError {
+  return new UploadError(
+    'corrupt_zip',
+    `The zip file is damaged: ${entry.path} unpacks to ${formatBytes(total)}, not the ${formatBytes(entry.declaredSize)} its table of contents declares. ${CORRUPT_ADVICE}`,
+    { entry: entry.path, declaredBytes: entry.declaredSize, inflatedBytes: total },
+  );
+}
+
+/** @private */
+function badChecksum(entry: ZipEntryInfo): UploadError {
+  return new UploadError('corrupt_zip', `The zip file is damaged: ${entry.path} fails its checksum. ${CORRUPT_ADVICE}`, {
+    entry: entry.path,
+  });
 }
 
 /** @private */
@@ -338,11 +606,15 @@ let crcTable: Uint32Array | null = null;
 /**
  * CRC-32 (ISO-HDLC: polynomial 0xEDB88320 reflected, init and final XOR 0xFFFFFFFF), as zip uses it.
  * Check value: crc32 of ASCII "123456789" = 0xCBF43926 (the catalogue check value of CRC-32/ISO-HDLC).
+ * Incremental as zlib's: `crc32(b, crc32(a))` is the CRC-32 of a followed by b.
  *
+ * @param bytes - the bytes to add.
+ * @param previous - the CRC-32 of the bytes before them (0, the default, for none).
  * @example
  * crc32(new TextEncoder().encode('123456789')) // 0xcbf43926
+ * crc32(new TextEncoder().encode('6789'), crc32(new TextEncoder().encode('12345'))) // 0xcbf43926
  */
-export function crc32(bytes: Uint8Array): number {
+export function crc32(bytes: Uint8Array, previous = 0): number {
   if (!crcTable) {
     crcTable = new Uint32Array(256);
     for (let n = 0; n < 256; n++) {
@@ -352,7 +624,7 @@ export function crc32(bytes: Uint8Array): number {
     }
   }
   const table = crcTable;
-  let crc = 0xffffffff;
+  let crc = (previous ^ 0xffffffff) >>> 0;
   for (let i = 0; i < bytes.length; i++) crc = table[(crc ^ bytes[i]) & 0xff] ^ (crc >>> 8);
   return (crc ^ 0xffffffff) >>> 0;
 }

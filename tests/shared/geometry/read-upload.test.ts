@@ -15,7 +15,15 @@ import {
   type ParsedUpload,
   readUpload,
 } from '../../../shared/geometry/read-upload';
-import { crc32, inflateEntries, isIgnorableEntry, listZipEntries } from '../../../shared/geometry/unzip-entries';
+import {
+  checkDeclaredSizes,
+  crc32,
+  inflateEntries,
+  isIgnorableEntry,
+  listZipEntries,
+  openEntryReader,
+  type ZipEntryInfo,
+} from '../../../shared/geometry/unzip-entries';
 import { isUploadError, UploadError } from '../../../shared/geometry/upload-error';
 import { formatBytes, formatCount, listSome, resolveUploadLimits } from '../../../shared/geometry/upload-limits';
 
@@ -406,32 +414,56 @@ describe('readPrj', () => {
   });
 });
 
+/**
+ * The two ways entries are inflated: whole (inflateEntries), and range by range through a checking reader, as the
+ * lazy shapefile read does (declared sizes refused first, then each entry read and finished in turn).
+ */
+const inflateWays: [string, (zip: Uint8Array, entries: ZipEntryInfo[], limits: typeof DEFAULT_UPLOAD_LIMITS) => Map<string, Uint8Array>][] = [
+  ['inflateEntries', inflateEntries],
+  [
+    'openEntryReader',
+    (zip, entries, limits) => {
+      checkDeclaredSizes(entries, limits);
+      const out = new Map<string, Uint8Array>();
+      let inflated = 0;
+      for (const entry of entries) {
+        const reader = openEntryReader(zip, entry, limits, { inflatedBefore: inflated, verify: true });
+        out.set(entry.path, reader.subarray(0, reader.length).slice());
+        inflated += reader.finish();
+      }
+      return out;
+    },
+  ],
+];
+
 describe('unzip-entries', () => {
-  it('computes CRC-32 check value 0xCBF43926 for "123456789" (CRC-32/ISO-HDLC catalogue)', () => {
+  it('computes CRC-32 check value 0xCBF43926 for "123456789" (CRC-32/ISO-HDLC catalogue), in one go or in parts', () => {
     expect(crc32(enc('123456789'))).toBe(0xcbf43926);
+    expect(crc32(enc('6789'), crc32(enc('12345')))).toBe(0xcbf43926);
+    expect(crc32(enc(''), crc32(enc('123456789')))).toBe(0xcbf43926);
   });
-  it('reads stored and deflated entries, and detects a damaged stored entry by its checksum', () => {
+  it.each(inflateWays)('%s reads stored and deflated entries, and detects a damaged stored entry by its checksum', (_way, inflate) => {
     const zip = zipSync({ 'a.txt': [enc('Fennick Bay'), { level: 0 }], 'b.txt': [enc('Saltreed Oysters'.repeat(50)), { level: 9 }] });
     const entries = listZipEntries(zip);
     expect(entries.map((e) => [e.path, e.method])).toEqual([
       ['a.txt', 0],
       ['b.txt', 8],
     ]);
-    const out = inflateEntries(zip, entries, DEFAULT_UPLOAD_LIMITS);
+    const out = inflate(zip, entries, DEFAULT_UPLOAD_LIMITS);
     expect(new TextDecoder().decode(out.get('a.txt'))).toBe('Fennick Bay');
-    expect(out.get('b.txt')).toHaveLength(800);
+    expect(out.get('b.txt')).toEqual(enc('Saltreed Oysters'.repeat(50)));
     const damaged = zip.slice();
     damaged[30 + 'a.txt'.length] ^= 0xff; // first data byte of the stored entry
-    expect(() => inflateEntries(damaged, listZipEntries(damaged), DEFAULT_UPLOAD_LIMITS)).toThrow(/a\.txt fails its checksum/);
+    expect(() => inflate(damaged, listZipEntries(damaged), DEFAULT_UPLOAD_LIMITS)).toThrow(/a\.txt fails its checksum/);
   });
-  it('refuses a deflated entry that unpacks to more or fewer bytes than its table of contents declares', () => {
+  it.each(inflateWays)('%s refuses a deflated entry that unpacks to more or fewer bytes than its table of contents declares', (_way, inflate) => {
     // The declared size (APPNOTE.TXT §4.4.9, uncompressed size) must match what inflates: larger and smaller both mean damage.
     const zip = zipSync({ 'b.txt': [enc('Saltreed Oysters'.repeat(50)), { level: 9 }] });
     const [entry] = listZipEntries(zip);
     for (const declaredSize of [500, 1200]) {
       const e = (() => {
         try {
-          inflateEntries(zip, [{ ...entry, declaredSize }], DEFAULT_UPLOAD_LIMITS);
+          inflate(zip, [{ ...entry, declaredSize }], DEFAULT_UPLOAD_LIMITS);
         } catch (err) {
           return err as UploadError;
         }
@@ -441,6 +473,37 @@ describe('unzip-entries', () => {
       expect(e.message).toContain(`b.txt unpacks to ${formatBytes(800)}, not the ${formatBytes(declaredSize)} its table of contents declares`);
       expect(e.details).toEqual({ entry: 'b.txt', declaredBytes: declaredSize, inflatedBytes: 800 });
     }
+  });
+  it.each(inflateWays)('%s stops an entry that passes the budget while inflating, counting what earlier entries took', (_way, inflate) => {
+    const text = enc('Saltreed Oysters'.repeat(50));
+    const zip = zipSync({ 'a.txt': [text, { level: 9 }], 'b.txt': [text, { level: 9 }] });
+    const entries = listZipEntries(zip);
+    // b.txt declares 100 bytes, so the declared 900 pass the check; its real 800 after a.txt's 800 pass 1 000.
+    const lying = [entries[0], { ...entries[1], declaredSize: 100 }];
+    expect(() => inflate(zip, lying, { ...DEFAULT_UPLOAD_LIMITS, maxUncompressedBytes: 1_000 })).toThrow(
+      /^The zip expands to more than 1 kB \(unpacking stopped inside b\.txt\)/,
+    );
+    expect(() => inflate(zip, entries, { ...DEFAULT_UPLOAD_LIMITS, maxUncompressedBytes: 1_000 })).toThrow(/The zip’s files expand to 1\.6 kB/);
+  });
+  it('hands out an entry’s bytes range by range from a bounded window, and restarts for a range before it', () => {
+    // 3 MB of text that deflates about 3:1 (a number per line): far more than one window.
+    const lines = Array.from({ length: 200_000 }, (_, i) => `${(i * 7919) % 100_003}`.padStart(14, ' ')).join('\n');
+    const text = enc(lines);
+    const zip = zipSync({ 'big.txt': [text, { level: 6 }] });
+    const [entry] = listZipEntries(zip);
+    const reader = openEntryReader(zip, entry, DEFAULT_UPLOAD_LIMITS, { verify: true });
+    expect(reader.length).toBe(text.length);
+    let largestWindow = 0;
+    const again = new Uint8Array(text.length);
+    for (let at = 0; at < text.length; at += 4_096) {
+      const range = reader.subarray(at, Math.min(text.length, at + 4_096));
+      again.set(range, at);
+      largestWindow = Math.max(largestWindow, range.buffer.byteLength);
+    }
+    expect(Buffer.compare(again, text)).toBe(0);
+    expect(largestWindow).toBeLessThan(text.length / 10); // about 76 kB: the 4 kB range and one push’s output
+    expect(reader.subarray(10, 30)).toEqual(text.subarray(10, 30)); // before the window: inflated again from the start
+    expect(reader.finish()).toBe(text.length);
   });
   it('ignores folders, macOS resource forks and desktop files', () => {
     expect(['x/', '__MACOSX/a/._b.shp', 'a/._b.shp', 'a/.DS_Store', 'Thumbs.db', 'a/b.shp'].map(isIgnorableEntry)).toEqual([

@@ -19,6 +19,13 @@ describe('upload schemas', () => {
       geometryTypes: ['Polygon'],
       fields: ['LEASE_ID'],
       warnings: [],
+      overview: {
+        bbox: [-3, 47.56, -2.9465, 47.5835],
+        areaM2: { min: 94092.4, max: 94092.4, total: 94092.4 },
+        repaired: { count: 1, indexes: [1] },
+        onLand: { count: 0, indexes: [] },
+      },
+      featurePage: { offset: 0, limit: 200, total: 2 },
       features: [
         { index: 0, properties: { LEASE_ID: 'FB-014' }, areaM2: 94092.4, bbox: [-2.951, 47.581, -2.9465, 47.5835], repaired: false },
         { index: 1, properties: {}, areaM2: null, bbox: [-3, 47.56, -2.97, 47.565], repaired: true },
@@ -27,6 +34,9 @@ describe('upload schemas', () => {
     const parsed = importResponseSchema.parse(body);
     expect(parsed.crs).toEqual({ found: true, epsg: 32630, wkt: 'PROJCS["WGS_1984_UTM_Zone_30N"]' });
     expect(importResponseSchema.safeParse({ ...body, features: [{ ...body.features[0], bbox: [1, 2, 3] }] }).success).toBe(false);
+    // The figures over every feature are part of the contract: a preview without them is refused.
+    const { overview: _overview, ...withoutOverview } = body;
+    expect(importResponseSchema.safeParse(withoutOverview).success).toBe(false);
   });
 
   it.each([
