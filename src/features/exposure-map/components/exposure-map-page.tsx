@@ -55,14 +55,21 @@ export function ExposureMapPage() {
     ...exposureKeys.footprint(riverId, flow !== null ? { discharge: flow } : { scenarioId: scenario?.id ?? '' }),
     enabled: Boolean(riverId && (flow !== null || scenario)),
   });
-  const screenings = useQuery({
-    ...exposureKeys.screenings({ riverId, scenarioId: ratingScenario?.id }),
-    enabled: Boolean(ratingScenario),
-  });
   const [searchParams] = useSearchParams();
   const leaseCount = useQuery(exposureKeys.leaseCount());
   // ?leaseTiles=on forces tiles (used by the browser test on the small demo region).
   const useTiles = searchParams.get('leaseTiles') === 'on' || (leaseCount.data !== undefined && leaseCount.data > LEASE_TILE_THRESHOLD);
+  // Few leases: every lease's screening for the scenario, to colour them. Thousands: the tiles carry the colours, and
+  // only the lease clicked on is read (a jurisdiction's 20 000 screenings are megabytes).
+  const screenings = useQuery({
+    ...exposureKeys.screenings({ riverId, scenarioId: ratingScenario?.id }),
+    enabled: Boolean(ratingScenario) && leaseCount.isSuccess && !useTiles,
+  });
+  const selectedLeaseId = selection ? String(selection.properties.id) : undefined;
+  const selectedScreening = useQuery({
+    ...exposureKeys.screenings({ leaseId: selectedLeaseId, scenarioId: ratingScenario?.id }),
+    enabled: useTiles && Boolean(ratingScenario && selectedLeaseId),
+  });
   const leases = useQuery({ ...exposureKeys.leasesWithGeometry(), enabled: leaseCount.isSuccess && !useTiles });
   const land = useQuery(exposureKeys.land());
   const zones = useQuery(exposureKeys.zones());
@@ -189,7 +196,11 @@ export function ExposureMapPage() {
   if (rivers.isError) return <LoadError error={rivers.error} retry={() => rivers.refetch()} />;
 
   const fp = footprint.data?.properties;
-  const picked: ScreeningRow | undefined = selection ? byLease.get(String(selection.properties.id)) : undefined;
+  const picked: ScreeningRow | undefined = selectedLeaseId
+    ? useTiles
+      ? selectedScreening.data?.items[0]
+      : byLease.get(selectedLeaseId)
+    : undefined;
   const plume = fp?.plume as { reach?: number; width?: number } | undefined;
 
   return (
