@@ -130,18 +130,31 @@ describe('kept list answers', () => {
   });
 
   it('sends a kept answer gzipped to a client that asks for it (as browsers do), and as it is to one that does not', async () => {
-    const plain = await grower.get('/api/v1/screenings?limit=100').set('Accept-Encoding', 'identity').expect(200);
+    // Ten more leases far from the demo bay make the grower's list several kB (answers under 1 kB go as they are).
+    const owner = await userId('grower@brackline.test');
+    await other.query(
+      `insert into leases (lease_code, holder, species, status, owner_id, geom, area_m2)
+       select 'CACHE-GZ-' || i, 'Gzip holder', 'pacific-oyster', 'held', $1, g, ST_Area(g::geography)
+         from generate_series(1, 10) i, lateral (select ST_Multi(ST_MakeEnvelope(-20.8 + i * 0.01, 30.2, -20.798 + i * 0.01, 30.202, 4326)) as g) x`,
+      [owner],
+    );
+    const route = '/api/v1/leases?limit=50';
+    const plain = await grower.get(route).set('Accept-Encoding', 'identity').expect(200);
     expect(plain.headers['content-encoding']).toBeUndefined();
-    const zipped = await grower.get('/api/v1/screenings?limit=100').set('Accept-Encoding', 'gzip, deflate, br').expect(200);
+    expect(plain.text.length).toBeGreaterThan(1024);
+    const before = stats(t);
+    const zipped = await grower.get(route).set('Accept-Encoding', 'gzip, deflate, br').expect(200);
+    expect(stats(t).hits).toBe(before.hits + 1);
     expect(zipped.headers['content-encoding']).toBe('gzip');
     expect(zipped.headers.vary).toMatch(/Accept-Encoding/i);
     // supertest inflates the body: the same answer either way.
     expect(zipped.body).toEqual(plain.body);
     // An answer read fresh (no result cache) is gzipped by the compression middleware instead.
     const agent = (await signIn(uncached.app, 'grower@brackline.test')).agent;
-    const fresh = await agent.get('/api/v1/screenings?limit=100').set('Accept-Encoding', 'gzip').expect(200);
+    const fresh = await agent.get(route).set('Accept-Encoding', 'gzip').expect(200);
     expect(fresh.headers['content-encoding']).toBe('gzip');
-    expect(fresh.body.items.length).toBe(plain.body.items.length);
+    expect(fresh.body.total).toBe(plain.body.total);
+    await other.query("delete from leases where lease_code like 'CACHE-GZ-%'");
   });
 
   it('with RESULT_CACHE=false reads every time and answers the same', async () => {
