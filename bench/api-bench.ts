@@ -109,6 +109,7 @@ export async function apiBenchmarks(databaseUrl: string): Promise<BenchResult[]>
       ['GET /api/v1/screenings?limit=100', '/api/v1/screenings?limit=100'],
       ['GET a lease tile (zoom 12)', demoTile(12)],
       ['Overview: GET /api/v1/account/me', '/api/v1/account/me'],
+      ['Overview: the ranking, GET /api/v1/leases?sort=annualRating&order=desc&limit=25', '/api/v1/leases?sort=annualRating&order=desc&limit=25&offset=0&withGeometry=false'],
       ['Overview: GET /api/v1/overview/closures', '/api/v1/overview/closures'],
       ['Overview: GET /api/v1/inbox?limit=50', '/api/v1/inbox?limit=50'],
     ];
