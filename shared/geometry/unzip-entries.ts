@@ -538,12 +538,16 @@ function inflateCapped(data: Uint8Array, entry: ZipEntryInfo, budget: number, ma
   return out;
 }
 
-/** @private */
-function cannotUnpack(entry: ZipEntryInfo): UploadError {
-  return new UploadError('corrupt_zip', `The zip file is damaged: ${entry.path} cannot be unpacked. ${CORRUPT_ADVICE}`, {
-    entry: entry.path,
-  });
+/** @private The refusal of an entry whose bytes are damaged: `what` says how, e.g. 'fails its checksum'. */
+function damagedEntry(entry: ZipEntryInfo, what: string): UploadError {
+  return new UploadError('corrupt_zip', `The zip file is damaged: ${entry.path} ${what}. ${CORRUPT_ADVICE}`, { entry: entry.path });
 }
+
+/** @private */
+const cannotUnpack = (entry: ZipEntryInfo) => damagedEntry(entry, 'cannot be unpacked');
+
+/** @private */
+const badChecksum = (entry: ZipEntryInfo) => damagedEntry(entry, 'fails its checksum');
 
 /** @private A deflated entry whose real size is not its declared one. */
 function sizeMismatch(entry: ZipEntryInfo, total: number): UploadError {
@@ -554,12 +558,6 @@ function sizeMismatch(entry: ZipEntryInfo, total: number): UploadError {
   );
 }
 
-/** @private */
-function badChecksum(entry: ZipEntryInfo): UploadError {
-  return new UploadError('corrupt_zip', `The zip file is damaged: ${entry.path} fails its checksum. ${CORRUPT_ADVICE}`, {
-    entry: entry.path,
-  });
-}
 
 /** @private */
 function tooLargeWhileInflating(entry: ZipEntryInfo, max: number): UploadError {

@@ -8,42 +8,21 @@
  */
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
-import { write } from '@mapbox/shp-write';
 import { unzipSync, zipSync } from 'fflate';
 import { describe, expect, it } from 'vitest';
 import { readShapefileZip } from '../../../shared/geometry/read-shapefile-zip';
 import { listZipEntries } from '../../../shared/geometry/unzip-entries';
 import { isUploadError } from '../../../shared/geometry/upload-error';
 import { DEFAULT_UPLOAD_LIMITS } from '../../../shared/geometry/upload-limits';
+import { generatedShapefileLayer, WGS84_PRJ } from './generated-shapefile';
 
-const WGS84_PRJ =
-  'GEOGCS["GCS_WGS_1984",DATUM["D_WGS_1984",SPHEROID["WGS_1984",6378137.0,298.257223563]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]]';
 const enc = (s: string) => new TextEncoder().encode(s);
 const root = path.resolve(import.meta.dirname, '../../fixtures/uploads');
 
-/** `count` squares (lon/lat); every 7th has a hole, every 11th is two parts (a MultiPolygon). */
+/** `count` squares (see generated-shapefile.ts) as the files of a layer named "leases", with its .prj. */
 function layerFiles(count: number) {
-  const square = (x: number, y: number, d: number) => [
-    [x, y],
-    [x, y + d],
-    [x + d, y + d],
-    [x + d, y],
-    [x, y],
-  ];
-  const geometries = Array.from({ length: count }, (_, i) => {
-    const x = -38.9 + (i % 20) * 0.003;
-    const y = 41 + Math.floor(i / 20) * 0.003;
-    if (i % 11 === 0) return [[square(x, y, 0.001)], [square(x + 0.0015, y, 0.0005)]];
-    if (i % 7 === 0) return [square(x, y, 0.001), square(x + 0.00025, y + 0.00025, 0.00025).reverse()];
-    return [square(x, y, 0.001)];
-  });
-  const rows = Array.from({ length: count }, (_, i) => ({ LEASE_ID: `GEN-${i + 1}`, HOLDER: i % 2 ? 'Cordmere Shellfish' : 'Saltreed Oysters', AREA: i / 4 }));
-  let out: { 'leases.shp': Uint8Array; 'leases.shx': Uint8Array; 'leases.dbf': Uint8Array } | undefined;
-  write(rows, 'POLYGON', geometries as object[], (_err, files) => {
-    const bytes = (v: DataView) => new Uint8Array(v.buffer.slice(v.byteOffset, v.byteOffset + v.byteLength));
-    out = { 'leases.shp': bytes(files.shp as DataView), 'leases.shx': bytes(files.shx as DataView), 'leases.dbf': bytes(files.dbf as DataView) };
-  });
-  return { ...out!, 'leases.prj': enc(WGS84_PRJ) };
+  const files = generatedShapefileLayer(count, { perRow: 20, idPrefix: 'GEN', holders: ['Saltreed Oysters', 'Cordmere Shellfish'] });
+  return { 'leases.shp': files.shp, 'leases.shx': files.shx, 'leases.dbf': files.dbf, 'leases.prj': enc(WGS84_PRJ) };
 }
 
 /** The same files as a zip of stored (method 0) entries. */

@@ -5,7 +5,6 @@
  * a record header is 8 bytes (number, content length; big-endian), then the shape type (int32 LE), 0 for a
  * null shape; dBASE III table: 32-byte header, 32-byte field descriptors, 0x0D, then fixed-width rows.
  */
-import { write } from '@mapbox/shp-write';
 import { zipSync } from 'fflate';
 import type { Feature, Geometry } from 'geojson';
 import { describe, expect, it } from 'vitest';
@@ -14,35 +13,12 @@ import { openDbf } from '../../../shared/geometry/read-dbf';
 import { checkShp, parseCheckedShp, parseShpRange } from '../../../shared/geometry/read-shp';
 import { layerChunks, layerFeatureCount, layerGeometryTypes, type ParsedUpload, readUpload } from '../../../shared/geometry/read-upload';
 import { isUploadError } from '../../../shared/geometry/upload-error';
+import { generatedShapefileLayer, WGS84_PRJ } from './generated-shapefile';
 
-const WGS84_PRJ =
-  'GEOGCS["GCS_WGS_1984",DATUM["D_WGS_1984",SPHEROID["WGS_1984",6378137.0,298.257223563]],PRIMEM["Greenwich",0.0],UNIT["Degree",0.0174532925199433]]';
 const enc = (s: string) => new TextEncoder().encode(s);
 
-/** `count` small squares (lon/lat) on a grid; every 7th has a hole, every 11th is two parts (a MultiPolygon). */
-function layerFiles(count: number, size = 0.001) {
-  const square = (x: number, y: number, d: number) => [
-    [x, y],
-    [x, y + d],
-    [x + d, y + d],
-    [x + d, y],
-    [x, y],
-  ];
-  const geometries = Array.from({ length: count }, (_, i) => {
-    const x = -38.9 + (i % 100) * 0.003;
-    const y = 41 + Math.floor(i / 100) * 0.003;
-    if (i % 11 === 0) return [[square(x, y, size)], [square(x + 0.0015, y, size / 2)]];
-    if (i % 7 === 0) return [square(x, y, size), square(x + size / 4, y + size / 4, size / 4).reverse()];
-    return [square(x, y, size)];
-  });
-  const rows = Array.from({ length: count }, (_, i) => ({ LEASE_ID: `STR-${i + 1}`, HOLDER: i % 2 ? 'Cordmere Shellfish' : 'Huîtres Vasière', AREA: i / 4 }));
-  let out: { shp: Uint8Array; shx: Uint8Array; dbf: Uint8Array } | undefined;
-  write(rows, 'POLYGON', geometries as object[], (_err, files) => {
-    const bytes = (v: DataView) => new Uint8Array(v.buffer.slice(v.byteOffset, v.byteOffset + v.byteLength));
-    out = { shp: bytes(files.shp as DataView), shx: bytes(files.shx as DataView), dbf: bytes(files.dbf as DataView) };
-  });
-  return out!;
-}
+/** `count` small squares (see generated-shapefile.ts); `size` the side of each, degrees. */
+const layerFiles = (count: number, size = 0.001) => generatedShapefileLayer(count, { size });
 
 function zipOf(files: { shp: Uint8Array; shx: Uint8Array; dbf: Uint8Array }, cpg?: string) {
   return zipSync({ 'leases.shp': files.shp, 'leases.shx': files.shx, 'leases.dbf': files.dbf, 'leases.prj': enc(WGS84_PRJ), ...(cpg ? { 'leases.cpg': enc(cpg) } : {}) });
