@@ -58,9 +58,15 @@ describe('a file with several layers', () => {
 
   it('a GeoPackage needing a CRS keeps the chosen code when a layer is picked', async () => {
     const res = await grower.post('/api/v1/imports').field('kind', 'lease').attach('file', readFileSync(path.join(DIR, 'needs-crs/undefined-srs.gpkg')), 'undefined-srs.gpkg');
-    expect(res.body).toMatchObject({ status: 'needs-crs', format: 'geopackage' });
+    expect(res.body).toMatchObject({ status: 'needs-crs', format: 'geopackage', featurePage: { total: 0 }, overview: { bbox: null } });
+    // Nothing is staged before the coordinate system is known: the pages of features say what to do first.
+    const early = await grower.get(`/api/v1/imports/${res.body.id}/features`).expect(409);
+    expect(early.body.error.message).toMatch(/choose its coordinate system first/);
     const chosen = await grower.post(`/api/v1/imports/${res.body.id}/crs`).send({ epsg: 32630 }).expect(200);
     expect(chosen.body.features).toHaveLength(4);
+    const pages = await grower.get(`/api/v1/imports/${res.body.id}/features?limit=3&offset=3`).expect(200);
+    expect(pages.body).toMatchObject({ offset: 3, limit: 3, total: 4 });
+    expect(pages.body.items.map((f: { index: number }) => f.index)).toEqual([3]);
   });
 });
 
