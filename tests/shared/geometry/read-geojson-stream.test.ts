@@ -8,22 +8,12 @@ import type { Feature, Geometry } from 'geojson';
 import { describe, expect, it, vi } from 'vitest';
 import { type GeoJsonReading, readGeoJson } from '../../../shared/geometry/read-geojson';
 import { isUploadError } from '../../../shared/geometry/upload-error';
+import { squarePolygon } from './square-polygon';
 
 const enc = (s: string) => new TextEncoder().encode(s);
 const LIMITS = { maxFeatures: 50_000 };
 const point = (x: number, y: number) => ({ type: 'Point', coordinates: [x, y] });
-const square = (x: number, y: number, d = 0.001) => ({
-  type: 'Polygon',
-  coordinates: [
-    [
-      [x, y],
-      [x + d, y],
-      [x + d, y + d],
-      [x, y + d],
-      [x, y],
-    ],
-  ],
-});
+const square = (x: number, y: number, d = 0.001) => squarePolygon(x, y, d);
 
 function gathered(reading: GeoJsonReading, size: number): Feature<Geometry | null>[][] {
   return [...reading.layer.chunks!(size)];

@@ -26,22 +26,12 @@ import {
 } from '../../../shared/geometry/unzip-entries';
 import { isUploadError, UploadError } from '../../../shared/geometry/upload-error';
 import { formatBytes, formatCount, listSome, resolveUploadLimits } from '../../../shared/geometry/upload-limits';
+import { squarePolygon } from './square-polygon';
 
 const enc = (s: string) => new TextEncoder().encode(s);
 const fc = (features: unknown[], extra: Record<string, unknown> = {}) =>
   enc(JSON.stringify({ type: 'FeatureCollection', ...extra, features }));
-const square = (x = -2.95, y = 47.58, d = 0.01) => ({
-  type: 'Polygon',
-  coordinates: [
-    [
-      [x, y],
-      [x + d, y],
-      [x + d, y + d],
-      [x, y + d],
-      [x, y],
-    ],
-  ],
-});
+const square = (x = -2.95, y = 47.58, d = 0.01) => squarePolygon(x, y, d);
 const feature = (geometry: unknown, properties: Record<string, unknown> | null = {}, id?: string | number) => ({
   type: 'Feature',
   ...(id !== undefined ? { id } : {}),
