@@ -4,6 +4,7 @@ import { crsDefinition, identifyCrs, searchCrs } from '../../../shared/geometry/
 import { loadCrsCatalogue } from '../../../shared/geometry/load-crs-catalogue';
 import { layerReprojector, reprojectLayer, toWgs84 } from '../../../shared/geometry/reproject';
 import { UploadError } from '../../../shared/geometry/upload-error';
+import { squarePolygon } from './square-polygon';
 
 const catalogue = loadCrsCatalogue();
 const utm30nWkt = catalogue['32630'].wkt!;
@@ -11,18 +12,7 @@ const utm30nWkt = catalogue['32630'].wkt!;
 const square = (x: number, y: number, d: number): Feature<Polygon> => ({
   type: 'Feature',
   properties: { LEASE_ID: 'FB-014' },
-  geometry: {
-    type: 'Polygon',
-    coordinates: [
-      [
-        [x, y],
-        [x + d, y],
-        [x + d, y + d],
-        [x, y + d],
-        [x, y],
-      ],
-    ],
-  },
+  geometry: squarePolygon(x, y, d) as Polygon,
 });
 
 describe('toWgs84 against PROJ 9.1.1 cs2cs', () => {
