@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { Button } from '../../components/ui/button';
 import { Cautions } from '../../components/ui/cautions';
@@ -36,6 +36,11 @@ function LeasesByRating() {
     // while the page shows one without it (a kept answer on the server, so this costs little).
     refetchInterval: (query) => (query.state.data?.items.some((l) => !l.annualRating) ? UNRATED_REFRESH_MS : false),
   });
+  // Leases deleted elsewhere can leave this page past the end of the ranking: go back to its first page.
+  const pastTheEnd = ranked.data !== undefined && ranked.data.items.length === 0 && offset > 0;
+  useEffect(() => {
+    if (pastTheEnd) setOffset(0);
+  }, [pastTheEnd]);
   if (ranked.isPending) return <Loading what="Loading your leases’ ratings…" />;
   if (ranked.isError) return <LoadError error={ranked.error} retry={() => ranked.refetch()} />;
   const { items, total } = ranked.data;

@@ -45,9 +45,12 @@ const RANKED = [
 /** 60 leases in all: the first page holds the five above and twenty more. */
 const TOTAL = 60;
 const requested: URL[] = [];
+/** How many leases the mocked server holds now (leases can be deleted between two pages). */
+let serverTotal = TOTAL;
 
 beforeEach(() => {
   requested.length = 0;
+  serverTotal = TOTAL;
   vi.stubGlobal(
     'fetch',
     vi.fn(async (url: string) => {
@@ -60,8 +63,8 @@ beforeEach(() => {
           ? { id: 'u', email: 'grower@brackline.test', name: 'Ida', role: 'grower' }
           : path === '/api/v1/leases'
             ? {
-                total: TOTAL,
-                items: Array.from({ length: Math.min(25, TOTAL - offset) }, (_, k) =>
+                total: serverTotal,
+                items: Array.from({ length: Math.max(0, Math.min(25, serverTotal - offset)) }, (_, k) =>
                   offset + k < RANKED.length ? RANKED[offset + k] : lease(`x${offset + k}`, `FB-L${offset + k}`, 'low', 0.1, 0.001),
                 ),
               }
@@ -114,6 +117,15 @@ describe('Overview', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Next 25' }));
     await waitFor(() => expect(screen.getByTestId('ranking-range').textContent).toBe('51–60 of 60'));
     expect((screen.getByRole('button', { name: 'Next 25' }) as HTMLButtonElement).disabled).toBe(true);
+  });
+
+  it('goes back to the first page when leases deleted meanwhile leave the page past the end', async () => {
+    renderOverview();
+    await screen.findByRole('table', { name: 'Leases by yearly rating' });
+    serverTotal = 20;
+    fireEvent.click(screen.getByRole('button', { name: 'Next 25' }));
+    await waitFor(() => expect(screen.getByTestId('ranking-range').textContent).toBe('1–20 of 20'));
+    expect(within(screen.getByRole('table', { name: 'Leases by yearly rating' })).getAllByRole('row')).toHaveLength(21);
   });
 
   it('says how the yearly rating is set, with the cut points and their reasons', async () => {
